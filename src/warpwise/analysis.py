@@ -1,0 +1,106 @@
+"""One call from a profile to all its section properties.
+
+Mesh once, evaluate the basis once, assemble and factorise the stiffness matrix once, then
+solve every right-hand side with the same factorisation.
+
+Examples
+--------
+>>> from warpwise.shapes import rectangle
+>>> res = analyse(rectangle(40.0, 20.0))
+>>> round(res.geometric.A, 6)
+800.0
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .errors import AnalysisError
+from .fem import ElementValues, element_values, stiffness_matrix
+from .geometry import Profile
+from .mesh import Mesh, build_mesh
+from .section import GeometricProperties, TorsionProperties, geometric_properties, torsion_load
+from .section import torsion_properties
+from .solve import PinnedSolver
+
+#: Largest relative residual accepted from a linear solve before the result is refused.
+MAX_RESIDUAL = 1e-8
+
+
+@dataclass(frozen=True, eq=False)
+class SectionResult:
+    """Everything computed for one profile.
+
+    Attributes
+    ----------
+    profile : Profile
+        The analysed profile.
+    mesh : Mesh
+        The mesh used.
+    geometric : GeometricProperties
+        Area properties.
+    torsion : TorsionProperties
+        Torsion and warping properties.
+    values : ElementValues
+        Basis values in centroidal coordinates (for stress recovery).
+    solver : PinnedSolver
+        The factorised stiffness matrix (for further right-hand sides).
+    """
+
+    profile: Profile
+    mesh: Mesh
+    geometric: GeometricProperties
+    torsion: TorsionProperties
+    values: ElementValues
+    solver: PinnedSolver
+
+    @property
+    def units(self) -> str:
+        """Length unit of all results."""
+        return self.profile.units
+
+
+def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None) -> SectionResult:
+    """Mesh a profile and compute its geometric, torsion and warping properties.
+
+    Parameters
+    ----------
+    profile : Profile
+        A validated profile.
+    mesh_size : float, optional
+        Largest element size, drawing unit; default chosen from the profile.
+    mesh : Mesh, optional
+        A ready mesh to use instead of meshing.
+
+    Returns
+    -------
+    SectionResult
+
+    Raises
+    ------
+    AnalysisError
+        When the solve fails its residual check or J falls outside (0, Ix + Iy].
+    """
+    if mesh is None:
+        mesh = build_mesh(profile, mesh_size)
+    x0, y0, x1, y1 = profile.bounds
+    origin = np.array([0.5 * (x0 + x1), 0.5 * (y0 + y1)])
+    try:
+        ev = element_values(mesh, origin)
+    except ValueError as exc:
+        raise AnalysisError(str(exc), file=profile.source) from None
+    geo, evc = geometric_properties(mesh, ev, origin)
+    K = stiffness_matrix(mesh, evc)
+    # pin the node nearest the centroid: any node works, this one keeps round-off small
+    pin = int(np.argmin(np.sum((mesh.nodes - np.array(geo.centroid)) ** 2, axis=1)))
+    solver = PinnedSolver(K, pin)
+    tor = torsion_properties(mesh, evc, geo, solver, torsion_load(mesh, evc))
+    if not tor.residual < MAX_RESIDUAL:
+        raise AnalysisError(f"warping solve residual {tor.residual:.2e} is too large",
+                            file=profile.source)
+    if not 0 < tor.J <= geo.Ip * (1 + 1e-9):
+        raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
+                            file=profile.source)
+    return SectionResult(profile, mesh, geo, tor, evc, solver)
