@@ -145,6 +145,8 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray) -> t
     evc = replace(ev, xy=ev.xy - np.array([cx, cy]))
     x, y = evc.xy[..., 0], evc.xy[..., 1]
     Ix, Iy, Ixy = integrate(evc, y * y), integrate(evc, x * x), integrate(evc, x * y)
+    if abs(Ixy) < 1e-13 * (Ix + Iy):  # round-off of a symmetric section
+        Ixy = 0.0
     mean, half = 0.5 * (Ix + Iy), 0.5 * (Ix - Iy)
     rad = float(np.hypot(half, Ixy))
     I1, I2 = mean + rad, mean - rad

@@ -1,0 +1,101 @@
+"""Output files: CSV rows, JSON objects, and atomic writes.
+
+Every file is written to a temporary file beside the target and renamed into place only when
+complete, so an existing output is never left half-written or replaced by a broken one.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import os
+import tempfile
+from pathlib import Path
+from typing import Any
+
+from ..analysis import SectionResult
+from ..errors import UsageError
+from .quantities import QUANTITIES, unit_of, values
+
+
+def atomic_write(path: str | Path, data: str | bytes) -> None:
+    """Write ``data`` to ``path`` through a temporary file and a rename.
+
+    Parameters
+    ----------
+    path : str or Path
+        Target file.
+    data : str or bytes
+        Contents; text is written as UTF-8.
+
+    Raises
+    ------
+    UsageError
+        When the folder does not exist or cannot be written.
+    """
+    target = Path(path)
+    folder = target.parent if str(target.parent) else Path(".")
+    if not folder.is_dir():
+        raise UsageError(f"output folder {str(folder)!r} does not exist", file=str(path))
+    raw = data.encode("utf-8") if isinstance(data, str) else data
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
+    except OSError as exc:
+        raise UsageError(f"cannot write here ({exc.strerror})", file=str(path)) from None
+    try:
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(raw)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, target)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise
+
+
+def to_json_object(result: SectionResult) -> dict[str, Any]:
+    """JSON object of one result, keys as in the design contract, values in the length unit."""
+    v = values(result)
+    obj: dict[str, Any] = {"file": result.profile.source, "units": {"length": result.units}}
+    for q in QUANTITIES:
+        if q.key in ("xc", "yc", "xs", "ys"):
+            continue
+        obj[q.key] = v[q.key]
+    obj["centroid"] = [v["xc"], v["yc"]]
+    obj["shear_centre"] = [v["xs"], v["ys"]]
+    obj["mesh"] = {"nodes": result.mesh.n_nodes, "elements": result.mesh.n_elements,
+                   "size": result.mesh.size}
+    obj["notes"] = list(result.profile.notes)
+    return obj
+
+
+def json_text(results: list[SectionResult]) -> str:
+    """JSON text: one object for one result, a list for several."""
+    objs = [to_json_object(r) for r in results]
+    return json.dumps(objs[0] if len(objs) == 1 else objs, indent=2) + "\n"
+
+
+def csv_header(length: str) -> list[str]:
+    """CSV column headers, each with its unit, e.g. ``A (mm2)``."""
+    return ["file", "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
+            "mesh nodes", "mesh elements"]
+
+
+def csv_text(results: list[SectionResult]) -> str:
+    """CSV text with one row per result; all results must share one length unit."""
+    units = {r.units for r in results}
+    if len(units) > 1:
+        raise UsageError(f"profiles use different length units ({', '.join(sorted(units))}); "
+                         "give --units to report them in one")
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    w.writerow(csv_header(results[0].units))
+    for r in results:
+        v = values(r)
+        w.writerow([r.profile.source, r.units, *[f"{v[q.key]:.10g}" for q in QUANTITIES],
+                    r.mesh.n_nodes, r.mesh.n_elements])
+    return buf.getvalue()

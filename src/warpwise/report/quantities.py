@@ -1,0 +1,118 @@
+"""The one list of reported quantities: symbol, meaning, unit and where its value comes from.
+
+Table, CSV, JSON and the glossary all read this list, so a quantity is named and explained in
+one place. ``power`` is the exponent of the length unit L (0 for angles and counts).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any
+
+from ..analysis import SectionResult
+
+
+@dataclass(frozen=True)
+class Quantity:
+    """One reported quantity.
+
+    Attributes
+    ----------
+    key : str
+        Name in JSON and the CSV header (with the unit).
+    symbol : str
+        Trade symbol shown in the table.
+    label : str
+        Plain-English name.
+    power : int
+        Exponent of the length unit (2 for an area, 4 for a second moment...); -1 for degrees.
+    group : str
+        Heading the quantity is shown under.
+    definition : str
+        Definition or formula, for the glossary.
+    """
+
+    key: str
+    symbol: str
+    label: str
+    power: int
+    group: str
+    definition: str
+
+
+DEG = -1  # marker: the unit is degrees
+
+QUANTITIES: tuple[Quantity, ...] = (
+    Quantity("A", "A", "area", 2, "Geometry", "integral of dA"),
+    Quantity("xc", "xc", "centroid, x", 1, "Geometry", "integral of x dA / A, drawing coordinates"),
+    Quantity("yc", "yc", "centroid, y", 1, "Geometry", "integral of y dA / A, drawing coordinates"),
+    Quantity("Ix", "Ix", "second moment about centroidal x axis", 4, "Bending",
+             "integral of y^2 dA, y from the centroid"),
+    Quantity("Iy", "Iy", "second moment about centroidal y axis", 4, "Bending",
+             "integral of x^2 dA, x from the centroid"),
+    Quantity("Ixy", "Ixy", "product moment", 4, "Bending", "integral of x y dA about the centroid"),
+    Quantity("I1", "I1", "major principal second moment", 4, "Bending",
+             "(Ix + Iy)/2 + sqrt(((Ix - Iy)/2)^2 + Ixy^2)"),
+    Quantity("I2", "I2", "minor principal second moment", 4, "Bending",
+             "(Ix + Iy)/2 - sqrt(((Ix - Iy)/2)^2 + Ixy^2)"),
+    Quantity("alpha_deg", "alpha", "angle from +x to major axis 1", DEG, "Bending",
+             "0.5 atan2(-2 Ixy, Ix - Iy), counter-clockwise positive"),
+    Quantity("Ip", "Ip", "polar second moment about the centroid", 4, "Bending", "Ix + Iy"),
+    Quantity("rx", "rx", "radius of gyration about x", 1, "Bending", "sqrt(Ix / A)"),
+    Quantity("ry", "ry", "radius of gyration about y", 1, "Bending", "sqrt(Iy / A)"),
+    Quantity("r1", "r1", "radius of gyration about axis 1", 1, "Bending", "sqrt(I1 / A)"),
+    Quantity("r2", "r2", "radius of gyration about axis 2", 1, "Bending", "sqrt(I2 / A)"),
+    Quantity("Wel_x_top", "Wel,x+", "elastic modulus about x, fibre at largest y", 3, "Bending",
+             "Ix / (ymax - yc)"),
+    Quantity("Wel_x_bottom", "Wel,x-", "elastic modulus about x, fibre at smallest y", 3,
+             "Bending", "Ix / (yc - ymin)"),
+    Quantity("Wel_y_right", "Wel,y+", "elastic modulus about y, fibre at largest x", 3, "Bending",
+             "Iy / (xmax - xc)"),
+    Quantity("Wel_y_left", "Wel,y-", "elastic modulus about y, fibre at smallest x", 3, "Bending",
+             "Iy / (xc - xmin)"),
+    Quantity("Wel_1_pos", "Wel,1+", "elastic modulus about axis 1, fibre on the +2 side", 3,
+             "Bending", "I1 / largest distance from axis 1 on the side of +axis 2"),
+    Quantity("Wel_1_neg", "Wel,1-", "elastic modulus about axis 1, fibre on the -2 side", 3,
+             "Bending", "I1 / largest distance from axis 1 on the side of -axis 2"),
+    Quantity("Wel_2_pos", "Wel,2+", "elastic modulus about axis 2, fibre on the +1 side", 3,
+             "Bending", "I2 / largest distance from axis 2 on the side of +axis 1"),
+    Quantity("Wel_2_neg", "Wel,2-", "elastic modulus about axis 2, fibre on the -1 side", 3,
+             "Bending", "I2 / largest distance from axis 2 on the side of -axis 1"),
+    Quantity("J", "J", "Saint-Venant torsion constant", 4, "Torsion and warping",
+             "Ix + Iy - integral of (y dpsi/dx - x dpsi/dy) dA; T = G J theta"),
+    Quantity("xs", "xs", "shear centre, x", 1, "Torsion and warping",
+             "Trefftz: point about which the warping function is orthogonal to x and y"),
+    Quantity("ys", "ys", "shear centre, y", 1, "Torsion and warping", "as xs, drawing coordinates"),
+    Quantity("Cw", "Cw", "warping constant", 6, "Torsion and warping",
+             "integral of omega^2 dA, omega the zero-mean warping function about the shear centre"),
+)
+
+QUANTITY_BY_KEY = {q.key: q for q in QUANTITIES}
+
+
+def unit_of(q: Quantity, length: str) -> str:
+    """Unit text of a quantity for a length unit, e.g. ``mm4``; ``deg`` for angles."""
+    if q.power == DEG:
+        return "deg"
+    if q.power == 0:
+        return "-"
+    return length if q.power == 1 else f"{length}{q.power}"
+
+
+def values(result: SectionResult) -> dict[str, float]:
+    """Flat dictionary of every quantity in :data:`QUANTITIES` for one result."""
+    g, t = result.geometric, result.torsion
+    out: dict[str, Any] = {
+        "A": g.A, "xc": g.centroid[0], "yc": g.centroid[1],
+        "Ix": g.Ix, "Iy": g.Iy, "Ixy": g.Ixy, "I1": g.I1, "I2": g.I2, "alpha_deg": g.alpha_deg,
+        "Ip": g.Ip, "rx": g.rx, "ry": g.ry, "r1": g.r1, "r2": g.r2,
+        "J": t.J, "xs": t.shear_centre[0], "ys": t.shear_centre[1], "Cw": t.Cw,
+    }
+    for k, v in g.Wel.items():
+        if "_" in k:
+            out[f"Wel_{k}"] = v
+    tiny = 1e-12 * result.profile.size  # round-off of a coordinate that is zero
+    for k in ("xc", "yc", "xs", "ys"):
+        if abs(out[k]) < tiny:
+            out[k] = 0.0
+    return {q.key: float(out[q.key]) for q in QUANTITIES}
