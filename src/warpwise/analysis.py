@@ -9,6 +9,7 @@ Examples
 >>> res = analyse(rectangle(40.0, 20.0))
 >>> round(res.geometric.A, 6)
 800.0
+
 """
 
 from __future__ import annotations
@@ -21,8 +22,13 @@ from .errors import AnalysisError
 from .fem import ElementValues, element_values, stiffness_matrix
 from .geometry import Profile
 from .mesh import Mesh, build_mesh
-from .section import GeometricProperties, TorsionProperties, geometric_properties, torsion_load
-from .section import torsion_properties
+from .section import (
+    GeometricProperties,
+    TorsionProperties,
+    geometric_properties,
+    torsion_load,
+    torsion_properties,
+)
 from .solve import PinnedSolver
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
@@ -47,6 +53,7 @@ class SectionResult:
         Basis values in centroidal coordinates (for stress recovery).
     solver : PinnedSolver
         The factorised stiffness matrix (for further right-hand sides).
+
     """
 
     profile: Profile
@@ -82,6 +89,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     ------
     AnalysisError
         When the solve fails its residual check or J falls outside (0, Ix + Iy].
+
     """
     if mesh is None:
         mesh = build_mesh(profile, mesh_size)

@@ -10,6 +10,7 @@ Examples
 >>> err = ProfileError("loop 2 is not closed", file="bar.txt", where=(10.0, 2.5))
 >>> str(err)
 'bar.txt: loop 2 is not closed at (10, 2.5)'
+
 """
 
 from __future__ import annotations
@@ -26,6 +27,7 @@ class WarpwiseError(Exception):
         The file (or other source) the defect was found in.
     where : tuple of float, optional
         Coordinates of the defect, in the drawing's length unit.
+
     """
 
     def __init__(

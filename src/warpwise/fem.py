@@ -12,6 +12,7 @@ Examples
 >>> N, dN = shape_functions(np.array([[1.0 / 3.0, 1.0 / 3.0]]))
 >>> round(float(N.sum()), 12), round(float(dN.sum()), 12)
 (1.0, 0.0)
+
 """
 
 from __future__ import annotations
@@ -36,6 +37,7 @@ class QuadratureRule:
         Weights (q,), summing to the reference area 1/2.
     degree : int
         Polynomial degree integrated exactly.
+
     """
 
     points: np.ndarray
@@ -48,7 +50,7 @@ def _symmetric_rule(groups: list[tuple[float, float]], degree: int) -> Quadratur
     pts, wts = [], []
     for a, w in groups:
         b = 1.0 - 2.0 * a
-        for l1, l2, l3 in ((b, a, a), (a, b, a), (a, a, b)):
+        for _l1, l2, l3 in ((b, a, a), (a, b, a), (a, a, b)):
             pts.append((l2, l3))
             wts.append(0.5 * w)
     return QuadratureRule(np.array(pts), np.array(wts), degree)
@@ -74,6 +76,7 @@ def shape_functions(ref: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         Values (q, 6).
     dN : numpy.ndarray
         Derivatives (q, 6, 2) with respect to (xi, eta).
+
     """
     xi, eta = ref[:, 0], ref[:, 1]
     L = np.stack([1.0 - xi - eta, xi, eta], axis=1)
@@ -103,6 +106,7 @@ class ElementValues:
         Quadrature weight times Jacobian (m, q), drawing unit squared.
     xy : numpy.ndarray
         Physical coordinates of the quadrature points (m, q, 2), drawing unit.
+
     """
 
     N: np.ndarray
@@ -147,6 +151,7 @@ def element_values(
     ------
     ValueError
         If an element is inverted or degenerate (non-positive Jacobian).
+
     """
     N, dN = shape_functions(rule.points)
     X = mesh.nodes[mesh.elements] - np.asarray(origin, dtype=float)  # (m, 6, 2)
@@ -183,6 +188,7 @@ def stiffness_matrix(mesh: Mesh, ev: ElementValues, coefficient: np.ndarray | No
     -------
     scipy.sparse.csr_matrix
         (n, n) matrix, drawing unit**0 (dimensionless for c = 1).
+
     """
     w = ev.dA if coefficient is None else ev.dA * coefficient[:, None]
     gx = ev.grad[..., 0]
@@ -226,6 +232,7 @@ def integrate(ev: ElementValues, values: np.ndarray, weight: np.ndarray | None =
     -------
     float
         The integral, integrand unit times drawing unit squared.
+
     """
     w = ev.dA if weight is None else ev.dA * weight[:, None]
     return float(np.einsum("mq,mq->", w, values))
@@ -262,6 +269,7 @@ def nodal_gradient(mesh: Mesh, nodal: np.ndarray) -> np.ndarray:
     -------
     numpy.ndarray
         (n, 2) gradient, U per drawing unit.
+
     """
     _, dN = shape_functions(NODE_POINTS)
     grad, det = _physical_gradients(mesh.nodes[mesh.elements], dN)

@@ -16,6 +16,7 @@ Examples
 >>> p = profile_from_loops([square, hole])
 >>> len(p.regions), len(p.regions[0].holes), p.area
 (1, 1, 84.0)
+
 """
 
 from __future__ import annotations
@@ -67,6 +68,7 @@ def check_points(points: object, what: str = "points", *, file: str | None = Non
     Traceback (most recent call last):
     ...
     warpwise.errors.ProfileError: points must have shape (n, 2), got (1, 3)
+
     """
     try:
         arr = np.asarray(points, dtype=float)
@@ -103,6 +105,7 @@ def signed_area(loop: np.ndarray) -> float:
     --------
     >>> signed_area(np.array([[0.0, 0.0], [2.0, 0.0], [2.0, 1.0], [0.0, 1.0]]))
     2.0
+
     """
     x, y = loop[:, 0], loop[:, 1]
     return 0.5 * float(np.dot(x, np.roll(y, -1)) - np.dot(np.roll(x, -1), y))
@@ -120,6 +123,7 @@ class Region:
         Hole loops, each (k, 2), clockwise.
     material : str or None
         Material name, or None for the profile's single material.
+
     """
 
     outer: np.ndarray
@@ -155,6 +159,7 @@ class Profile:
         Length unit of the coordinates, a key of :data:`LENGTH_UNITS`.
     notes : tuple of str
         Remarks made while reading (assumed units, repaired gaps...).
+
     """
 
     regions: tuple[Region, ...]
@@ -184,9 +189,9 @@ class Profile:
         """Distinct material names, in order of first appearance."""
         return tuple(dict.fromkeys(r.material for r in self.regions))
 
-    def geometry(self) -> MultiPolygon:
-        """Union of all regions as a shapely MultiPolygon."""
-        return MultiPolygon([r.polygon for r in self.regions])
+    def geometry(self) -> Polygon | MultiPolygon:
+        """Union of all regions (material outline, interfaces dissolved) as shapely geometry."""
+        return shapely.union_all([r.polygon for r in self.regions])
 
     def transformed(
         self, *, angle_deg: float = 0.0, shift: tuple[float, float] = (0.0, 0.0), scale: float = 1.0
@@ -201,6 +206,7 @@ class Profile:
             Translation, drawing unit.
         scale : float
             Positive scale factor.
+
         """
         if not scale > 0:
             raise ProfileError("scale factor must be positive", file=self.source)
@@ -250,6 +256,7 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
     ------
     ProfileError
         Too few points, zero area, or a self-crossing loop (with the crossing point).
+
     """
     arr = check_points(points, f"loop {index}", file=file)
     tol = POINT_TOLERANCE * max(scale, np.abs(arr).max(initial=0.0), 1e-300)
@@ -262,9 +269,9 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
             f"loop {index} has {len(arr)} distinct point(s); a loop needs at least 3",
             file=file, where=where,
         )
-    area = abs(signed_area(arr))
-    extent = float(np.ptp(arr, axis=0).max())
-    if area <= 1e-9 * extent**2:
+    centred = arr - arr.mean(axis=0)
+    spread = np.linalg.svd(centred, compute_uv=False)
+    if spread[1] <= 1e-9 * spread[0]:
         raise ProfileError(
             f"loop {index} encloses no area (all its points lie on one line)",
             file=file, where=tuple(arr[0]),
@@ -346,6 +353,7 @@ def profile_from_loops(
     Traceback (most recent call last):
     ...
     warpwise.errors.ProfileError: loops 1 and 2 cross or touch at (4, 2)
+
     """
     file = None if source.startswith("<") else source
     if units not in LENGTH_UNITS:

@@ -11,6 +11,7 @@ Examples
 >>> m = build_mesh(rectangle(20.0, 10.0), size=2.0)
 >>> m.elements.shape[1], bool(abs(m.area - 200.0) < 1e-9)
 (6, True)
+
 """
 
 from __future__ import annotations
@@ -47,6 +48,7 @@ class Mesh:
         Index (m,) into ``Profile.regions`` of the region each element belongs to.
     size : float
         Target element size used, drawing unit.
+
     """
 
     nodes: np.ndarray
@@ -118,6 +120,7 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
     -------
     numpy.ndarray
         Thickness (k,), drawing unit; the profile size where no wall is found.
+
     """
     size = profile.size
     mid = 0.5 * (a + b)
@@ -210,6 +213,7 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
     ------
     UsageError
         For a non-positive size or a mesh that would exceed :data:`MAX_ELEMENTS`.
+
     """
     h = default_size(profile) if size is None else float(size)
     if not np.isfinite(h) or h <= 0:

@@ -49,6 +49,7 @@ class GeometricProperties:
         and of +axis 1 for axis 2), and the smaller of each pair: ``x``, ``y``, ``1``, ``2``.
     fibres : dict of str to float
         The extreme fibre distances c matching ``Wel``, L.
+
     """
 
     A: float
@@ -86,6 +87,7 @@ class TorsionProperties:
         Nodal warping function about the shear centre, zero mean (sectorial coordinate), L^2.
     residual : float
         Relative residual of the warping solve.
+
     """
 
     J: float
@@ -137,6 +139,7 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray) -> t
         The properties.
     ElementValues
         ``ev`` with coordinates shifted to the centroid.
+
     """
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     one = np.ones_like(x)
@@ -203,6 +206,7 @@ def torsion_properties(
     Returns
     -------
     TorsionProperties
+
     """
     psi = solver.solve(load)
     residual = solver.residual(psi, load)

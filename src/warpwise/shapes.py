@@ -6,6 +6,7 @@ Examples
 --------
 >>> round(rectangle(20.0, 10.0).area, 9)
 200.0
+
 """
 
 from __future__ import annotations
@@ -32,6 +33,7 @@ def rectangle(b: float, h: float, *, units: str = "mm") -> Profile:
         Width (along x) and height (along y), drawing unit.
     units : str
         Length unit.
+
     """
     _positive(b=b, h=h)
     pts = np.array([[-b / 2, -h / 2], [b / 2, -h / 2], [b / 2, h / 2], [-b / 2, h / 2]])

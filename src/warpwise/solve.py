@@ -29,6 +29,7 @@ class PinnedSolver:
     >>> k = sp.csr_matrix(np.array([[1.0, -1.0], [-1.0, 1.0]]))
     >>> PinnedSolver(k, 0).solve(np.array([-1.0, 1.0])).tolist()
     [0.0, 1.0]
+
     """
 
     def __init__(self, matrix: sp.spmatrix, pinned: int = 0) -> None:

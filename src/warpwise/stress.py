@@ -34,6 +34,7 @@ class TorsionStress:
         Largest resultant, force / L^2.
     tau_max_at : tuple of float
         Node where it occurs, drawing coordinates, L.
+
     """
 
     torque: float
@@ -74,6 +75,7 @@ def shear_modulus(
     Traceback (most recent call last):
     ...
     warpwise.errors.UsageError: a torque needs a material: give the shear modulus G, or E with Poisson's ratio
+
     """
     if shear_modulus is not None:
         if youngs_modulus is not None:
@@ -106,6 +108,7 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
     Returns
     -------
     TorsionStress
+
     """
     if not np.isfinite(torque):
         raise UsageError(f"torque must be a finite number, got {torque}")

@@ -21,6 +21,7 @@ def load_profile(path: str | Path, units: str | None = None) -> Profile:
     Returns
     -------
     Profile
+
     """
     return read_outline(path, units)
 

@@ -1,4 +1,4 @@
-"""Reader for the plain-text coordinate outline format.
+r"""Reader for the plain-text coordinate outline format.
 
 One vertex per line as ``x, y`` (comma, semicolon or white space between the numbers); lines
 starting with ``#`` are comments; a blank line ends a loop (the first point need not be
@@ -16,6 +16,7 @@ Examples
 Traceback (most recent call last):
 ...
 warpwise.errors.InputFileError: bad.txt: line 2 is not a pair of numbers: '1 x'
+
 """
 
 from __future__ import annotations
@@ -53,6 +54,7 @@ def read_text(path: str | Path, kind: str = "outline") -> str:
     ------
     InputFileError
         Missing, unreadable, too large, empty or binary file.
+
     """
     p = Path(path)
     name = str(path)
@@ -97,6 +99,7 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
         A line that is not two numbers, an unknown directive or unit.
     ProfileError
         Invalid geometry (open, self-crossing, overlapping...).
+
     """
     loops: list[np.ndarray] = []
     materials: list[str | None] = []
@@ -172,5 +175,6 @@ def read_outline(path: str | Path, units: str | None = None) -> Profile:
     Returns
     -------
     Profile
+
     """
     return parse_outline(read_text(path), source=str(path), units=units)

@@ -1,0 +1,1 @@
+"""Reports: the quantity list, the text table, CSV and JSON files."""

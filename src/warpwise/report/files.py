@@ -33,6 +33,7 @@ def atomic_write(path: str | Path, data: str | bytes) -> None:
     ------
     UsageError
         When the folder does not exist or cannot be written.
+
     """
     target = Path(path)
     folder = target.parent if str(target.parent) else Path(".")
@@ -82,7 +83,7 @@ def json_text(results: list[SectionResult]) -> str:
 def csv_header(length: str) -> list[str]:
     """CSV column headers, each with its unit, e.g. ``A (mm2)``."""
     return ["file", "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
-            "mesh nodes", "mesh elements"]
+            "mesh nodes (count)", "mesh elements (count)"]
 
 
 def csv_text(results: list[SectionResult]) -> str:

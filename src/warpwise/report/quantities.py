@@ -30,6 +30,7 @@ class Quantity:
         Heading the quantity is shown under.
     definition : str
         Definition or formula, for the glossary.
+
     """
 
     key: str

@@ -16,6 +16,7 @@ def format_value(v: float, digits: int = 6) -> str:
     --------
     >>> format_value(1234.56789), format_value(1.5e-9), format_value(0.0)
     ('1234.57', '1.5e-09', '0')
+
     """
     if v == 0:
         return "0"
