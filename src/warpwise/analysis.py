@@ -29,6 +29,7 @@ from .section import (
     torsion_load,
     torsion_properties,
 )
+from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
 from .solve import PinnedSolver
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
@@ -49,6 +50,8 @@ class SectionResult:
         Area properties.
     torsion : TorsionProperties
         Torsion and warping properties.
+    shear : ShearProperties
+        Shear functions, shear areas and the elastic shear centre.
     values : ElementValues
         Basis values in centroidal coordinates (for stress recovery).
     solver : PinnedSolver
@@ -60,6 +63,7 @@ class SectionResult:
     mesh: Mesh
     geometric: GeometricProperties
     torsion: TorsionProperties
+    shear: ShearProperties
     values: ElementValues
     solver: PinnedSolver
 
@@ -69,7 +73,8 @@ class SectionResult:
         return self.profile.units
 
 
-def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None) -> SectionResult:
+def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
+            poisson: float = DEFAULT_POISSON) -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -80,6 +85,9 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         Largest element size, drawing unit; default chosen from the profile.
     mesh : Mesh, optional
         A ready mesh to use instead of meshing.
+    poisson : float
+        Poisson's ratio for the shear functions (only shear areas and the elastic shear
+        centre depend on it).
 
     Returns
     -------
@@ -111,4 +119,11 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     if not 0 < tor.J <= geo.Ip * (1 + 1e-9):
         raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
                             file=profile.source)
-    return SectionResult(profile, mesh, geo, tor, evc, solver)
+    if not -1.0 < poisson < 0.5:
+        raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
+                            file=profile.source)
+    shear = shear_properties(mesh, evc, geo, solver, poisson)
+    if not shear.residual < MAX_RESIDUAL:
+        raise AnalysisError(f"shear function solve residual {shear.residual:.2e} is too large",
+                            file=profile.source)
+    return SectionResult(profile, mesh, geo, tor, shear, evc, solver)

@@ -19,7 +19,8 @@ from .geometry import LENGTH_UNITS
 from .io import load_profile
 from .report.files import atomic_write, csv_text, json_text
 from .report.table import CAUTION, format_value, property_table
-from .stress import shear_modulus, torsion_stress
+from .shear import DEFAULT_POISSON
+from .stress import shear_modulus, shear_stress
 
 EXIT_INPUT = 1
 EXIT_USAGE = 2
@@ -72,18 +73,27 @@ def build_parser() -> argparse.ArgumentParser:
     props.add_argument("files", nargs="+", metavar="FILE", help="outline file(s)")
     props.add_argument("--json", action="store_true", help="print JSON instead of the table")
     props.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")
+    props.add_argument("--poisson", type=_float, default=DEFAULT_POISSON, metavar="NU",
+                       help=f"Poisson's ratio for the shear properties (default {DEFAULT_POISSON})")
     _common(props)
 
-    stress = sub.add_parser("stress", help="shear stress and twist under a torque",
-                            description="Torsion shear stresses and twist rate for a torque.")
+    stress = sub.add_parser(
+        "stress", help="shear stress and twist under a torque and shear forces",
+        description="Shear stresses from a torque and shear forces (through the shear centre), "
+                    "and the twist rate.")
     stress.add_argument("file", metavar="FILE", help="outline file")
-    stress.add_argument("--torque", type=_float, required=True, metavar="T",
-                        help="torque, force x length (N*mm with mm)")
+    stress.add_argument("--torque", type=_float, default=0.0, metavar="T",
+                        help="torque about the shear centre, force x length (N*mm with mm)")
+    stress.add_argument("--shear-x", type=_float, default=0.0, metavar="VX",
+                        help="shear force along x through the shear centre (N with mm)")
+    stress.add_argument("--shear-y", type=_float, default=0.0, metavar="VY",
+                        help="shear force along y through the shear centre (N with mm)")
     stress.add_argument("--shear-modulus", type=_positive_float, metavar="G",
                         help="shear modulus, force/length^2 (MPa with mm)")
     stress.add_argument("--youngs-modulus", type=_positive_float, metavar="E",
                         help="Young's modulus (with --poisson), force/length^2")
-    stress.add_argument("--poisson", type=_float, metavar="NU", help="Poisson's ratio")
+    stress.add_argument("--poisson", type=_float, metavar="NU",
+                        help=f"Poisson's ratio (default {DEFAULT_POISSON} for the shear functions)")
     stress.add_argument("--json", action="store_true", help="print JSON instead of text")
     _common(stress)
     return parser
@@ -91,8 +101,11 @@ def build_parser() -> argparse.ArgumentParser:
 
 def _analyse_file(path: str, args: argparse.Namespace) -> SectionResult:
     profile = load_profile(path, units=args.units)
+    nu = DEFAULT_POISSON if args.poisson is None else args.poisson
+    if not -1.0 < nu < 0.5:
+        raise UsageError(f"Poisson's ratio must lie in (-1, 0.5), got {nu}")
     try:
-        return analyse(profile, args.mesh_size)
+        return analyse(profile, args.mesh_size, poisson=nu)
     except WarpwiseError as exc:
         raise exc.with_file(path) from None
 
@@ -118,31 +131,48 @@ def run_props(args: argparse.Namespace) -> int:
 
 
 def run_stress(args: argparse.Namespace) -> int:
-    """``warpwise stress``: torsion stresses for a torque."""
-    G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
+    """``warpwise stress``: shear stresses for a torque and shear forces."""
+    if args.torque == 0 and args.shear_x == 0 and args.shear_y == 0:
+        raise UsageError("give a load: --torque, --shear-x and/or --shear-y")
+    G = None
+    if args.shear_modulus is not None or args.youngs_modulus is not None or args.torque != 0:
+        G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
     result = _analyse_file(args.file, args)
-    s = torsion_stress(result, args.torque, G)
+    s = shear_stress(result, args.torque, args.shear_x, args.shear_y, G)
     L = result.units
-    _, moment, stress_unit = force_units(L)
+    force, moment, stress_unit = force_units(L)
     if args.json:
         obj = {
-            "file": args.file, "units": {"length": L, "moment": moment, "stress": stress_unit},
-            "torque": s.torque, "shear_modulus": G, "J": result.torsion.J,
-            "tau_max": s.tau_max, "tau_max_at": list(s.tau_max_at), "twist_rate": s.twist_rate,
+            "file": args.file,
+            "units": {"length": L, "force": force, "moment": moment, "stress": stress_unit},
+            "torque": s.torque, "shear_x": s.vx, "shear_y": s.vy, "shear_modulus": G,
+            "poisson": result.shear.poisson, "J": result.torsion.J,
+            "shear_centre": list(result.torsion.shear_centre),
+            "tau_max": s.tau_max, "tau_max_at": list(s.tau_max_at),
+            "tau_max_torsion": s.tau_max_torsion, "tau_max_shear": s.tau_max_shear,
+            "twist_rate": s.twist_rate,
         }
         sys.stdout.write(json.dumps(obj, indent=2) + "\n")
         return 0
     x, y = s.tau_max_at
-    lines = [
-        f"Torsion of {args.file}  (length unit {L}, consistent units)",
-        f"  torque                         T        {format_value(s.torque):>14}  {moment}",
-        f"  shear modulus                  G        {format_value(G):>14}  {stress_unit}",
-        f"  torsion constant               J        {format_value(result.torsion.J):>14}  {L}4",
-        f"  twist rate T/(G J)             theta    {format_value(s.twist_rate):>14}  rad/{L}",
-        f"  largest shear stress           tau_max  {format_value(s.tau_max):>14}  {stress_unit}",
-        f"    at ({format_value(x)}, {format_value(y)}) {L}",
-        "", f"  {CAUTION}", "",
-    ]
+    xs, ys = result.torsion.shear_centre
+
+    def row(label: str, sym: str, v: float, unit: str) -> str:
+        return f"  {label:<38} {sym:<9} {format_value(v):>14}  {unit}"
+
+    lines = [f"Shear stresses in {args.file}  (length unit {L}; consistent units)",
+             f"  loads act through the shear centre ({format_value(xs)}, {format_value(ys)}) {L}",
+             row("torque", "T", s.torque, moment), row("shear force along x", "Vx", s.vx, force),
+             row("shear force along y", "Vy", s.vy, force)]
+    if G is not None:
+        lines.append(row("shear modulus", "G", G, stress_unit))
+    lines.append(row("torsion constant", "J", result.torsion.J, f"{L}4"))
+    if s.twist_rate is not None:
+        lines.append(row("twist rate T/(G J)", "theta", s.twist_rate, f"rad/{L}"))
+    lines += [row("largest shear stress, torque alone", "tau_T", s.tau_max_torsion, stress_unit),
+              row("largest shear stress, forces alone", "tau_V", s.tau_max_shear, stress_unit),
+              row("largest combined shear stress", "tau_max", s.tau_max, stress_unit),
+              f"    at ({format_value(x)}, {format_value(y)}) {L}", "", f"  {CAUTION}", ""]
     sys.stdout.write("\n".join(lines))
     return 0
 

@@ -85,9 +85,14 @@ class TorsionProperties:
         Warping constant int omega^2 dA, L^6.
     omega : numpy.ndarray
         Nodal warping function about the shear centre, zero mean (sectorial coordinate), L^2.
+    omega_max : float
+        Largest |omega| over the nodes, L^2.
+    beta_1, beta_2 : float
+        Mono-symmetry (Wagner) constants for bending about principal axes 1 and 2, L:
+        beta_1 = int v (u^2 + v^2) dA / I1 - 2 v_s, beta_2 = int u (u^2 + v^2) dA / I2 - 2 u_s,
+        with (u, v) centroidal coordinates along axes (1, 2) and (u_s, v_s) the shear centre.
     residual : float
-        Relative residual of the warping solve.
-
+        Backward error of the warping solve.
     """
 
     J: float
@@ -95,6 +100,9 @@ class TorsionProperties:
     shear_centre: tuple[float, float]
     Cw: float
     omega: np.ndarray
+    omega_max: float
+    beta_1: float
+    beta_2: float
     residual: float
 
 
@@ -224,8 +232,40 @@ def torsion_properties(
     omega = zero_mean(mesh, evc, omega, geo.A)
     Cw = integrate(evc, interpolate(mesh, evc, omega) ** 2)
     centre = (geo.centroid[0] + x0, geo.centroid[1] + y0)
+    beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0))
     return TorsionProperties(J=J, psi=psi, shear_centre=centre, Cw=Cw, omega=omega,
+                             omega_max=float(np.abs(omega).max()), beta_1=beta_1, beta_2=beta_2,
                              residual=residual)
+
+
+def wagner_constants(evc: ElementValues, geo: GeometricProperties,
+                     centre: tuple[float, float]) -> tuple[float, float]:
+    """Mono-symmetry (Wagner) constants about principal axes 1 and 2, L.
+
+    Parameters
+    ----------
+    evc : ElementValues
+        Basis values in centroidal coordinates.
+    geo : GeometricProperties
+        Geometric properties (principal axes).
+    centre : (float, float)
+        Shear centre relative to the centroid, L.
+
+    Returns
+    -------
+    (float, float)
+        beta_1 and beta_2 as defined in :class:`TorsionProperties`; zero for a doubly
+        symmetric section.
+    """
+    a = np.radians(geo.alpha_deg)
+    c, s = np.cos(a), np.sin(a)
+    x, y = evc.xy[..., 0], evc.xy[..., 1]
+    u, v = x * c + y * s, -x * s + y * c
+    us, vs = centre[0] * c + centre[1] * s, -centre[0] * s + centre[1] * c
+    r2 = u * u + v * v
+    beta_1 = integrate(evc, v * r2) / geo.I1 - 2.0 * vs
+    beta_2 = integrate(evc, u * r2) / geo.I2 - 2.0 * us
+    return float(beta_1), float(beta_2)
 
 
 __all__ = [

@@ -93,6 +93,39 @@ def shear_modulus(
     return float(youngs_modulus) / (2.0 * (1.0 + float(poisson)))
 
 
+@dataclass(frozen=True, eq=False)
+class ShearStress:
+    """Shear stresses from a torque and shear forces through the shear centre, at every node.
+
+    Attributes
+    ----------
+    torque, vx, vy : float
+        Loads: torque (force x L) and shear forces (force).
+    tau_zx, tau_zy, tau : numpy.ndarray
+        Combined stress components and resultant at the nodes (n,), force / L^2.
+    tau_max : float
+        Largest resultant, force / L^2.
+    tau_max_at : tuple of float
+        Node where it occurs, L.
+    tau_max_torsion, tau_max_shear : float
+        Largest resultant of the torsion part alone and of the shear-force part alone.
+    twist_rate : float or None
+        T / (G J), radians per L; None when no shear modulus was given.
+    """
+
+    torque: float
+    vx: float
+    vy: float
+    tau_zx: np.ndarray
+    tau_zy: np.ndarray
+    tau: np.ndarray
+    tau_max: float
+    tau_max_at: tuple[float, float]
+    tau_max_torsion: float
+    tau_max_shear: float
+    twist_rate: float | None
+
+
 def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStress:
     """Shear stresses and twist rate for a torque.
 
@@ -124,4 +157,61 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
         torque=float(torque), shear_modulus=float(G), twist_rate=float(torque / (G * tor.J)),
         tau_zx=tzx, tau_zy=tzy, tau=tau, tau_max=float(tau[k]),
         tau_max_at=(float(mesh.nodes[k, 0]), float(mesh.nodes[k, 1])),
+    )
+
+
+def shear_stress(result: SectionResult, torque: float = 0.0, vx: float = 0.0, vy: float = 0.0,
+                 G: float | None = None) -> ShearStress:
+    """Combined shear stresses from a torque and shear forces acting through the shear centre.
+
+    Shear forces acting elsewhere add a torque V times their lever arm about the elastic shear
+    centre (``result.shear.shear_centre``); include it in ``torque``.
+
+    Parameters
+    ----------
+    result : SectionResult
+        An analysed section.
+    torque : float
+        Torque T, force x L.
+    vx, vy : float
+        Shear forces along x and y, force unit.
+    G : float, optional
+        Shear modulus, force / L^2; needed for a non-zero torque (twist rate).
+
+    Returns
+    -------
+    ShearStress
+
+    Raises
+    ------
+    UsageError
+        A torque without a shear modulus, or non-finite loads.
+    """
+    from .shear import shear_stress_at_nodes
+
+    for name, v in (("torque", torque), ("shear force x", vx), ("shear force y", vy)):
+        if not np.isfinite(v):
+            raise UsageError(f"{name} must be a finite number, got {v}")
+    n = result.mesh.n_nodes
+    t_zx, t_zy = np.zeros(n), np.zeros(n)
+    tau_t = 0.0
+    twist = None
+    if torque != 0.0:
+        if G is None:
+            raise UsageError("a torque needs a material: give the shear modulus G, or E with "
+                             "Poisson's ratio")
+        ts = torsion_stress(result, torque, G)
+        t_zx, t_zy, tau_t, twist = ts.tau_zx, ts.tau_zy, ts.tau_max, ts.twist_rate
+    elif G is not None:
+        twist = 0.0
+    v = shear_stress_at_nodes(result.mesh, result.geometric, result.shear, vx, vy)
+    tau_v = float(np.hypot(v[:, 0], v[:, 1]).max())
+    zx, zy = t_zx + v[:, 0], t_zy + v[:, 1]
+    tau = np.hypot(zx, zy)
+    k = int(np.argmax(tau))
+    return ShearStress(
+        torque=float(torque), vx=float(vx), vy=float(vy), tau_zx=zx, tau_zy=zy, tau=tau,
+        tau_max=float(tau[k]), tau_max_at=(float(result.mesh.nodes[k, 0]),
+                                           float(result.mesh.nodes[k, 1])),
+        tau_max_torsion=float(tau_t), tau_max_shear=tau_v, twist_rate=twist,
     )

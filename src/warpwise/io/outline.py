@@ -8,11 +8,11 @@ length unit.
 
 Examples
 --------
->>> text = "# a 10 x 4 bar with a hole\\n0 0\\n10 0\\n10 4\\n0 4\\n\\n4 1\\n6 1\\n6 3\\n4 3\\n"
+>>> text = "# a 10 x 4 bar with a hole\n0 0\n10 0\n10 4\n0 4\n\n4 1\n6 1\n6 3\n4 3\n"
 >>> p = parse_outline(text, source="bar.txt")
 >>> p.area, len(p.regions[0].holes)
 (36.0, 1)
->>> parse_outline("0 0\\n1 x\\n", source="bad.txt")
+>>> parse_outline("0 0\n1 x\n", source="bad.txt")
 Traceback (most recent call last):
 ...
 warpwise.errors.InputFileError: bad.txt: line 2 is not a pair of numbers: '1 x'

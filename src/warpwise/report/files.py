@@ -63,11 +63,12 @@ def to_json_object(result: SectionResult) -> dict[str, Any]:
     v = values(result)
     obj: dict[str, Any] = {"file": result.profile.source, "units": {"length": result.units}}
     for q in QUANTITIES:
-        if q.key in ("xc", "yc", "xs", "ys"):
+        if q.key in ("xc", "yc", "xs", "ys", "xse", "yse"):
             continue
         obj[q.key] = v[q.key]
     obj["centroid"] = [v["xc"], v["yc"]]
     obj["shear_centre"] = [v["xs"], v["ys"]]
+    obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
     obj["mesh"] = {"nodes": result.mesh.n_nodes, "elements": result.mesh.n_elements,
                    "size": result.mesh.size}
     obj["notes"] = list(result.profile.notes)

@@ -86,6 +86,28 @@ QUANTITIES: tuple[Quantity, ...] = (
     Quantity("ys", "ys", "shear centre, y", 1, "Torsion and warping", "as xs, drawing coordinates"),
     Quantity("Cw", "Cw", "warping constant", 6, "Torsion and warping",
              "integral of omega^2 dA, omega the zero-mean warping function about the shear centre"),
+    Quantity("omega_max", "omega_max", "largest sectorial coordinate |omega|", 2,
+             "Torsion and warping", "max |omega| over the section; warping stress E omega theta'"),
+    Quantity("beta_1", "beta_1", "mono-symmetry (Wagner) constant, bending about axis 1", 1,
+             "Torsion and warping", "integral of v (u^2 + v^2) dA / I1 - 2 v_s (u, v along axes 1, 2)"),
+    Quantity("beta_2", "beta_2", "mono-symmetry (Wagner) constant, bending about axis 2", 1,
+             "Torsion and warping", "integral of u (u^2 + v^2) dA / I2 - 2 u_s"),
+    Quantity("nu", "nu", "Poisson's ratio used for shear", 0, "Shear",
+             "enters the shear functions; from the material, else 0.3"),
+    Quantity("xse", "xse", "elastic shear centre, x", 1, "Shear",
+             "point where Vy causes no twist (shear functions)"),
+    Quantity("yse", "yse", "elastic shear centre, y", 1, "Shear",
+             "point where Vx causes no twist (shear functions)"),
+    Quantity("As_x", "As,x", "shear area for a force along x", 2, "Shear",
+             "1 / integral of tau.tau dA for a unit Vx"),
+    Quantity("As_y", "As,y", "shear area for a force along y", 2, "Shear",
+             "1 / integral of tau.tau dA for a unit Vy"),
+    Quantity("kappa_x", "kx", "shear coefficient along x", 0, "Shear", "As,x / A"),
+    Quantity("kappa_y", "ky", "shear coefficient along y", 0, "Shear", "As,y / A"),
+    Quantity("As_1", "As,1", "shear area for a force along axis 1", 2, "Shear",
+             "1 / integral of tau.tau dA for a unit force along axis 1"),
+    Quantity("As_2", "As,2", "shear area for a force along axis 2", 2, "Shear",
+             "1 / integral of tau.tau dA for a unit force along axis 2"),
 )
 
 QUANTITY_BY_KEY = {q.key: q for q in QUANTITIES}
@@ -108,12 +130,19 @@ def values(result: SectionResult) -> dict[str, float]:
         "Ix": g.Ix, "Iy": g.Iy, "Ixy": g.Ixy, "I1": g.I1, "I2": g.I2, "alpha_deg": g.alpha_deg,
         "Ip": g.Ip, "rx": g.rx, "ry": g.ry, "r1": g.r1, "r2": g.r2,
         "J": t.J, "xs": t.shear_centre[0], "ys": t.shear_centre[1], "Cw": t.Cw,
+        "omega_max": t.omega_max, "beta_1": t.beta_1, "beta_2": t.beta_2,
     }
+    sh = result.shear
+    out.update({
+        "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],
+        "As_x": sh.As_x, "As_y": sh.As_y, "kappa_x": sh.kappa_x, "kappa_y": sh.kappa_y,
+        "As_1": sh.As_1, "As_2": sh.As_2,
+    })
     for k, v in g.Wel.items():
         if "_" in k:
             out[f"Wel_{k}"] = v
     tiny = 1e-12 * result.profile.size  # round-off of a coordinate that is zero
-    for k in ("xc", "yc", "xs", "ys"):
+    for k in ("xc", "yc", "xs", "ys", "xse", "yse", "beta_1", "beta_2"):
         if abs(out[k]) < tiny:
             out[k] = 0.0
     return {q.key: float(out[q.key]) for q in QUANTITIES}
