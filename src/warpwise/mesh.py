@@ -24,6 +24,7 @@ from meshpy import triangle
 
 from .errors import ProfileError, UsageError
 from .geometry import Profile
+from .symmetry import cut, mirror_mesh, symmetry_axes
 
 #: Default largest element size as a fraction of sqrt(A) (J of a square within 2e-4 at this size).
 DEFAULT_SIZE_FACTOR = 0.125
@@ -192,7 +193,61 @@ def _to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.n
     return np.vstack([nodes, mids]), np.hstack([tris, mid_idx]).astype(np.int64)
 
 
-def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float = 30.0) -> Mesh:
+def _triangulate(part: Profile, full: Profile, h: float, min_angle: float) -> tuple[
+        np.ndarray, np.ndarray, np.ndarray]:
+    """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
+    vertices, seg = _planar_graph(part)
+    fv, fseg = _planar_graph(full)
+    seg_a, seg_b = fv[fseg[:, 0]], fv[fseg[:, 1]]
+    # two passes: split by the thickness at segment midpoints, then measure again on the pieces
+    t1 = wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b)
+    pts, sub = _split_segments(vertices, seg, np.minimum(h, t1 / ELEMENTS_ACROSS_WALL))
+    t2 = wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b)
+    pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / ELEMENTS_ACROSS_WALL))
+    if len(pts) > MAX_ELEMENTS:
+        raise UsageError(f"the boundary needs {len(pts):,} points, more than the limit",
+                         file=full.source)
+    info = triangle.MeshInfo()
+    info.set_points(pts)
+    info.set_facets(sub)
+    union = part.geometry()
+    holes = []
+    for reg in part.regions:
+        for hole in reg.holes:
+            empty = shapely.Polygon(hole).difference(union)
+            if not empty.is_empty and empty.area > 0:
+                holes.append(np.asarray(empty.representative_point().coords[0]))
+    if holes:
+        info.set_holes(holes)
+    info.regions.resize(len(part.regions))
+    for k, reg in enumerate(part.regions):
+        x, y = np.asarray(reg.polygon.representative_point().coords[0])
+        info.regions[k] = [float(x), float(y), float(k), 0.0]
+    max_area = h * h * np.sqrt(3.0) / 4.0
+    try:
+        out = triangle.build(info, attributes=True, max_volume=max_area, min_angle=min_angle,
+                             generate_neighbor_lists=False)
+    except RuntimeError as exc:  # Triangle refuses degenerate input
+        raise ProfileError(f"meshing failed ({exc})", file=full.source) from None
+    nodes = np.asarray(out.points, dtype=float)
+    tris = np.asarray(out.elements, dtype=np.int64)
+    if tris.size == 0:
+        raise ProfileError("meshing produced no elements", file=full.source)
+    region = np.asarray(out.element_attributes, dtype=float).reshape(-1).round().astype(np.int64)
+    p = nodes[tris]
+    cross = (p[:, 1, 0] - p[:, 0, 0]) * (p[:, 2, 1] - p[:, 0, 1]) - (
+        p[:, 1, 1] - p[:, 0, 1]) * (p[:, 2, 0] - p[:, 0, 0])
+    flip = cross < 0
+    tris[flip] = tris[flip][:, [0, 2, 1]]
+    # drop nodes Triangle left unused (duplicates it merged)
+    used = np.zeros(len(nodes), bool)
+    used[tris.ravel()] = True
+    renumber = np.cumsum(used) - 1
+    return nodes[used], renumber[tris], region
+
+
+def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float = 30.0,
+               use_symmetry: bool = True) -> Mesh:
     """Mesh a profile into six-node triangles.
 
     Parameters
@@ -204,6 +259,9 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
         local size is smaller (the wall thickness over 2.5).
     min_angle : float
         Smallest angle of any triangle, degrees (Triangle's quality bound).
+    use_symmetry : bool
+        Mesh one half (or quarter) of a mirror-symmetric profile and mirror it, so that the
+        mesh and the results are symmetric to round-off.
 
     Returns
     -------
@@ -213,7 +271,6 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
     ------
     UsageError
         For a non-positive size or a mesh that would exceed :data:`MAX_ELEMENTS`.
-
     """
     h = default_size(profile) if size is None else float(size)
     if not np.isfinite(h) or h <= 0:
@@ -224,54 +281,14 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
             f"mesh size {h:.4g} would give about {estimate:.3g} elements, more than the limit "
             f"of {MAX_ELEMENTS:,}; choose a larger --mesh-size", file=profile.source,
         )
-    vertices, seg = _planar_graph(profile)
-    seg_a, seg_b = vertices[seg[:, 0]], vertices[seg[:, 1]]
-    # two passes: split by the thickness at segment midpoints, then measure again on the pieces
-    target = np.minimum(h, wall_thickness(profile, seg_a, seg_b, seg_a, seg_b) / ELEMENTS_ACROSS_WALL)
-    pts, sub = _split_segments(vertices, seg, target)
-    t2 = wall_thickness(profile, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b)
-    pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / ELEMENTS_ACROSS_WALL))
-    n_pts = len(pts)
-    if n_pts > MAX_ELEMENTS:
-        raise UsageError(f"the boundary needs {n_pts:,} points, more than the limit",
-                         file=profile.source)
-
-    info = triangle.MeshInfo()
-    info.set_points(pts)
-    info.set_facets(sub)
-    union = profile.geometry()
-    holes = []
-    for reg in profile.regions:
-        for hole in reg.holes:
-            empty = shapely.Polygon(hole).difference(union)
-            if not empty.is_empty and empty.area > 0:
-                holes.append(np.asarray(empty.representative_point().coords[0]))
-    if holes:
-        info.set_holes(holes)
-    info.regions.resize(len(profile.regions))
-    for k, reg in enumerate(profile.regions):
-        x, y = np.asarray(reg.polygon.representative_point().coords[0])
-        info.regions[k] = [float(x), float(y), float(k), 0.0]
-    max_area = h * h * np.sqrt(3.0) / 4.0
-    try:
-        out = triangle.build(info, attributes=True, max_volume=max_area, min_angle=min_angle,
-                             generate_neighbor_lists=False)
-    except RuntimeError as exc:  # Triangle refuses degenerate input
-        raise ProfileError(f"meshing failed ({exc})", file=profile.source) from None
-    nodes = np.asarray(out.points, dtype=float)
-    tris = np.asarray(out.elements, dtype=np.int64)
-    if tris.size == 0:
-        raise ProfileError("meshing produced no elements", file=profile.source)
-    region = np.asarray(out.element_attributes, dtype=float).round().astype(np.int64)
-    p = nodes[tris]
-    cross = (p[:, 1, 0] - p[:, 0, 0]) * (p[:, 2, 1] - p[:, 0, 1]) - (
-        p[:, 1, 1] - p[:, 0, 1]) * (p[:, 2, 0] - p[:, 0, 0])
-    flip = cross < 0
-    tris[flip] = tris[flip][:, [0, 2, 1]]
-    # drop nodes Triangle left unused (duplicates it merged)
-    used = np.zeros(len(nodes), bool)
-    used[tris.ravel()] = True
-    renumber = np.cumsum(used) - 1
-    nodes, tris = nodes[used], renumber[tris]
+    axes = symmetry_axes(profile) if use_symmetry else []
+    if axes:
+        part, origin = cut(profile, axes)
+    else:
+        part, origin = profile, list(range(len(profile.regions)))
+    nodes, tris, region = _triangulate(part, profile, h, min_angle)
     nodes6, elems6 = _to_quadratic(nodes, tris)
+    region = np.asarray(origin, dtype=np.int64)[region]
+    for axis in axes:
+        nodes6, elems6, region = mirror_mesh(nodes6, elems6, region, axis, 1e-9 * profile.size)
     return Mesh(nodes6, elems6, region, h)
