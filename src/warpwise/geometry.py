@@ -145,6 +145,41 @@ class Region:
         return (self.outer, *self.holes)
 
 
+@dataclass(frozen=True)
+class Arc:
+    """A circular arc of the true outline, kept so that the mesh can follow the curve.
+
+    The loops of a profile are polygons; an arc records where a run of their vertices lies on a
+    circle, so that boundary nodes of the mesh can be placed on the circle itself.
+
+    Attributes
+    ----------
+    cx, cy : float
+        Centre, drawing unit.
+    r : float
+        Radius, drawing unit.
+    start, sweep : float
+        Start angle and counter-clockwise sweep (0 < sweep <= 2 pi), radians.
+    """
+
+    cx: float
+    cy: float
+    r: float
+    start: float = 0.0
+    sweep: float = 2.0 * np.pi
+
+    def contains_angle(self, angle: np.ndarray, slack: float = 1e-9) -> np.ndarray:
+        """True where an angle (radians) lies within the arc's sweep (inclusive)."""
+        rel = np.mod(angle - self.start + slack, 2.0 * np.pi) - slack
+        return rel <= self.sweep + slack
+
+    def moved(self, rot: np.ndarray, off: np.ndarray, scale: float) -> Arc:
+        """The arc after ``x -> rot @ x + off``, ``rot`` a rotation times ``scale``."""
+        c = rot @ np.array([self.cx, self.cy]) + off
+        turn = float(np.arctan2(rot[1, 0], rot[0, 0]))
+        return Arc(float(c[0]), float(c[1]), self.r * scale, self.start + turn, self.sweep)
+
+
 @dataclass(frozen=True, eq=False)
 class Profile:
     """A validated cross-section: non-overlapping solid regions with holes.
@@ -159,13 +194,15 @@ class Profile:
         Length unit of the coordinates, a key of :data:`LENGTH_UNITS`.
     notes : tuple of str
         Remarks made while reading (assumed units, repaired gaps...).
-
+    arcs : tuple of Arc
+        Circular arcs of the true outline (the loops are their polygon approximations).
     """
 
     regions: tuple[Region, ...]
     source: str = "<profile>"
     units: str = "mm"
     notes: tuple[str, ...] = field(default=())
+    arcs: tuple[Arc, ...] = field(default=())
 
     @property
     def area(self) -> float:
@@ -221,7 +258,8 @@ class Profile:
             Region(move(r.outer), tuple(move(h) for h in r.holes), r.material)
             for r in self.regions
         )
-        return Profile(regions, self.source, self.units, self.notes)
+        arcs = tuple(a.moved(rot, off, scale) for a in self.arcs)
+        return Profile(regions, self.source, self.units, self.notes, arcs)
 
 
 _POINT_IN_TEXT = re.compile(r"\[\s*([-+0-9.eE]+)[\s,]+([-+0-9.eE]+)\s*\]")
@@ -316,6 +354,7 @@ def profile_from_loops(
     source: str = "<profile>",
     units: str = "mm",
     notes: Sequence[str] = (),
+    arcs: Sequence[Arc] = (),
 ) -> Profile:
     """Build a validated profile from closed loops.
 
@@ -335,6 +374,8 @@ def profile_from_loops(
         Length unit, a key of :data:`LENGTH_UNITS`.
     notes : sequence of str
         Remarks carried into the profile.
+    arcs : sequence of Arc
+        Circular arcs the loops approximate (for curved element edges).
 
     Returns
     -------
@@ -434,4 +475,4 @@ def profile_from_loops(
             regions.append(region)
     if not regions:
         raise ProfileError("no solid region found", file=file)
-    return Profile(tuple(regions), source, units, tuple(notes))
+    return Profile(tuple(regions), source, units, tuple(notes), tuple(arcs))

@@ -23,7 +23,7 @@ import shapely
 from meshpy import triangle
 
 from .errors import ProfileError, UsageError
-from .geometry import Profile
+from .geometry import Arc, Profile
 from .symmetry import cut, mirror_mesh, symmetry_axes
 
 #: Default largest element size as a fraction of sqrt(A) (J of a square within 2e-4 at this size).
@@ -69,7 +69,7 @@ class Mesh:
 
     @property
     def area(self) -> float:
-        """Sum of element areas (straight-sided), drawing unit squared."""
+        """Sum of the straight-sided element areas (corners only), drawing unit squared."""
         p = self.nodes[self.elements[:, :3]]
         d1, d2 = p[:, 1] - p[:, 0], p[:, 2] - p[:, 0]
         return float(0.5 * np.sum(d1[:, 0] * d2[:, 1] - d1[:, 1] * d2[:, 0]))
@@ -246,6 +246,77 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float) -> tu
     return nodes[used], renumber[tris], region
 
 
+def boundary_edges(elements: np.ndarray) -> np.ndarray:
+    """Boundary edges of a six-node mesh as rows (corner a, corner b, mid-side node)."""
+    local = np.array([[0, 1, 3], [1, 2, 4], [2, 0, 5]])
+    edges = elements[:, local].reshape(-1, 3)
+    key = np.sort(edges[:, :2], axis=1)
+    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
+    return edges[counts[inverse.reshape(-1)] == 1]
+
+
+def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...]) -> np.ndarray:
+    """Move boundary nodes that approximate a circular arc onto the arc itself.
+
+    Corner nodes of boundary edges lying on the arc's chords (no deeper inside the circle than
+    the polygon's largest sagitta, and within the sweep) go radially onto the circle; the
+    mid-side node of a boundary edge whose two corners went onto one arc goes onto the arc
+    midway between them, so the element edge is curved (isoparametric). Other mid-side nodes
+    are put back at the midpoints of their corners.
+
+    Parameters
+    ----------
+    nodes : numpy.ndarray
+        Node coordinates (n, 2), drawing unit.
+    elements : numpy.ndarray
+        Six-node connectivity (m, 6).
+    arcs : tuple of Arc
+        Arcs of the true outline.
+
+    Returns
+    -------
+    numpy.ndarray
+        New node coordinates (n, 2).
+    """
+    if not arcs:
+        return nodes
+    nodes = nodes.copy()
+    bnd = boundary_edges(elements)
+    corners = np.unique(bnd[:, :2])
+    owner = np.full(len(nodes), -1)
+    for k, arc in enumerate(arcs):
+        d = nodes[corners] - np.array([arc.cx, arc.cy])
+        dist = np.hypot(d[:, 0], d[:, 1])
+        ang = np.arctan2(d[:, 1], d[:, 0])
+        within = arc.contains_angle(ang)
+        # the polygon's own vertices lie on the circle; the widest angle between two of them
+        # bounds how far inside the circle a node of the approximating chords can be
+        on = np.sort(ang[within & (np.abs(dist - arc.r) < 1e-9 * arc.r)])
+        if len(on) < 2:
+            continue
+        gap = np.diff(np.concatenate([on, [on[0] + 2 * np.pi]])) if arc.sweep >= 2 * np.pi - 1e-9 \
+            else np.diff(on)
+        sagitta = arc.r * (1.0 - np.cos(0.5 * min(float(gap.max()), np.pi)))
+        hit = within & (dist > arc.r - 1.01 * sagitta - 1e-9 * arc.r) & (dist < arc.r * (1 + 1e-9))
+        hit &= owner[corners] < 0
+        idx = corners[hit]
+        owner[idx] = k
+        nodes[idx] = np.array([arc.cx, arc.cy]) + d[hit] * (arc.r / dist[hit])[:, None]
+    # mid-side nodes: midpoints of their (possibly moved) corners
+    for k, (i, j) in enumerate(((0, 1), (1, 2), (2, 0))):
+        nodes[elements[:, 3 + k]] = 0.5 * (nodes[elements[:, i]] + nodes[elements[:, j]])
+    same = (owner[bnd[:, 0]] >= 0) & (owner[bnd[:, 0]] == owner[bnd[:, 1]])
+    for k, arc in enumerate(arcs):
+        e = bnd[same & (owner[bnd[:, 0]] == k)]
+        if len(e) == 0:
+            continue
+        c = np.array([arc.cx, arc.cy])
+        d = nodes[e[:, 2]] - c
+        dist = np.hypot(d[:, 0], d[:, 1])
+        nodes[e[:, 2]] = c + d * (arc.r / np.maximum(dist, 1e-300))[:, None]
+    return nodes
+
+
 def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float = 30.0,
                use_symmetry: bool = True) -> Mesh:
     """Mesh a profile into six-node triangles.
@@ -291,4 +362,5 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
     region = np.asarray(origin, dtype=np.int64)[region]
     for axis in axes:
         nodes6, elems6, region = mirror_mesh(nodes6, elems6, region, axis, 1e-9 * profile.size)
+    nodes6 = follow_arcs(nodes6, elems6, profile.arcs)
     return Mesh(nodes6, elems6, region, h)

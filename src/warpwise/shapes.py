@@ -14,7 +14,7 @@ from __future__ import annotations
 import numpy as np
 
 from .errors import ProfileError
-from .geometry import Profile, profile_from_loops
+from .geometry import Arc, Profile, profile_from_loops
 
 
 def _positive(**values: float) -> None:
@@ -53,22 +53,29 @@ def ellipse(a: float, b: float, *, segments: int = 256, units: str = "mm") -> Pr
                               source=f"ellipse a={a:g} b={b:g}", units=units)
 
 
-def round_bar(d: float, *, segments: int = 256, units: str = "mm") -> Profile:
-    """Solid round bar of diameter d centred on the origin."""
+def round_bar(d: float, *, segments: int = 256, units: str = "mm", curved: bool = True) -> Profile:
+    """Solid round bar of diameter d centred on the origin.
+
+    With ``curved`` the mesh's boundary nodes lie on the true circle (curved element edges);
+    otherwise the section is the inscribed polygon of ``segments`` sides.
+    """
     _positive(d=d)
+    arcs = [Arc(0.0, 0.0, d / 2)] if curved else []
     return profile_from_loops([ellipse_points(d / 2, d / 2, segments)],
-                              source=f"round bar d={d:g}", units=units)
+                              source=f"round bar d={d:g}", units=units, arcs=arcs)
 
 
-def tube(d_outer: float, d_inner: float, *, segments: int = 256, units: str = "mm") -> Profile:
-    """Circular tube with outer and inner diameters, centred on the origin."""
+def tube(d_outer: float, d_inner: float, *, segments: int = 256, units: str = "mm",
+         curved: bool = True) -> Profile:
+    """Circular tube with outer and inner diameters, centred on the origin (see round_bar)."""
     _positive(d_outer=d_outer, d_inner=d_inner)
     if d_inner >= d_outer:
         raise ProfileError(f"tube inner diameter {d_inner:g} must be less than outer {d_outer:g}")
+    arcs = [Arc(0.0, 0.0, d_outer / 2), Arc(0.0, 0.0, d_inner / 2)] if curved else []
     return profile_from_loops(
         [ellipse_points(d_outer / 2, d_outer / 2, segments),
          ellipse_points(d_inner / 2, d_inner / 2, segments)],
-        source=f"tube D={d_outer:g} d={d_inner:g}", units=units)
+        source=f"tube D={d_outer:g} d={d_inner:g}", units=units, arcs=arcs)
 
 
 def polygon(points: object, *, units: str = "mm", name: str = "polygon") -> Profile:

@@ -154,7 +154,7 @@ def cut(profile: Profile, axes: list[Axis]) -> tuple[Profile, list[int]]:
                 holes.append(h[::-1] if signed_area(h) > 0 else h)
             regions.append(Region(outer, tuple(holes), reg.material))
             origin.append(k)
-    return Profile(tuple(regions), profile.source, profile.units, profile.notes), origin
+    return Profile(tuple(regions), profile.source, profile.units, profile.notes, profile.arcs), origin
 
 
 def mirror_mesh(nodes: np.ndarray, elements: np.ndarray, region: np.ndarray, axis: Axis,
