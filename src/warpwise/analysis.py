@@ -14,10 +14,11 @@ Examples
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
+from .bounds import prandtl_lower_bound
 from .errors import AnalysisError
 from .fem import ElementValues, element_values, stiffness_matrix
 from .geometry import Profile
@@ -74,7 +75,7 @@ class SectionResult:
 
 
 def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
-            poisson: float = DEFAULT_POISSON) -> SectionResult:
+            poisson: float = DEFAULT_POISSON, bounds: bool = False) -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -88,6 +89,9 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     poisson : float
         Poisson's ratio for the shear functions (only shear areas and the elastic shear
         centre depend on it).
+    bounds : bool
+        Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
+        (``torsion.J_low``; J itself is the upper bound).
 
     Returns
     -------
@@ -119,6 +123,14 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     if not 0 < tor.J <= geo.Ip * (1 + 1e-9):
         raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
                             file=profile.source)
+    if bounds:
+        rings = [ring for poly in getattr(profile.geometry(), "geoms", [profile.geometry()])
+                 for ring in poly.interiors]
+        J_low, _ = prandtl_lower_bound(mesh, evc, K, rings, 1e-7 * profile.size)
+        if not J_low <= tor.J * (1 + 1e-9):
+            raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
+                                file=profile.source)
+        tor = replace(tor, J_low=J_low)
     if not -1.0 < poisson < 0.5:
         raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
                             file=profile.source)

@@ -93,6 +93,9 @@ class TorsionProperties:
         with (u, v) centroidal coordinates along axes (1, 2) and (u_s, v_s) the shear centre.
     residual : float
         Backward error of the warping solve.
+    J_low : float or None
+        Guaranteed lower bound on J of the meshed domain from the Prandtl stress function
+        (J itself is the upper bound), L^4; None when not computed.
     """
 
     J: float
@@ -104,6 +107,7 @@ class TorsionProperties:
     beta_1: float
     beta_2: float
     residual: float
+    J_low: float | None = None
 
 
 def _moduli(
