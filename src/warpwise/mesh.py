@@ -22,6 +22,7 @@ import numpy as np
 import shapely
 from meshpy import triangle
 
+from .corners import reentrant_corners
 from .errors import ProfileError, UsageError
 from .geometry import Arc, Profile
 from .symmetry import cut, mirror_mesh, symmetry_axes
@@ -30,6 +31,10 @@ from .symmetry import cut, mirror_mesh, symmetry_axes
 DEFAULT_SIZE_FACTOR = 0.125
 #: Elements through the local wall thickness at the boundary (at least two).
 ELEMENTS_ACROSS_WALL = 2.5
+#: Element size at a sharp re-entrant corner, as a fraction of the local size there.
+CORNER_SIZE_FACTOR = 0.05
+#: Growth of the element size with distance from a sharp re-entrant corner.
+CORNER_GRADING = 0.3
 #: Largest number of elements a mesh may have before meshing is refused.
 MAX_ELEMENTS = 4_000_000
 
@@ -182,6 +187,38 @@ def _split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple
     return np.vstack([p, new_pts]), np.column_stack([chain[t], chain[t + 1]])
 
 
+def _grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_corner: np.ndarray,
+                      grade: float) -> tuple[np.ndarray, np.ndarray]:
+    """Bisect boundary segments until each is shorter than h_c + grade * (distance to corner).
+
+    Parameters
+    ----------
+    pts, sub : numpy.ndarray
+        Boundary points (p, 2) and segments (s, 2).
+    corners : numpy.ndarray
+        Corner points (k, 2).
+    h_corner : numpy.ndarray
+        Element size wanted at each corner (k,).
+    grade : float
+        Growth of the size with distance from a corner.
+    """
+    if len(corners) == 0:
+        return pts, sub
+    for _ in range(60):
+        a, b = pts[sub[:, 0]], pts[sub[:, 1]]
+        mid = 0.5 * (a + b)
+        d = np.linalg.norm(mid[:, None, :] - corners[None, :, :], axis=2)  # (s, k), k is small
+        target = (h_corner[None, :] + grade * d).min(axis=1)
+        split = np.linalg.norm(b - a, axis=1) > target
+        if not split.any():
+            break
+        new = len(pts) + np.arange(int(split.sum()))
+        pts = np.vstack([pts, mid[split]])
+        s = sub[split]
+        sub = np.vstack([sub[~split], np.column_stack([s[:, 0], new]), np.column_stack([new, s[:, 1]])])
+    return pts, sub
+
+
 def _to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Add mid-side nodes to three-node triangles, vectorised over unique edges."""
     edges = tris[:, [0, 1, 1, 2, 2, 0]].reshape(-1, 2)
@@ -204,6 +241,13 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float) -> tu
     pts, sub = _split_segments(vertices, seg, np.minimum(h, t1 / ELEMENTS_ACROSS_WALL))
     t2 = wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b)
     pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / ELEMENTS_ACROSS_WALL))
+    corners = reentrant_corners(full)
+    if corners:
+        cxy = np.array([(c.x, c.y) for c in corners])
+        # size at the corner: a fraction of the local size there (wall thickness or h)
+        near = np.argmin(np.linalg.norm(pts[sub[:, 0]][:, None] - cxy[None], axis=2), axis=0)
+        local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
+        pts, sub = _grade_to_corners(pts, sub, cxy, CORNER_SIZE_FACTOR * local, CORNER_GRADING)
     if len(pts) > MAX_ELEMENTS:
         raise UsageError(f"the boundary needs {len(pts):,} points, more than the limit",
                          file=full.source)

@@ -1,0 +1,84 @@
+"""Sharp re-entrant corners of a profile, where the torsion shear stress is singular.
+
+At a re-entrant corner of interior angle alpha > 180 degrees the exact Saint-Venant shear stress
+grows without bound as r^(pi/alpha - 1) (r the distance from the corner; exponent -1/3 for a
+right-angled corner), so a "maximum shear stress" there depends on the mesh, not on the part.
+The mesher grades elements towards these corners so that J and Cw still converge, and the stress
+report keeps its maximum away from them and names them.
+
+Examples
+--------
+>>> from warpwise.geometry import profile_from_loops
+>>> ell = profile_from_loops([[(0, 0), (10, 0), (10, 2), (2, 2), (2, 10), (0, 10)]])
+>>> [(c.x, c.y, round(c.angle_deg)) for c in reentrant_corners(ell)]
+[(2.0, 2.0, 270)]
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from shapely.geometry.polygon import orient
+
+from .geometry import Profile
+
+#: Interior angle above which a corner counts as sharp and re-entrant, degrees.
+SHARP_ANGLE_DEG = 190.0
+
+
+@dataclass(frozen=True)
+class Corner:
+    """A sharp re-entrant corner.
+
+    Attributes
+    ----------
+    x, y : float
+        Location, drawing coordinates.
+    angle_deg : float
+        Interior angle on the material side, degrees (> 180).
+    exponent : float
+        Stress singularity exponent pi/alpha - 1 (the stress grows as r to this power).
+    """
+
+    x: float
+    y: float
+    angle_deg: float
+
+    @property
+    def exponent(self) -> float:
+        """Exponent of the shear-stress singularity, pi / alpha - 1 (negative)."""
+        return 180.0 / self.angle_deg - 1.0
+
+
+def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> list[Corner]:
+    """Corners of the material outline with an interior angle above ``sharp_deg``.
+
+    Interfaces between materials are not free boundaries and are not searched.
+
+    Parameters
+    ----------
+    profile : Profile
+        The profile.
+    sharp_deg : float
+        Interior angle threshold, degrees.
+
+    Returns
+    -------
+    list of Corner
+    """
+    geom = profile.geometry()
+    found: list[Corner] = []
+    for poly in getattr(geom, "geoms", [geom]):
+        poly = orient(poly, 1.0)  # exterior counter-clockwise, holes clockwise: material on the left
+        for ring in (poly.exterior, *poly.interiors):
+            p = np.asarray(ring.coords)[:-1]
+            e_in = p - np.roll(p, 1, axis=0)
+            e_out = np.roll(p, -1, axis=0) - p
+            cross = e_in[:, 0] * e_out[:, 1] - e_in[:, 1] * e_out[:, 0]
+            dot = np.einsum("ij,ij->i", e_in, e_out)
+            turn = np.degrees(np.arctan2(cross, dot))  # left turn positive
+            interior = 180.0 - turn
+            for k in np.flatnonzero(interior > sharp_deg):
+                found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))
+    return found
