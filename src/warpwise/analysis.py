@@ -75,7 +75,8 @@ class SectionResult:
 
 
 def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
-            poisson: float = DEFAULT_POISSON, bounds: bool = False) -> SectionResult:
+            poisson: float = DEFAULT_POISSON, bounds: bool = False,
+            refine: float = 1.0) -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -89,6 +90,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     poisson : float
         Poisson's ratio for the shear functions (only shear areas and the elastic shear
         centre depend on it).
+    refine : float
+        Mesh refinement factor (see :func:`warpwise.mesh.build_mesh`).
     bounds : bool
         Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
         (``torsion.J_low``; J itself is the upper bound).
@@ -104,7 +107,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
 
     """
     if mesh is None:
-        mesh = build_mesh(profile, mesh_size)
+        mesh = build_mesh(profile, mesh_size, refine=refine)
     x0, y0, x1, y1 = profile.bounds
     origin = np.array([0.5 * (x0 + x1), 0.5 * (y0 + y1)])
     try:

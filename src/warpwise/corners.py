@@ -19,6 +19,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+import shapely
 from shapely.geometry.polygon import orient
 
 from .geometry import Profile
@@ -82,3 +83,30 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> l
             for k in np.flatnonzero(interior > sharp_deg):
                 found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))
     return found
+
+
+#: Radius around a sharp re-entrant corner left out of the reported maximum stress, as a
+#: fraction of the material depth seen from the corner along its bisector.
+EXCLUSION_FRACTION = 0.1
+
+
+def exclusion_radius(profile: Profile, corner: Corner) -> float:
+    """Radius around ``corner`` within which the singular stress is not reported, drawing unit.
+
+    The local material depth is the shortest distance from the corner to the outline across
+    the material (rays into the material every 5 degrees); the radius is
+    :data:`EXCLUSION_FRACTION` of it.
+    """
+    geom = profile.geometry()
+    c = np.array([corner.x, corner.y])
+    ang = np.radians(np.arange(0.0, 360.0, 5.0))
+    d = np.column_stack([np.cos(ang), np.sin(ang)])
+    start = c + 1e-6 * profile.size * d
+    inside = shapely.contains_xy(geom, start[:, 0], start[:, 1])
+    depth = profile.size
+    for s0, dk in zip(start[inside], d[inside], strict=True):
+        hit = shapely.LineString([s0, c + 2.0 * profile.size * dk]).intersection(geom.boundary)
+        pts = shapely.get_coordinates(hit)
+        if len(pts):
+            depth = min(depth, float(np.linalg.norm(pts - c, axis=1).min()))
+    return EXCLUSION_FRACTION * depth

@@ -230,7 +230,7 @@ def _to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.n
     return np.vstack([nodes, mids]), np.hstack([tris, mid_idx]).astype(np.int64)
 
 
-def _triangulate(part: Profile, full: Profile, h: float, min_angle: float) -> tuple[
+def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float) -> tuple[
         np.ndarray, np.ndarray, np.ndarray]:
     """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
     vertices, seg = _planar_graph(part)
@@ -238,9 +238,9 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float) -> tu
     seg_a, seg_b = fv[fseg[:, 0]], fv[fseg[:, 1]]
     # two passes: split by the thickness at segment midpoints, then measure again on the pieces
     t1 = wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b)
-    pts, sub = _split_segments(vertices, seg, np.minimum(h, t1 / ELEMENTS_ACROSS_WALL))
+    pts, sub = _split_segments(vertices, seg, np.minimum(h, t1 / across))
     t2 = wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b)
-    pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / ELEMENTS_ACROSS_WALL))
+    pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / across))
     corners = reentrant_corners(full)
     if corners:
         cxy = np.array([(c.x, c.y) for c in corners])
@@ -361,8 +361,8 @@ def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...]) 
     return nodes
 
 
-def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float = 30.0,
-               use_symmetry: bool = True) -> Mesh:
+def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1.0,
+               min_angle: float = 30.0, use_symmetry: bool = True) -> Mesh:
     """Mesh a profile into six-node triangles.
 
     Parameters
@@ -372,6 +372,9 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
     size : float, optional
         Largest element size, drawing unit. Default :func:`default_size`. Near thin walls the
         local size is smaller (the wall thickness over 2.5).
+    refine : float
+        Divides every local size (the largest size, the size across walls and at corners);
+        2 halves all elements, 0.5 doubles them.
     min_angle : float
         Smallest angle of any triangle, degrees (Triangle's quality bound).
     use_symmetry : bool
@@ -390,6 +393,9 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
     h = default_size(profile) if size is None else float(size)
     if not np.isfinite(h) or h <= 0:
         raise UsageError(f"mesh size must be a positive number, got {size!r}", file=None)
+    if not (np.isfinite(refine) and refine > 0):
+        raise UsageError(f"refinement factor must be a positive number, got {refine!r}")
+    h /= refine
     estimate = profile.area / (0.43 * h * h)
     if estimate > MAX_ELEMENTS:
         raise UsageError(
@@ -401,7 +407,7 @@ def build_mesh(profile: Profile, size: float | None = None, *, min_angle: float 
         part, origin = cut(profile, axes)
     else:
         part, origin = profile, list(range(len(profile.regions)))
-    nodes, tris, region = _triangulate(part, profile, h, min_angle)
+    nodes, tris, region = _triangulate(part, profile, h, min_angle, ELEMENTS_ACROSS_WALL * refine)
     nodes6, elems6 = _to_quadratic(nodes, tris)
     region = np.asarray(origin, dtype=np.int64)[region]
     for axis in axes:

@@ -12,6 +12,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .analysis import SectionResult
+from .corners import Corner, exclusion_radius, reentrant_corners
 from .errors import UsageError
 from .fem import nodal_gradient
 
@@ -31,10 +32,11 @@ class TorsionStress:
     tau_zx, tau_zy, tau : numpy.ndarray
         Stress components and resultant magnitude at the nodes (n,), force / L^2.
     tau_max : float
-        Largest resultant, force / L^2.
+        Largest resultant away from sharp re-entrant corners, force / L^2.
     tau_max_at : tuple of float
         Node where it occurs, drawing coordinates, L.
-
+    corners : list of CornerStress
+        Sharp re-entrant corners: location and the (mesh-dependent) stress there.
     """
 
     torque: float
@@ -45,6 +47,62 @@ class TorsionStress:
     tau: np.ndarray
     tau_max: float
     tau_max_at: tuple[float, float]
+    corners: list[CornerStress]
+
+
+@dataclass(frozen=True)
+class CornerStress:
+    """Stress found at a sharp re-entrant corner, where the exact stress is unbounded.
+
+    Attributes
+    ----------
+    corner : Corner
+        The corner (location, interior angle).
+    tau_at_corner : float
+        Resultant shear stress at the corner node on this mesh, force / L^2; it grows without
+        limit under refinement (as h^exponent). A fillet radius is needed for a real value.
+    excluded_radius : float
+        Radius around the corner left out of ``tau_max``, L.
+    """
+
+    corner: Corner
+    tau_at_corner: float
+    excluded_radius: float
+
+
+def peak_stress(result: SectionResult, tau: np.ndarray) -> tuple[float, tuple[float, float],
+                                                                  list[CornerStress]]:
+    """Largest nodal stress away from sharp re-entrant corners, where, and the corner values.
+
+    Parameters
+    ----------
+    result : SectionResult
+        The analysed section.
+    tau : numpy.ndarray
+        Nodal stress resultant (n,), force / L^2.
+
+    Returns
+    -------
+    tau_max : float
+        Largest value outside the corners' exclusion radii.
+    at : (float, float)
+        Its node, L.
+    corners : list of CornerStress
+        One entry per sharp re-entrant corner.
+    """
+    nodes = result.mesh.nodes
+    keep = np.ones(len(nodes), bool)
+    found = []
+    for c in reentrant_corners(result.profile):
+        r = exclusion_radius(result.profile, c)
+        dist = np.hypot(nodes[:, 0] - c.x, nodes[:, 1] - c.y)
+        keep &= dist > r
+        found.append(CornerStress(c, float(tau[int(np.argmin(dist))]), r))
+    if not keep.any():
+        keep[:] = True
+    idx = np.flatnonzero(keep)
+    k = int(idx[np.argmax(tau[idx])])
+    return float(tau[k]), (float(nodes[k, 0]), float(nodes[k, 1])), found
 
 
 def shear_modulus(
@@ -108,7 +166,10 @@ class ShearStress:
     tau_max_at : tuple of float
         Node where it occurs, L.
     tau_max_torsion, tau_max_shear : float
-        Largest resultant of the torsion part alone and of the shear-force part alone.
+        Largest resultant of the torsion part alone and of the shear-force part alone (both
+        away from sharp re-entrant corners).
+    corners : list of CornerStress
+        Sharp re-entrant corners and the combined stress found there.
     twist_rate : float or None
         T / (G J), radians per L; None when no shear modulus was given.
     """
@@ -124,6 +185,7 @@ class ShearStress:
     tau_max_torsion: float
     tau_max_shear: float
     twist_rate: float | None
+    corners: list[CornerStress]
 
 
 def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStress:
@@ -152,11 +214,10 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
     tzx = scale * (g[:, 0] - local[:, 1])
     tzy = scale * (g[:, 1] + local[:, 0])
     tau = np.hypot(tzx, tzy)
-    k = int(np.argmax(tau))
+    top, at, corners = peak_stress(result, tau)
     return TorsionStress(
         torque=float(torque), shear_modulus=float(G), twist_rate=float(torque / (G * tor.J)),
-        tau_zx=tzx, tau_zy=tzy, tau=tau, tau_max=float(tau[k]),
-        tau_max_at=(float(mesh.nodes[k, 0]), float(mesh.nodes[k, 1])),
+        tau_zx=tzx, tau_zy=tzy, tau=tau, tau_max=top, tau_max_at=at, corners=corners,
     )
 
 
@@ -205,13 +266,12 @@ def shear_stress(result: SectionResult, torque: float = 0.0, vx: float = 0.0, vy
     elif G is not None:
         twist = 0.0
     v = shear_stress_at_nodes(result.mesh, result.geometric, result.shear, vx, vy)
-    tau_v = float(np.hypot(v[:, 0], v[:, 1]).max())
+    tau_v = peak_stress(result, np.hypot(v[:, 0], v[:, 1]))[0]
     zx, zy = t_zx + v[:, 0], t_zy + v[:, 1]
     tau = np.hypot(zx, zy)
-    k = int(np.argmax(tau))
+    top, at, corners = peak_stress(result, tau)
     return ShearStress(
         torque=float(torque), vx=float(vx), vy=float(vy), tau_zx=zx, tau_zy=zy, tau=tau,
-        tau_max=float(tau[k]), tau_max_at=(float(result.mesh.nodes[k, 0]),
-                                           float(result.mesh.nodes[k, 1])),
-        tau_max_torsion=float(tau_t), tau_max_shear=tau_v, twist_rate=twist,
+        tau_max=top, tau_max_at=at, tau_max_torsion=float(tau_t), tau_max_shear=tau_v,
+        twist_rate=twist, corners=corners,
     )
