@@ -57,6 +57,9 @@ class SectionResult:
         Basis values in centroidal coordinates (for stress recovery).
     solver : PinnedSolver
         The factorised stiffness matrix (for further right-hand sides).
+    errors : dict of str to float or None
+        Estimated relative errors of the main values (see :mod:`warpwise.accuracy`), when an
+        estimate was asked for.
 
     """
 
@@ -67,6 +70,7 @@ class SectionResult:
     shear: ShearProperties
     values: ElementValues
     solver: PinnedSolver
+    errors: dict[str, float] | None = None
 
     @property
     def units(self) -> str:

@@ -18,6 +18,9 @@ from ..analysis import SectionResult
 from ..errors import UsageError
 from .quantities import QUANTITIES, unit_of, values
 
+#: Columns of estimated relative errors, in this order, when any result has an estimate.
+ERROR_KEYS = ("J", "Cw", "xs", "ys", "Wel_x", "Wel_y", "Wel_1", "Wel_2", "As_x", "As_y")
+
 
 def atomic_write(path: str | Path, data: str | bytes) -> None:
     """Write ``data`` to ``path`` through a temporary file and a rename.
@@ -65,13 +68,15 @@ def to_json_object(result: SectionResult) -> dict[str, Any]:
     for q in QUANTITIES:
         if q.key in ("xc", "yc", "xs", "ys", "xse", "yse"):
             continue
-        obj[q.key] = v[q.key]
+        obj[q.key] = None if v[q.key] != v[q.key] else v[q.key]
     obj["centroid"] = [v["xc"], v["yc"]]
     obj["shear_centre"] = [v["xs"], v["ys"]]
     obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
     obj["mesh"] = {"nodes": result.mesh.n_nodes, "elements": result.mesh.n_elements,
                    "size": result.mesh.size}
     obj["notes"] = list(result.profile.notes)
+    if result.errors is not None:
+        obj["relative_error"] = dict(result.errors)
     return obj
 
 
@@ -95,9 +100,16 @@ def csv_text(results: list[SectionResult]) -> str:
                          "give --units to report them in one")
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
-    w.writerow(csv_header(results[0].units))
+    with_errors = any(r.errors is not None for r in results)
+    header = csv_header(results[0].units)
+    if with_errors:
+        header += [f"{k} est. rel. error (-)" for k in ERROR_KEYS]
+    w.writerow(header)
     for r in results:
         v = values(r)
-        w.writerow([r.profile.source, r.units, *[f"{v[q.key]:.10g}" for q in QUANTITIES],
-                    r.mesh.n_nodes, r.mesh.n_elements])
+        row = [r.profile.source, r.units, *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}"
+                                            for q in QUANTITIES], r.mesh.n_nodes, r.mesh.n_elements]
+        if with_errors:
+            row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
+        w.writerow(row)
     return buf.getvalue()

@@ -81,6 +81,9 @@ QUANTITIES: tuple[Quantity, ...] = (
              "Bending", "I2 / largest distance from axis 2 on the side of -axis 1"),
     Quantity("J", "J", "Saint-Venant torsion constant", 4, "Torsion and warping",
              "Ix + Iy - integral of (y dpsi/dx - x dpsi/dy) dA; T = G J theta"),
+    Quantity("J_low", "J_low", "guaranteed lower bound on J (stress function)", 4,
+             "Torsion and warping", "2 int phi dA + 2 sum c_k A_k, Prandtl phi on the same mesh; "
+             "J_low <= J(exact) <= J"),
     Quantity("xs", "xs", "shear centre, x", 1, "Torsion and warping",
              "Trefftz: point about which the warping function is orthogonal to x and y"),
     Quantity("ys", "ys", "shear centre, y", 1, "Torsion and warping", "as xs, drawing coordinates"),
@@ -123,7 +126,10 @@ def unit_of(q: Quantity, length: str) -> str:
 
 
 def values(result: SectionResult) -> dict[str, float]:
-    """Flat dictionary of every quantity in :data:`QUANTITIES` for one result."""
+    """Flat dictionary of every quantity in :data:`QUANTITIES` for one result.
+
+    A quantity that was not computed (the bound on J without ``bounds``) is nan.
+    """
     g, t = result.geometric, result.torsion
     out: dict[str, Any] = {
         "A": g.A, "xc": g.centroid[0], "yc": g.centroid[1],
@@ -131,6 +137,7 @@ def values(result: SectionResult) -> dict[str, float]:
         "Ip": g.Ip, "rx": g.rx, "ry": g.ry, "r1": g.r1, "r2": g.r2,
         "J": t.J, "xs": t.shear_centre[0], "ys": t.shear_centre[1], "Cw": t.Cw,
         "omega_max": t.omega_max, "beta_1": t.beta_1, "beta_2": t.beta_2,
+        "J_low": float("nan") if t.J_low is None else t.J_low,
     }
     sh = result.shear
     out.update({
@@ -146,3 +153,17 @@ def values(result: SectionResult) -> dict[str, float]:
         if abs(out[k]) < tiny:
             out[k] = 0.0
     return {q.key: float(out[q.key]) for q in QUANTITIES}
+
+
+#: Quantities with an error estimate: key in QUANTITIES -> key in SectionResult.errors.
+ESTIMATED = {"J": "J", "Cw": "Cw", "xs": "xs", "ys": "ys", "As_x": "As_x", "As_y": "As_y",
+             "Wel_x_top": "Wel_x", "Wel_x_bottom": "Wel_x", "Wel_y_right": "Wel_y",
+             "Wel_y_left": "Wel_y", "Wel_1_pos": "Wel_1", "Wel_1_neg": "Wel_1",
+             "Wel_2_pos": "Wel_2", "Wel_2_neg": "Wel_2"}
+
+
+def error_of(result: SectionResult, key: str) -> float | None:
+    """Estimated relative error of a quantity, or None when not estimated."""
+    if result.errors is None or key not in ESTIMATED:
+        return None
+    return result.errors.get(ESTIMATED[key])

@@ -2,8 +2,11 @@
 
 from __future__ import annotations
 
+import numpy as np
+
 from ..analysis import SectionResult
-from .quantities import QUANTITIES, unit_of, values
+from ..corners import reentrant_corners
+from .quantities import QUANTITIES, error_of, unit_of, values
 
 CAUTION = ("Results support, and never replace, a check of the member to the applicable design "
            "code by a qualified engineer.")
@@ -25,22 +28,38 @@ def format_value(v: float, digits: int = 6) -> str:
 
 
 def property_table(result: SectionResult) -> str:
-    """The full property table of one result as text, grouped, with symbols and units."""
+    """The full property table of one result as text, grouped, with symbols and units.
+
+    With an error estimate, a last column gives the estimated relative error of each value
+    (for shear-centre coordinates: relative to the profile's size).
+    """
     v = values(result)
     unit = result.units
     lines = [
         f"Section properties of {result.profile.source}",
         f"  length unit {unit}; mesh of {result.mesh.n_elements} six-node triangles, "
-        f"{result.mesh.n_nodes} nodes, element size {result.mesh.size:.3g} {unit}",
+        f"{result.mesh.n_nodes} nodes, largest element size {result.mesh.size:.3g} {unit}",
     ]
     lines += [f"  note: {n}" for n in result.profile.notes]
+    for c in reentrant_corners(result.profile):
+        lines.append(f"  note: sharp re-entrant corner ({c.angle_deg:.0f} deg) at ({format_value(c.x)}, "
+                     f"{format_value(c.y)}): the shear stress there is unbounded in theory and "
+                     "depends on the mesh; give the fillet radius for a real value")
     group = None
     for q in QUANTITIES:
+        if np.isnan(v[q.key]):
+            continue
         if q.group != group:
             group = q.group
             lines.append("")
-            lines.append(f"  {group}")
-        lines.append(f"    {q.label:<50} {q.symbol:<8} {format_value(v[q.key]):>14}  "
-                     f"{unit_of(q, unit)}")
+            head = f"  {group}"
+            if result.errors is not None:
+                head = f"{head:<82}est. rel. error"
+            lines.append(head)
+        row = f"    {q.label:<50} {q.symbol:<9} {format_value(v[q.key]):>14}  {unit_of(q, unit):<5}"
+        err = error_of(result, q.key)
+        if err is not None:
+            row += f" {err:9.1e}"
+        lines.append(row.rstrip())
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)

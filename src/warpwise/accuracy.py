@@ -1,0 +1,156 @@
+"""Accuracy settings and error estimates by Richardson extrapolation on refined meshes.
+
+An estimate solves the same profile on two further meshes, each with every local element size
+divided by sqrt(2) once more (refinement factors r, r sqrt(2), 2 r), measures the observed
+convergence rate of each quantity from the three values and extrapolates. The estimated error is
+that of the value reported at the first mesh (the one shown in the table), relative to the
+extrapolated value; coordinates (shear centre) are taken relative to the profile's size.
+
+Examples
+--------
+>>> ACCURACY_LEVELS["normal"]
+1.0
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+
+import numpy as np
+
+from .analysis import SectionResult, analyse
+from .errors import UsageError
+from .geometry import Profile
+from .shear import DEFAULT_POISSON
+
+#: Refinement factor of each accuracy setting (divides every local element size).
+ACCURACY_LEVELS: dict[str, float] = {"draft": 0.5, "normal": 1.0, "fine": 2.0}
+
+#: Refinement ratio between the meshes of an error estimate.
+STEP = float(np.sqrt(2.0))
+
+
+def refinement_for(accuracy: str) -> float:
+    """Refinement factor of an accuracy setting name (draft, normal, fine)."""
+    try:
+        return ACCURACY_LEVELS[accuracy]
+    except KeyError:
+        raise UsageError(f"unknown accuracy {accuracy!r} (use {', '.join(ACCURACY_LEVELS)})") from None
+
+
+def _quantities(r: SectionResult) -> dict[str, float]:
+    """The values whose error is estimated."""
+    g, t, s = r.geometric, r.torsion, r.shear
+    return {
+        "J": t.J, "Cw": t.Cw, "xs": t.shear_centre[0], "ys": t.shear_centre[1],
+        "Wel_x": g.Wel["x"], "Wel_y": g.Wel["y"], "Wel_1": g.Wel["1"], "Wel_2": g.Wel["2"],
+        "As_x": s.As_x, "As_y": s.As_y,
+    }
+
+
+#: Quantities that are coordinates: their error is relative to the profile's size.
+COORDINATES = ("xs", "ys")
+
+
+@dataclass(frozen=True, eq=False)
+class ErrorEstimate:
+    """Estimated errors of a result.
+
+    Attributes
+    ----------
+    result : SectionResult
+        The result at the requested accuracy (the reported values).
+    relative_error : dict of str to float
+        Estimated |error| of each reported value relative to the extrapolated value (for
+        coordinates: relative to the profile's size).
+    rate : dict of str to float
+        Observed convergence rate per refinement of sizes, as the exponent p in error ~ h^p
+        (nan where the values did not converge monotonically).
+    extrapolated : dict of str to float
+        Richardson-extrapolated values.
+    nodes : tuple of int
+        Node counts of the three meshes.
+    """
+
+    result: SectionResult
+    relative_error: dict[str, float] = field(default_factory=dict)
+    rate: dict[str, float] = field(default_factory=dict)
+    extrapolated: dict[str, float] = field(default_factory=dict)
+    nodes: tuple[int, ...] = ()
+
+
+def richardson(q1: float, q2: float, q3: float, ratio: float) -> tuple[float, float]:
+    """Extrapolated value and observed rate from three values on meshes refined by ``ratio``.
+
+    Parameters
+    ----------
+    q1, q2, q3 : float
+        Values on the coarse, middle and fine mesh.
+    ratio : float
+        Size ratio between successive meshes (> 1).
+
+    Returns
+    -------
+    (float, float)
+        Extrapolated value, and the observed rate p (nan when the differences change sign or
+        vanish; the extrapolated value is then the finest value).
+
+    Examples
+    --------
+    >>> q = [1.0 + h**4 for h in (1.0, 0.5, 0.25)]
+    >>> value, p = richardson(*q, ratio=2.0)
+    >>> round(value, 12), round(p, 9)
+    (1.0, 4.0)
+    """
+    d1, d2 = q1 - q2, q2 - q3
+    if d1 == 0 or d2 == 0 or np.sign(d1) != np.sign(d2):
+        return q3, float("nan")
+    p = float(np.log(d1 / d2) / np.log(ratio))
+    p = min(max(p, 0.5), 8.0)
+    return q3 + d2 / (ratio**p - 1.0), p
+
+
+def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine: float = 1.0,
+                    poisson: float = DEFAULT_POISSON, bounds: bool = False) -> ErrorEstimate:
+    """Analyse a profile at ``refine`` and estimate the error of its main values.
+
+    Parameters
+    ----------
+    profile : Profile
+        The profile.
+    mesh_size : float, optional
+        Largest element size of the first mesh, drawing unit (default from the profile).
+    refine : float
+        Refinement factor of the first mesh (an accuracy setting).
+    poisson : float
+        Poisson's ratio for the shear properties.
+    bounds : bool
+        Also compute the Prandtl lower bound on J for the first mesh.
+
+    Returns
+    -------
+    ErrorEstimate
+        The result at ``refine`` and the estimated errors; costs about 7 analyses
+        (meshes with 1, 2 and 4 times the elements).
+    """
+    first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds)
+    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson) for k in (1, 2)]
+    qs = [_quantities(r) for r in (first, *rest)]
+    size = profile.size
+    rel, rate, extra = {}, {}, {}
+    for key in qs[0]:
+        q1, q2, q3 = (q[key] for q in qs)
+        value, p = richardson(q1, q2, q3, STEP)
+        if np.isnan(p):
+            # not monotone: the spread of the three values is the honest statement
+            err = max(abs(q1 - q2), abs(q1 - q3))
+        else:
+            err = abs(q1 - value)
+        scale = size if key in COORDINATES else max(abs(value), 1e-300)
+        if key == "Cw":
+            # a warping constant near zero (closed and round sections) is judged against the
+            # natural scale Ip * size^2 rather than against itself
+            scale = max(scale, 1e-6 * first.geometric.Ip * size**2)
+        rel[key], rate[key], extra[key] = err / scale, p, value
+    first = replace(first, errors=rel)
+    return ErrorEstimate(first, rel, rate, extra, tuple(r.mesh.n_nodes for r in (first, *rest)))
