@@ -107,7 +107,7 @@ def richardson(q1: float, q2: float, q3: float, ratio: float) -> tuple[float, fl
         return q3, float("nan")
     p = float(np.log(d1 / d2) / np.log(ratio))
     p = min(max(p, 0.5), 8.0)
-    return q3 + d2 / (ratio**p - 1.0), p
+    return q3 - d2 / (ratio**p - 1.0), p
 
 
 def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine: float = 1.0,
