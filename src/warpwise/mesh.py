@@ -40,6 +40,37 @@ MAX_ELEMENTS = 4_000_000
 
 
 @dataclass(frozen=True, eq=False)
+class Triangulation:
+    """The three-node Triangle mesh of the meshed part of a profile, kept for refinement.
+
+    Attributes
+    ----------
+    points : numpy.ndarray
+        Vertices (p, 2), drawing unit.
+    triangles : numpy.ndarray
+        Counter-clockwise triangles (t, 3).
+    segments : numpy.ndarray
+        Boundary and interface segments (s, 2).
+    part : Profile
+        The meshed part (the whole profile, or one half or quarter of a symmetric one).
+    origin : tuple of int
+        For each region of ``part``, the index of the profile region it belongs to.
+    axes : tuple
+        Mirror axes applied after meshing the part.
+    profile : Profile
+        The whole profile.
+    """
+
+    points: np.ndarray
+    triangles: np.ndarray
+    segments: np.ndarray
+    part: Profile
+    origin: tuple[int, ...]
+    axes: tuple
+    profile: Profile
+
+
+@dataclass(frozen=True, eq=False)
 class Mesh:
     """A mesh of six-node triangles.
 
@@ -54,6 +85,8 @@ class Mesh:
         Index (m,) into ``Profile.regions`` of the region each element belongs to.
     size : float
         Target element size used, drawing unit.
+    linear : Triangulation or None
+        The three-node triangulation the mesh was made from (for local refinement).
 
     """
 
@@ -61,6 +94,7 @@ class Mesh:
     elements: np.ndarray
     region: np.ndarray
     size: float
+    linear: Triangulation | None = None
 
     @property
     def n_nodes(self) -> int:
@@ -230,8 +264,20 @@ def _to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.n
     return np.vstack([nodes, mids]), np.hstack([tris, mid_idx]).astype(np.int64)
 
 
+def _hole_seeds(part: Profile) -> list[np.ndarray]:
+    """One point inside each hole that no other region fills (Triangle's hole markers)."""
+    union = part.geometry()
+    holes = []
+    for reg in part.regions:
+        for hole in reg.holes:
+            empty = shapely.Polygon(hole).difference(union)
+            if not empty.is_empty and empty.area > 0:
+                holes.append(np.asarray(empty.representative_point().coords[0]))
+    return holes
+
+
 def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float) -> tuple[
-        np.ndarray, np.ndarray, np.ndarray]:
+        np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
     vertices, seg = _planar_graph(part)
     fv, fseg = _planar_graph(full)
@@ -254,13 +300,7 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, acros
     info = triangle.MeshInfo()
     info.set_points(pts)
     info.set_facets(sub)
-    union = part.geometry()
-    holes = []
-    for reg in part.regions:
-        for hole in reg.holes:
-            empty = shapely.Polygon(hole).difference(union)
-            if not empty.is_empty and empty.area > 0:
-                holes.append(np.asarray(empty.representative_point().coords[0]))
+    holes = _hole_seeds(part)
     if holes:
         info.set_holes(holes)
     info.regions.resize(len(part.regions))
@@ -287,7 +327,8 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, acros
     used = np.zeros(len(nodes), bool)
     used[tris.ravel()] = True
     renumber = np.cumsum(used) - 1
-    return nodes[used], renumber[tris], region
+    segs = np.asarray(out.facets, dtype=np.int64).reshape(-1, 2)
+    return nodes[used], renumber[tris], renumber[segs], region
 
 
 def boundary_edges(elements: np.ndarray) -> np.ndarray:
@@ -407,10 +448,79 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
         part, origin = cut(profile, axes)
     else:
         part, origin = profile, list(range(len(profile.regions)))
-    nodes, tris, region = _triangulate(part, profile, h, min_angle, ELEMENTS_ACROSS_WALL * refine)
-    nodes6, elems6 = _to_quadratic(nodes, tris)
-    region = np.asarray(origin, dtype=np.int64)[region]
-    for axis in axes:
+    nodes, tris, segs, region = _triangulate(part, profile, h, min_angle,
+                                             ELEMENTS_ACROSS_WALL * refine)
+    tri = Triangulation(nodes, tris, segs, part, tuple(origin), tuple(axes), profile)
+    return _quadratic_mesh(tri, region, h)
+
+
+def _quadratic_mesh(tri: Triangulation, region: np.ndarray, h: float) -> Mesh:
+    """Six-node mesh of the whole profile from the part's triangulation (mirror, follow arcs)."""
+    profile = tri.profile
+    nodes6, elems6 = _to_quadratic(tri.points, tri.triangles)
+    region = np.asarray(tri.origin, dtype=np.int64)[region]
+    for axis in tri.axes:
         nodes6, elems6, region = mirror_mesh(nodes6, elems6, region, axis, 1e-9 * profile.size)
     nodes6 = follow_arcs(nodes6, elems6, profile.arcs)
-    return Mesh(nodes6, elems6, region, h)
+    return Mesh(nodes6, elems6, region, h, tri)
+
+
+def _segments_of(tris: np.ndarray, region: np.ndarray) -> np.ndarray:
+    """Boundary edges and edges between regions of a three-node triangulation."""
+    edges = tris[:, [0, 1, 1, 2, 2, 0]].reshape(-1, 2)
+    key = np.sort(edges, axis=1)
+    owner = np.repeat(region, 3)
+    uniq, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
+    inverse = inverse.reshape(-1)
+    lo = np.full(len(uniq), np.iinfo(np.int64).max)
+    hi = np.full(len(uniq), -1)
+    np.minimum.at(lo, inverse, owner)
+    np.maximum.at(hi, inverse, owner)
+    return uniq[(counts == 1) | (lo != hi)]
+
+
+def refine_mesh(mesh: Mesh, max_area: np.ndarray, *, min_angle: float = 30.0) -> Mesh:
+    """Refine a mesh locally: each triangle of the meshed part gets an area limit.
+
+    Parameters
+    ----------
+    mesh : Mesh
+        A mesh made by :func:`build_mesh`.
+    max_area : numpy.ndarray
+        Largest area (t,) allowed in each triangle of ``mesh.linear`` (the first t elements of
+        the mesh; mirrored copies follow them), drawing unit squared; a value <= 0 sets none.
+    min_angle : float
+        Smallest angle, degrees.
+
+    Returns
+    -------
+    Mesh
+        The refined six-node mesh, mirrored and on the arcs like the original.
+    """
+    tri = mesh.linear
+    if tri is None:
+        raise UsageError("this mesh was not made by build_mesh and cannot be refined")
+    info = triangle.MeshInfo()
+    info.set_points(tri.points)
+    info.set_facets(tri.segments)
+    info.elements.resize(len(tri.triangles))
+    # meshpy has no bulk setter for elements: its own set_points loops the same way
+    for i, t in enumerate(tri.triangles.tolist()):
+        info.elements[i] = t
+    info.element_volumes.setup()
+    for i, a in enumerate(np.where(max_area > 0, max_area, -1.0).tolist()):
+        info.element_volumes[i] = a
+    holes = _hole_seeds(tri.part)
+    if holes:
+        info.set_holes(holes)
+    out = triangle.refine(info, min_angle=min_angle)
+    nodes = np.asarray(out.points, dtype=float)
+    tris = np.asarray(out.elements, dtype=np.int64)
+    # region of each new triangle: the part region holding its centroid
+    cen = nodes[tris].mean(axis=1)
+    region = np.zeros(len(tris), dtype=np.int64)
+    for k, reg in enumerate(tri.part.regions):
+        region[shapely.contains_xy(reg.polygon, cen[:, 0], cen[:, 1])] = k
+    segs = _segments_of(tris, region)
+    new = Triangulation(nodes, tris, segs, tri.part, tri.origin, tri.axes, tri.profile)
+    return _quadratic_mesh(new, region, mesh.size)
