@@ -80,7 +80,7 @@ class SectionResult:
 
 def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
             poisson: float = DEFAULT_POISSON, bounds: bool = False,
-            refine: float = 1.0) -> SectionResult:
+            refine: float = 1.0, solver: str = "auto") -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -96,6 +96,9 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         centre depend on it).
     refine : float
         Mesh refinement factor (see :func:`warpwise.mesh.build_mesh`).
+    solver : str
+        Linear solver: ``auto``, ``superlu``, ``pardiso`` or ``amg`` (see
+        :class:`warpwise.solve.SPDFactor`).
     bounds : bool
         Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
         (``torsion.J_low``; J itself is the upper bound).
@@ -122,8 +125,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     K = stiffness_matrix(mesh, evc)
     # pin the node nearest the centroid: any node works, this one keeps round-off small
     pin = int(np.argmin(np.sum((mesh.nodes - np.array(geo.centroid)) ** 2, axis=1)))
-    solver = PinnedSolver(K, pin)
-    tor = torsion_properties(mesh, evc, geo, solver, torsion_load(mesh, evc))
+    factor = PinnedSolver(K, pin, solver)
+    tor = torsion_properties(mesh, evc, geo, factor, torsion_load(mesh, evc))
     if not tor.residual < MAX_RESIDUAL:
         raise AnalysisError(f"warping solve residual {tor.residual:.2e} is too large",
                             file=profile.source)
@@ -133,7 +136,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     if bounds:
         rings = [ring for poly in getattr(profile.geometry(), "geoms", [profile.geometry()])
                  for ring in poly.interiors]
-        J_low, _ = prandtl_lower_bound(mesh, evc, K, rings, 1e-7 * profile.size)
+        J_low, _ = prandtl_lower_bound(mesh, evc, K, rings, 1e-7 * profile.size, solver)
         if not J_low <= tor.J * (1 + 1e-9):
             raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
                                 file=profile.source)
@@ -141,8 +144,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     if not -1.0 < poisson < 0.5:
         raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
                             file=profile.source)
-    shear = shear_properties(mesh, evc, geo, solver, poisson)
+    shear = shear_properties(mesh, evc, geo, factor, poisson)
     if not shear.residual < MAX_RESIDUAL:
         raise AnalysisError(f"shear function solve residual {shear.residual:.2e} is too large",
                             file=profile.source)
-    return SectionResult(profile, mesh, geo, tor, shear, evc, solver)
+    return SectionResult(profile, mesh, geo, tor, shear, evc, factor)

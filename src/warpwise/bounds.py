@@ -18,12 +18,12 @@ from __future__ import annotations
 
 import numpy as np
 import scipy.sparse as sp
-import scipy.sparse.linalg as spla
 import shapely
 
 from .errors import AnalysisError
 from .fem import ElementValues
 from .mesh import Mesh, boundary_edges
+from .solve import SPDFactor
 
 
 def _boundary_loops(mesh: Mesh, holes: list[shapely.LinearRing], tol: float) -> tuple[
@@ -41,7 +41,8 @@ def _boundary_loops(mesh: Mesh, holes: list[shapely.LinearRing], tol: float) -> 
 
 
 def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix,
-                        hole_rings: list[shapely.LinearRing], tol: float) -> tuple[float, np.ndarray]:
+                        hole_rings: list[shapely.LinearRing], tol: float,
+                        method: str = "auto") -> tuple[float, np.ndarray]:
     """Lower bound J_low from the Prandtl stress function on the mesh.
 
     Parameters
@@ -56,6 +57,8 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
         Boundaries of the holes of the material (interiors of the profile's union).
     tol : float
         Distance within which a boundary node lies on a hole ring, drawing unit.
+    method : str
+        Linear solver (see :class:`warpwise.solve.SPDFactor`).
 
     Returns
     -------
@@ -84,13 +87,8 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
     hole_area = np.array([shapely.Polygon(r).area for r in hole_rings])
     fr = P.T @ f
     fr[len(free):] += 2.0 * hole_area
-    Kr = (P.T @ stiffness @ P).tocsc()
     if m == 0:
         raise AnalysisError("the mesh has no interior node for the stress function")
-    try:
-        lu = spla.splu(Kr, permc_spec="MMD_AT_PLUS_A", options={"SymmetricMode": True})
-    except RuntimeError as exc:
-        raise AnalysisError(f"the stress-function matrix could not be factorised ({exc})") from None
-    phi_r = lu.solve(fr)
+    phi_r = SPDFactor((P.T @ stiffness @ P).tocsr(), method).solve(fr)
     phi = P @ phi_r
     return float(fr @ phi_r), phi

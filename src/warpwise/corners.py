@@ -55,7 +55,8 @@ class Corner:
 def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> list[Corner]:
     """Corners of the material outline with an interior angle above ``sharp_deg``.
 
-    Interfaces between materials are not free boundaries and are not searched.
+    Interfaces between materials are not free boundaries and are not searched; vertices of the
+    polygon approximating a recorded arc (strictly inside its sweep) are not corners.
 
     Parameters
     ----------
@@ -80,7 +81,15 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> l
             dot = np.einsum("ij,ij->i", e_in, e_out)
             turn = np.degrees(np.arctan2(cross, dot))  # left turn positive
             interior = 180.0 - turn
-            for k in np.flatnonzero(interior > sharp_deg):
+            sharp = interior > sharp_deg
+            # a vertex of the polygon that approximates a recorded arc is not a corner
+            for arc in profile.arcs:
+                d = p - np.array([arc.cx, arc.cy])
+                on = np.abs(np.hypot(d[:, 0], d[:, 1]) - arc.r) < 1e-7 * max(arc.r, profile.size)
+                if arc.sweep < 2.0 * np.pi - 1e-9:
+                    on &= arc.contains_angle(np.arctan2(d[:, 1], d[:, 0]), slack=-1e-9)
+                sharp &= ~on
+            for k in np.flatnonzero(sharp):
                 found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))
     return found
 

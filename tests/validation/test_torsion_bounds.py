@@ -1,0 +1,176 @@
+"""The guaranteed bracket J_low <= J <= J_up from the warping and the stress-function solutions.
+
+J_up is the warping (displacement) solution, ``result.torsion.J``; J_low the Prandtl
+stress-function solution on the same mesh, ``result.torsion.J_low`` (:mod:`warpwise.bounds`).
+That the two bracket the exact value is the standard pair of minimum principles, potential
+energy from above and complementary energy from below (complementary energy bounds, e.g.
+Washizu, Variational Methods in Elasticity and Plasticity, from memory). On straight-sided
+outlines the meshed domain is the profile, so the bracket must hold against the closed form
+itself, at every mesh; that is asserted for the rectangle series and the equilateral triangle.
+For an L-shape and a hollow square (no closed form) the bracket must contain the value
+extrapolated from finer meshes.
+
+Width under refinement: both errors are energies of a P2 error, J_up - J = |e_psi|^2 and
+J - J_low = |e_phi|^2, so on smooth solutions the width falls as h^4 (common practice, no
+source; the same argument as in test_convergence). Near a re-entrant corner of angle 3 pi / 2
+the fields carry r^(2/3) terms (Timoshenko & Goodier, ch. 10, from memory; the exponent pi /
+alpha), which limit a uniform mesh to h^(4/3) on J. The mesher grades towards such corners with a
+fixed profile (size h_c + 0.3 d, h_c proportional to h), so refining scales one graded mesh:
+the grading buys a high rate while the corner elements are still large, and the asymptotic
+rate must fall back towards 4/3. Slopes are measured against the nominal size h =
+``mesh.size`` over refine 1, 2, 4 (h halving each time).
+"""
+
+import numpy as np
+import pytest
+
+from warpwise.accuracy import estimate_errors
+from warpwise.analysis import analyse
+from warpwise.geometry import profile_from_loops
+from warpwise.shapes import polygon, rectangle
+
+REFINES = (0.5, 1.0, 2.0)  # the draft, normal and fine settings
+
+
+def rectangle_J(long: float, short: float, terms: int = 2000) -> float:
+    """Timoshenko & Goodier, Theory of Elasticity, 3rd ed., ch. 10, "Torsion of Rectangular
+    Bars" (from memory): J = a b^3 / 3 [1 - (192 / pi^5) (b / a) sum_{n odd} tanh(n pi a /
+    (2 b)) / n^5] for full sides a >= b; 2000 terms leave a truncation below 1e-15.
+    """
+    n = 2.0 * np.arange(terms) + 1.0
+    s = np.sum(np.tanh(n * np.pi * long / (2.0 * short)) / n**5)
+    return float(long * short**3 / 3.0 * (1.0 - 192.0 / np.pi**5 * (short / long) * s))
+
+
+def triangle(side: float):
+    """Equilateral triangle profile."""
+    return polygon(np.array([[0.0, 0.0], [side, 0.0], [side / 2.0, side * np.sqrt(3.0) / 2.0]]))
+
+
+L_SHAPE = profile_from_loops([[(0, 0), (40, 0), (40, 8), (8, 8), (8, 40), (0, 40)]],
+                             source="L 40 x 40 x 8")
+HOLLOW_SQUARE = profile_from_loops(
+    [[(-20, -20), (20, -20), (20, 20), (-20, 20)], [(-12, -12), (12, -12), (12, 12), (-12, 12)]],
+    source="hollow square 40 / 24")
+
+
+def bracket(profile, refine):
+    """(J_low, J_up, h, nodes) at one refinement."""
+    res = analyse(profile, refine=refine, bounds=True)
+    return res.torsion.J_low, res.torsion.J, res.mesh.size, res.mesh.n_nodes
+
+
+def slopes(profile, refines=(1.0, 2.0, 4.0)):
+    """Pairwise slopes of log(relative width) against log h, and the widths."""
+    width, h = [], []
+    for r in refines:
+        lo, up, size, _ = bracket(profile, r)
+        width.append((up - lo) / lo)
+        h.append(size)
+    width, h = np.array(width), np.array(h)
+    return np.diff(np.log(width)) / np.diff(np.log(h)), width
+
+
+# Measured relative positions (J_low / J - 1, J_up / J - 1) at refine 0.5, 1, 2:
+#   1:1  (-1.8e-3, +1.7e-3) (-1.0e-4, +1.2e-4) (-8.1e-6, +8.6e-6)
+#   2:1  (-1.6e-3, +1.5e-3) (-1.0e-4, +1.1e-4) (-8.3e-6, +9.1e-6)
+#   5:1  (-3.7e-3, +3.1e-3) (-1.3e-4, +1.6e-4) (-1.3e-5, +1.4e-5)
+#   10:1 (-2.3e-3, +2.1e-3) (-4.1e-4, +3.0e-4) (-2.2e-5, +2.2e-5)
+# so the exact value sits close to the middle; the strict inequalities are the check (no
+# tolerance is needed: the smallest margin, 8e-6 J, is ten orders above round-off). The upper
+# margin alone is also asserted to exceed 1e-12 relative, so a bracket that collapsed onto the
+# closed form by accident would not pass unnoticed.
+@pytest.mark.parametrize("ratio", [1, 2, 5, 10])
+def test_rectangle_bracket_contains_series(ratio):
+    b = 10.0
+    exact = rectangle_J(ratio * b, b)
+    for r in REFINES:
+        lo, up, _, _ = bracket(rectangle(ratio * b, b), r)
+        assert lo < exact < up, (r, lo / exact - 1.0, up / exact - 1.0)
+        assert min(exact - lo, up - exact) / exact > 1e-12
+
+
+def test_equilateral_triangle_bracket_contains_closed_form():
+    # J = sqrt(3) a^4 / 80 (Timoshenko & Goodier, 3rd ed., ch. 10, "Other Elementary
+    # Solutions", from memory). Measured (J_low / J - 1, J_up / J - 1): (-2.9e-4, +2.8e-4),
+    # (-1.9e-5, +1.9e-5), (-1.3e-6, +1.3e-6) at refine 0.5, 1, 2: an almost symmetric bracket
+    # (upper over lower error 0.94, 1.00, 1.02), both fields being smooth cubics here. The
+    # symmetry is a measured property, not a theorem (common practice, no source): bound
+    # 0.85 ... 1.15.
+    a = 30.0
+    exact = np.sqrt(3.0) * a**4 / 80.0
+    for r in REFINES:
+        lo, up, _, _ = bracket(triangle(a), r)
+        assert lo < exact < up, (r, lo / exact - 1.0, up / exact - 1.0)
+        assert 0.85 < (up - exact) / (exact - lo) < 1.15
+
+
+@pytest.fixture(scope="module")
+def converged():
+    """J of the L-shape and the hollow square, Richardson-extrapolated from refine 2, 2.83, 4.
+
+    Accuracy of these values, measured against the midpoints of very narrow guaranteed
+    brackets (adaptive meshes of 19.5k and 38k nodes, widths 2.9e-7 and 1.5e-7): the
+    extrapolation errs by +7.8e-6 (L) and -6.7e-7 (hollow square). The extrapolation from
+    refine 1 is not used: on the hollow square its observed rate hit the lower clamp 0.5 and the
+    extrapolated value fell 7.2e-5 low, outside even the refine-1 bracket (J_low is 5.2e-5
+    low there): a guaranteed bound is a safer statement than an extrapolation.
+    """
+    return {name: estimate_errors(p, refine=2.0).extrapolated["J"]
+            for name, p in (("L", L_SHAPE), ("hollow", HOLLOW_SQUARE))}
+
+
+# Measured relative positions (J_low / J - 1, J_up / J - 1) against the extrapolated values
+# at refine 0.5, 1, 2: L (-3.3e-3, +2.9e-3) (-4.6e-4, +3.9e-4) (-5.9e-5, +4.1e-5); hollow
+# square (-1.5e-4, +1.3e-4) (-5.2e-5, +4.8e-5) (-2.3e-5, +2.0e-5). The closest margin, 2.0e-5,
+# is more than twice the extrapolation's own error (7.8e-6), which is asserted as the margin.
+@pytest.mark.parametrize("name, profile", [("L", L_SHAPE), ("hollow", HOLLOW_SQUARE)])
+def test_bracket_contains_converged_value(converged, name, profile):
+    value = converged[name]
+    for r in REFINES:
+        lo, up, _, _ = bracket(profile, r)
+        assert lo < value < up, (r, lo / value - 1.0, up / value - 1.0)
+        assert min(value - lo, up - value) / value > 7.8e-6
+
+
+# Measured widths (J_up - J_low) / J_low at refine 1, 2, 4 and pairwise slopes against h:
+#   square      2.25e-4, 1.66e-5, 1.20e-6: 3.76, 3.79
+#   2:1         2.10e-4, 1.74e-5, 1.29e-6: 3.60, 3.75
+#   triangle    3.84e-5, 2.66e-6, 1.72e-7: 3.86, 3.95
+# Over refine 0.5 ... 4 in steps of sqrt 2 the least-squares slopes are 3.79, 3.60 and 3.89
+# (the triangle in another orientation), but single sqrt-2 steps of these unstructured meshes
+# are noisy (2.9 ... 4.8 for the 2:1), hence steps of 2 here.
+# The rectangle sits below 4 because its warping function has r^2 log r terms at the convex
+# corners (as in test_convergence), so the bound there is 3.5; the triangle's fields are
+# polynomials (smooth), so the full h^4 should show: bound 3.8. Upper bound 4.3 catches a lucky
+# or pre-asymptotic fit.
+@pytest.mark.parametrize("profile, low", [(rectangle(10.0, 10.0), 3.5), (rectangle(20.0, 10.0), 3.5),
+                                          (triangle(30.0), 3.8)], ids=["square", "2:1", "triangle"])
+def test_width_rate_smooth(profile, low):
+    s, width = slopes(profile)
+    assert np.all((low <= s) & (s <= 4.3)), (s, width)
+
+
+def test_width_rate_l_shape():
+    # Measured widths at refine 1, 2, 4: 8.51e-4, 1.00e-4, 2.19e-5, pairwise slopes 3.09 and
+    # 2.19 (and 1.56 from refine 4 to 8, 7.4e-6 at 33k nodes; not run, 2.5 s). The graded
+    # corner mesh gives a high rate while its corner elements are large, and the rate falls
+    # towards the singular limit 4/3 (module docstring). Asserted: the rate falls; the first
+    # slope is well above the 4/3 of an ungraded mesh (>= 2.8; it shows the grading works);
+    # the second still above 4/3 but below 4 and >= 1.9 (measured 2.19).
+    s, width = slopes(L_SHAPE)
+    assert s[0] > s[1], (s, width)
+    assert 2.8 <= s[0] <= 4.3, (s, width)
+    assert max(1.9, 4.0 / 3.0) <= s[1] < 4.0, (s, width)
+
+
+def test_width_rate_hollow_square():
+    # The hollow square has four re-entrant corners (the hole's) and walls of 8 in 40, so the
+    # corner grading and the wall rule dominate the mesh already at refine 0.5 (1336 nodes).
+    # With the corner element size shrinking as h^2 under refinement, measured widths at
+    # refine 1, 2, 4: 9.95e-5, 3.46e-5, 9.68e-6, slopes 1.52 and 1.84: above the singular rate
+    # 4/3 of a mesh graded the same way at every refinement (measured 1.22 and 1.35 then) and
+    # rising. Bound: not below 4/3 - 0.1, and the second slope not below the first.
+    s, width = slopes(HOLLOW_SQUARE)
+    assert np.all(s > 4.0 / 3.0 - 0.1), (s, width)
+    assert s[1] >= s[0], (s, width)
