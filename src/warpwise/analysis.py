@@ -14,14 +14,16 @@ Examples
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
 
 from .bounds import prandtl_lower_bound
 from .errors import AnalysisError
-from .fem import ElementValues, element_values, stiffness_matrix
+from .fem import ElementValues, element_values, integrate, stiffness_matrix
 from .geometry import Profile
+from .materials import ElementMaterials, Material
 from .mesh import Mesh, build_mesh
 from .section import (
     GeometricProperties,
@@ -48,7 +50,7 @@ class SectionResult:
     mesh : Mesh
         The mesh used.
     geometric : GeometricProperties
-        Area properties.
+        Area properties of the geometry (unweighted).
     torsion : TorsionProperties
         Torsion and warping properties.
     shear : ShearProperties
@@ -57,6 +59,12 @@ class SectionResult:
         Basis values in centroidal coordinates (for stress recovery).
     solver : PinnedSolver
         The factorised stiffness matrix (for further right-hand sides).
+    transformed : GeometricProperties
+        Modulus-weighted (transformed-section) properties referred to the reference material,
+        about the modulus-weighted centroid; the same object as ``geometric`` for one material.
+        Torsion and shear results are referred to this centroid.
+    materials : ElementMaterials
+        Material data per element.
     errors : dict of str to float or None
         Estimated relative errors of the main values (see :mod:`warpwise.accuracy`), when an
         estimate was asked for.
@@ -70,7 +78,14 @@ class SectionResult:
     shear: ShearProperties
     values: ElementValues
     solver: PinnedSolver
+    transformed: GeometricProperties
+    materials: ElementMaterials
     errors: dict[str, float] | None = None
+
+    @property
+    def composite(self) -> bool:
+        """True for a section of more than one material."""
+        return self.materials.composite
 
     @property
     def units(self) -> str:
@@ -80,7 +95,9 @@ class SectionResult:
 
 def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
             poisson: float = DEFAULT_POISSON, bounds: bool = False,
-            refine: float = 1.0, solver: str = "auto") -> SectionResult:
+            refine: float = 1.0, solver: str = "auto",
+            materials: Material | Sequence[Material] | None = None,
+            reference: str | None = None) -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -92,8 +109,12 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     mesh : Mesh, optional
         A ready mesh to use instead of meshing.
     poisson : float
-        Poisson's ratio for the shear functions (only shear areas and the elastic shear
-        centre depend on it).
+        Poisson's ratio for the shear functions when no material is given (only shear areas
+        and the elastic shear centre depend on it).
+    materials : Material or sequence of Material, optional
+        One material for the whole profile, or one per region (``profile.regions``).
+    reference : str, optional
+        Reference material of the transformed section (default: that of the first region).
     refine : float
         Mesh refinement factor (see :func:`warpwise.mesh.build_mesh`).
     solver : str
@@ -121,19 +142,35 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         ev = element_values(mesh, origin)
     except ValueError as exc:
         raise AnalysisError(str(exc), file=profile.source) from None
+    if not -1.0 < poisson < 0.5:
+        raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
+                            file=profile.source)
+    if materials is None or isinstance(materials, Material):
+        mats = ElementMaterials.single(mesh.n_elements, poisson, materials)
+    else:
+        if len(materials) != len(profile.regions):
+            raise AnalysisError(f"{len(materials)} materials given for {len(profile.regions)} "
+                                "regions", file=profile.source)
+        mats = ElementMaterials.from_regions(mesh.region, list(materials), reference)
     geo, evc = geometric_properties(mesh, ev, origin)
-    K = stiffness_matrix(mesh, evc)
+    wE = wG = None
+    transformed = geo
+    if mats.composite:
+        wE, wG = mats.E, mats.G
+        transformed, evc = geometric_properties(mesh, ev, origin, wE)
+    K = stiffness_matrix(mesh, evc, wG)
     # pin the node nearest the centroid: any node works, this one keeps round-off small
-    pin = int(np.argmin(np.sum((mesh.nodes - np.array(geo.centroid)) ** 2, axis=1)))
+    pin = int(np.argmin(np.sum((mesh.nodes - np.array(transformed.centroid)) ** 2, axis=1)))
     factor = PinnedSolver(K, pin, solver)
-    tor = torsion_properties(mesh, evc, geo, factor, torsion_load(mesh, evc))
+    tor = torsion_properties(mesh, evc, transformed, factor, torsion_load(mesh, evc, wG), wE, wG)
     if not tor.residual < MAX_RESIDUAL:
         raise AnalysisError(f"warping solve residual {tor.residual:.2e} is too large",
                             file=profile.source)
-    if not 0 < tor.J <= geo.Ip * (1 + 1e-9):
+    polar = integrate(evc, evc.xy[..., 0] ** 2 + evc.xy[..., 1] ** 2, wG)
+    if not 0 < tor.J <= polar * (1 + 1e-9):
         raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
                             file=profile.source)
-    if bounds:
+    if bounds and not mats.composite:
         rings = [ring for poly in getattr(profile.geometry(), "geoms", [profile.geometry()])
                  for ring in poly.interiors]
         J_low, _ = prandtl_lower_bound(mesh, evc, K, rings, 1e-7 * profile.size, solver)
@@ -141,11 +178,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
             raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
                                 file=profile.source)
         tor = replace(tor, J_low=J_low)
-    if not -1.0 < poisson < 0.5:
-        raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
-                            file=profile.source)
-    shear = shear_properties(mesh, evc, geo, factor, poisson)
+    shear = shear_properties(mesh, evc, transformed, factor, mats)
     if not shear.residual < MAX_RESIDUAL:
         raise AnalysisError(f"shear function solve residual {shear.residual:.2e} is too large",
                             file=profile.source)
-    return SectionResult(profile, mesh, geo, tor, shear, evc, factor)
+    return SectionResult(profile, mesh, geo, tor, shear, evc, factor, transformed, mats)

@@ -334,12 +334,17 @@ def _nest(polys: list[Polygon]) -> list[int]:
     ]
 
 
-def _check_no_crossings(polys: list[Polygon], labels: list[int], file: str | None) -> None:
-    """Raise when the boundaries of two loops cross or touch."""
+def _check_no_crossings(polys: list[Polygon], labels: list[int], file: str | None,
+                        materials: Sequence[str | None]) -> None:
+    """Raise when the boundaries of two loops of the same material cross or touch.
+
+    Loops of different materials may share boundary (a bonded interface); whether their areas
+    overlap is checked once the regions are built.
+    """
     tree = shapely.STRtree([p.exterior for p in polys])
     left, right = tree.query([p.exterior for p in polys], predicate="intersects")
     for i, j in zip(left, right, strict=True):
-        if i < j:
+        if i < j and materials[i] == materials[j]:
             meet = polys[i].exterior.intersection(polys[j].exterior)
             where = tuple(np.asarray(meet.representative_point().coords[0]))
             raise ProfileError(
@@ -416,7 +421,7 @@ def profile_from_loops(
     cleaned = [clean_loop(a, k + 1, file=file, scale=scale) for k, a in enumerate(raw)]
     polys = [Polygon(a) for a in cleaned]
     labels = list(range(1, len(polys) + 1))
-    _check_no_crossings(polys, labels, file)
+    _check_no_crossings(polys, labels, file, materials)
 
     # even-odd nesting among loops of one material -> solid polygons per material
     by_material: dict[str | None, list[int]] = {}

@@ -137,7 +137,33 @@ def _planar_graph(profile: Profile) -> tuple[np.ndarray, np.ndarray]:
     seg = np.sort(np.vstack(segs), axis=1)
     seg = seg[seg[:, 0] != seg[:, 1]]
     seg = np.unique(seg, axis=0)
+    if len(profile.regions) > 1:
+        seg = _split_at_t_junctions(vertices, seg, tol)
     return vertices, seg
+
+
+def _split_at_t_junctions(p: np.ndarray, seg: np.ndarray, tol: float) -> np.ndarray:
+    """Split segments at vertices lying inside them (regions meeting along part of an edge)."""
+    for _ in range(50):
+        lines = shapely.linestrings(np.stack([p[seg[:, 0]], p[seg[:, 1]]], axis=1))
+        tree = shapely.STRtree(lines)
+        vi, si = tree.query(shapely.points(p), predicate="dwithin", distance=tol)
+        inner = (seg[si, 0] != vi) & (seg[si, 1] != vi)
+        vi, si = vi[inner], si[inner]
+        if len(si) == 0:
+            break
+        # one split per segment per pass: the vertex nearest the segment's first end
+        d = np.linalg.norm(p[vi] - p[seg[si, 0]], axis=1)
+        order = np.lexsort((d, si))
+        si, vi = si[order], vi[order]
+        first = np.r_[True, si[1:] != si[:-1]]
+        si, vi = si[first], vi[first]
+        keep = np.ones(len(seg), bool)
+        keep[si] = False
+        seg = np.vstack([seg[keep], np.column_stack([seg[si, 0], vi]),
+                         np.column_stack([vi, seg[si, 1]])])
+        seg = np.unique(np.sort(seg, axis=1), axis=0)
+    return seg
 
 
 def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.ndarray,
@@ -335,16 +361,31 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, acros
     return nodes[used], renumber[tris], renumber[segs], region
 
 
-def boundary_edges(elements: np.ndarray) -> np.ndarray:
-    """Boundary edges of a six-node mesh as rows (corner a, corner b, mid-side node)."""
+def boundary_edges(elements: np.ndarray, region: np.ndarray | None = None) -> np.ndarray:
+    """Boundary edges of a six-node mesh as rows (corner a, corner b, mid-side node).
+
+    With ``region`` (element region indices), edges between two regions are included once.
+    """
     local = np.array([[0, 1, 3], [1, 2, 4], [2, 0, 5]])
     edges = elements[:, local].reshape(-1, 3)
     key = np.sort(edges[:, :2], axis=1)
     _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
-    return edges[counts[inverse.reshape(-1)] == 1]
+    inverse = inverse.reshape(-1)
+    pick = counts[inverse] == 1
+    if region is not None:
+        owner = np.repeat(region, 3)
+        lo = np.full(len(counts), np.iinfo(np.int64).max)
+        np.minimum.at(lo, inverse, owner)
+        hi = np.full(len(counts), -1)
+        np.maximum.at(hi, inverse, owner)
+        first = np.zeros(len(edges), bool)
+        first[np.unique(inverse, return_index=True)[1]] = True
+        pick |= (lo[inverse] != hi[inverse]) & first
+    return edges[pick]
 
 
-def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...]) -> np.ndarray:
+def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...],
+                region: np.ndarray | None = None) -> np.ndarray:
     """Move boundary nodes that approximate a circular arc onto the arc itself.
 
     Corner nodes of boundary edges lying on the arc's chords (no deeper inside the circle than
@@ -370,7 +411,7 @@ def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...]) 
     if not arcs:
         return nodes
     nodes = nodes.copy()
-    bnd = boundary_edges(elements)
+    bnd = boundary_edges(elements, region)
     corners = np.unique(bnd[:, :2])
     owner = np.full(len(nodes), -1)
     for k, arc in enumerate(arcs):
@@ -473,7 +514,7 @@ def _quadratic_mesh(tri: Triangulation, region: np.ndarray, h: float) -> Mesh:
     region = np.asarray(tri.origin, dtype=np.int64)[region]
     for axis in tri.axes:
         nodes6, elems6, region = mirror_mesh(nodes6, elems6, region, axis, 1e-9 * profile.size)
-    nodes6 = follow_arcs(nodes6, elems6, profile.arcs)
+    nodes6 = follow_arcs(nodes6, elems6, profile.arcs, region)
     return Mesh(nodes6, elems6, region, h, tri)
 
 

@@ -132,8 +132,8 @@ def _moduli(
     return wel, fib
 
 
-def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray) -> tuple[
-        GeometricProperties, ElementValues]:
+def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
+                         weight: np.ndarray | None = None) -> tuple[GeometricProperties, ElementValues]:
     """Area, centroid, second moments, principal axes, moduli and radii of gyration.
 
     Parameters
@@ -144,6 +144,9 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray) -> t
         Basis values with coordinates relative to ``origin``.
     origin : numpy.ndarray
         The origin used for ``ev``, drawing coordinates, L.
+    weight : numpy.ndarray, optional
+        Element-wise modulus ratio E / E_ref (m,): the properties are then those of the
+        transformed section (modulus-weighted, about the modulus-weighted centroid).
 
     Returns
     -------
@@ -155,11 +158,12 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray) -> t
     """
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     one = np.ones_like(x)
-    A = integrate(ev, one)
-    cx, cy = integrate(ev, x) / A, integrate(ev, y) / A
+    A = integrate(ev, one, weight)
+    cx, cy = integrate(ev, x, weight) / A, integrate(ev, y, weight) / A
     evc = replace(ev, xy=ev.xy - np.array([cx, cy]))
     x, y = evc.xy[..., 0], evc.xy[..., 1]
-    Ix, Iy, Ixy = integrate(evc, y * y), integrate(evc, x * x), integrate(evc, x * y)
+    Ix, Iy = integrate(evc, y * y, weight), integrate(evc, x * x, weight)
+    Ixy = integrate(evc, x * y, weight)
     if abs(Ixy) < 1e-13 * (Ix + Iy):  # round-off of a symmetric section
         Ixy = 0.0
     mean, half = 0.5 * (Ix + Iy), 0.5 * (Ix - Iy)
@@ -198,7 +202,7 @@ def zero_mean(mesh: Mesh, evc: ElementValues, nodal: np.ndarray, area: float,
 
 def torsion_properties(
     mesh: Mesh, evc: ElementValues, geo: GeometricProperties, solver: PinnedSolver,
-    load: np.ndarray,
+    load: np.ndarray, wE: np.ndarray | None = None, wG: np.ndarray | None = None,
 ) -> TorsionProperties:
     """J, warping function, Trefftz shear centre and warping constant.
 
@@ -209,41 +213,44 @@ def torsion_properties(
     evc : ElementValues
         Basis values in centroidal coordinates.
     geo : GeometricProperties
-        Geometric properties of the same mesh.
+        Geometric properties of the same mesh (modulus-weighted for a composite section).
     solver : PinnedSolver
-        Factorised stiffness matrix.
+        Factorised stiffness matrix (shear-modulus weighted for a composite section).
     load : numpy.ndarray
         Torsion right-hand side from :func:`torsion_load`.
+    wE, wG : numpy.ndarray, optional
+        Element modulus ratios E / E_ref and G / G_ref (m,) of a composite section; J is then
+        GJ / G_ref and Cw is int E omega^2 dA / E_ref, omega orthogonal to E, E x and E y.
 
     Returns
     -------
     TorsionProperties
-
     """
     psi = solver.solve(load)
     residual = solver.residual(psi, load)
-    psi = zero_mean(mesh, evc, psi, geo.A)
-    J = geo.Ix + geo.Iy - float(psi @ load)
+    psi = zero_mean(mesh, evc, psi, geo.A, wE)
     x, y = evc.xy[..., 0], evc.xy[..., 1]
+    Ip_G = integrate(evc, x * x + y * y, wG)
+    J = Ip_G - float(psi @ load)
     psi_q = interpolate(mesh, evc, psi)
-    Ipx, Ipy = integrate(evc, psi_q * x), integrate(evc, psi_q * y)
+    Ipx, Ipy = integrate(evc, psi_q * x, wE), integrate(evc, psi_q * y, wE)
     # Trefftz: omega = psi - y0 x + x0 y is orthogonal to x and y
     det = geo.Ix * geo.Iy - geo.Ixy**2
     x0 = (geo.Ixy * Ipx - geo.Iy * Ipy) / det
     y0 = (geo.Ix * Ipx - geo.Ixy * Ipy) / det
     local = mesh.nodes - np.array(geo.centroid)
     omega = psi - y0 * local[:, 0] + x0 * local[:, 1]
-    omega = zero_mean(mesh, evc, omega, geo.A)
-    Cw = integrate(evc, interpolate(mesh, evc, omega) ** 2)
+    omega = zero_mean(mesh, evc, omega, geo.A, wE)
+    Cw = integrate(evc, interpolate(mesh, evc, omega) ** 2, wE)
     centre = (geo.centroid[0] + x0, geo.centroid[1] + y0)
-    beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0))
+    beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0), wE)
     return TorsionProperties(J=J, psi=psi, shear_centre=centre, Cw=Cw, omega=omega,
                              omega_max=float(np.abs(omega).max()), beta_1=beta_1, beta_2=beta_2,
                              residual=residual)
 
 
 def wagner_constants(evc: ElementValues, geo: GeometricProperties,
-                     centre: tuple[float, float]) -> tuple[float, float]:
+                     centre: tuple[float, float], wE: np.ndarray | None = None) -> tuple[float, float]:
     """Mono-symmetry (Wagner) constants about principal axes 1 and 2, L.
 
     Parameters
@@ -254,6 +261,8 @@ def wagner_constants(evc: ElementValues, geo: GeometricProperties,
         Geometric properties (principal axes).
     centre : (float, float)
         Shear centre relative to the centroid, L.
+    wE : numpy.ndarray, optional
+        Element modulus ratios of a composite section (m,).
 
     Returns
     -------
@@ -267,8 +276,8 @@ def wagner_constants(evc: ElementValues, geo: GeometricProperties,
     u, v = x * c + y * s, -x * s + y * c
     us, vs = centre[0] * c + centre[1] * s, -centre[0] * s + centre[1] * c
     r2 = u * u + v * v
-    beta_1 = integrate(evc, v * r2) / geo.I1 - 2.0 * vs
-    beta_2 = integrate(evc, u * r2) / geo.I2 - 2.0 * us
+    beta_1 = integrate(evc, v * r2, wE) / geo.I1 - 2.0 * vs
+    beta_2 = integrate(evc, u * r2, wE) / geo.I2 - 2.0 * us
     return float(beta_1), float(beta_2)
 
 

@@ -24,6 +24,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .fem import ElementValues, integrate, nodal_gradient
+from .materials import ElementMaterials
 from .mesh import Mesh
 from .section import GeometricProperties
 from .solve import PinnedSolver
@@ -75,10 +76,16 @@ class ShearProperties:
     residual: float
 
 
-def _h_field(xy: np.ndarray, a: float, b: float, nu: float) -> np.ndarray:
-    """The field h of the shear-stress split at points (..., 2), centroidal coordinates."""
+def _h_field(xy: np.ndarray, a: float, b: float, c: np.ndarray | float) -> np.ndarray:
+    """The field h of the shear-stress split at points (..., 2), centroidal coordinates.
+
+    ``c`` is nu / (2 (1 + nu)) for one material, nu G_ref / E_ref per element (broadcast over the
+    trailing point axis) for a composite section.
+    """
     x, y = xy[..., 0], xy[..., 1]
-    c = nu / (2.0 * (1.0 + nu))
+    c = np.asarray(c, dtype=float)
+    if c.ndim == 1 and x.ndim == 2:
+        c = c[:, None]
     hx = c * (a * 0.5 * (x * x - y * y) + b * x * y)
     hy = c * (a * x * y + b * 0.5 * (y * y - x * x))
     return np.stack([hx, hy], axis=-1)
@@ -90,8 +97,8 @@ def _unit_loads(geo: GeometricProperties) -> np.ndarray:
     return np.array([[geo.Ix, -geo.Ixy], [-geo.Ixy, geo.Iy]]) / D
 
 
-def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties, nu: float,
-                weight: np.ndarray | None = None) -> np.ndarray:
+def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
+                mats: ElementMaterials) -> np.ndarray:
     """Right-hand sides (n, 2) of the shear functions for a unit Vx and a unit Vy, 1/L.
 
     Parameters
@@ -101,20 +108,23 @@ def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties, nu: fl
     evc : ElementValues
         Basis values in centroidal coordinates.
     geo : GeometricProperties
-        Geometric properties (Ix, Iy, Ixy).
-    nu : float
-        Poisson's ratio.
-    weight : numpy.ndarray, optional
-        Element-wise weight (m,) for composite sections.
+        Geometric properties (Ix, Iy, Ixy), modulus-weighted for a composite section.
+    mats : ElementMaterials
+        Element material data (E, G ratios and the split coefficient c).
+
+    Notes
+    -----
+    f_i = int (G grad N_i . h + E N_i (a x + b y)) dA with the ratios G, E of each element.
     """
-    w = evc.dA if weight is None else evc.dA * weight[:, None]
     idx = mesh.elements.ravel()
+    wG = evc.dA * mats.G[:, None]
+    wE = evc.dA * mats.E[:, None]
     out = []
     for a, b in _unit_loads(geo):
-        h = _h_field(evc.xy, a, b, nu)
+        h = _h_field(evc.xy, a, b, mats.c)
         lin = a * evc.xy[..., 0] + b * evc.xy[..., 1]
-        local = np.einsum("mq,mqki,mqi->mk", w, evc.grad, h) + np.einsum(
-            "mq,qk->mk", w * lin, evc.N)
+        local = np.einsum("mq,mqki,mqi->mk", wG, evc.grad, h) + np.einsum(
+            "mq,qk->mk", wE * lin, evc.N)
         out.append(np.bincount(idx, weights=local.ravel(), minlength=mesh.n_nodes))
     return np.column_stack(out)
 
@@ -142,11 +152,12 @@ def shear_stress_at_nodes(mesh: Mesh, geo: GeometricProperties, shear: ShearProp
     local = mesh.nodes - np.array(geo.centroid)
     theta = vx * shear.theta_x + vy * shear.theta_y
     ab = vx * _unit_loads(geo)[0] + vy * _unit_loads(geo)[1]
-    return nodal_gradient(mesh, theta) - _h_field(local, ab[0], ab[1], shear.poisson)
+    c = shear.poisson / (2.0 * (1.0 + shear.poisson))
+    return nodal_gradient(mesh, theta) - _h_field(local, ab[0], ab[1], c)
 
 
 def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
-                     solver: PinnedSolver, nu: float) -> ShearProperties:
+                     solver: PinnedSolver, mats: ElementMaterials) -> ShearProperties:
     """Solve both shear functions with the factorised stiffness and derive shear properties.
 
     Parameters
@@ -156,24 +167,25 @@ def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     evc : ElementValues
         Basis values in centroidal coordinates.
     geo : GeometricProperties
-        Geometric properties.
+        Geometric properties (modulus-weighted for a composite section).
     solver : PinnedSolver
         The factorisation already used for the warping function.
-    nu : float
-        Poisson's ratio, in (-1, 0.5).
+    mats : ElementMaterials
+        Element material data; for a composite section the shear areas are referred to G_ref.
 
     Returns
     -------
     ShearProperties
     """
-    loads = shear_loads(mesh, evc, geo, nu)
+    loads = shear_loads(mesh, evc, geo, mats)
     theta = solver.solve(loads)
     residual = max(solver.residual(theta[:, k], loads[:, k]) for k in range(2))
     stresses = []
     for k, (a, b) in enumerate(_unit_loads(geo)):
         grad = np.einsum("mk,mqki->mqi", theta[:, k][mesh.elements], evc.grad)
-        stresses.append(grad - _h_field(evc.xy, a, b, nu))
-    C = np.array([[integrate(evc, np.einsum("mqi,mqi->mq", si, sj)) for sj in stresses]
+        stresses.append(mats.G[:, None, None] * (grad - _h_field(evc.xy, a, b, mats.c)))
+    inv_g = 1.0 / mats.G
+    C = np.array([[integrate(evc, np.einsum("mqi,mqi->mq", si, sj), inv_g) for sj in stresses]
                   for si in stresses])
     x, y = evc.xy[..., 0], evc.xy[..., 1]
     torque = [integrate(evc, x * s[..., 1] - y * s[..., 0]) for s in stresses]
@@ -185,8 +197,9 @@ def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     c11 = float(R[0] @ C @ R[0])
     c22 = float(R[1] @ C @ R[1])
     A = geo.A
+    nu = float(mats.nu[0]) if not mats.composite else float("nan")
     return ShearProperties(
-        poisson=float(nu), theta_x=theta[:, 0], theta_y=theta[:, 1],
+        poisson=nu, theta_x=theta[:, 0], theta_y=theta[:, 1],
         shear_centre=(float(centre[0]), float(centre[1])), flexibility=C,
         As_x=1.0 / C[0, 0], As_y=1.0 / C[1, 1], kappa_x=1.0 / (A * C[0, 0]),
         kappa_y=1.0 / (A * C[1, 1]), As_1=1.0 / c11, As_2=1.0 / c22,

@@ -1,0 +1,294 @@
+"""Materials: elastic constants, strength and density, a small built-in table and TOML tables.
+
+Units: moduli and strengths in MPa (N/mm^2), density in kg/m^3. With another length unit the
+moduli must be given in the matching force/length^2 unit (Pa with m, psi with inches).
+
+The built-in values are generic nominal values for design with the sources named beside each;
+they are no substitute for the values of the product standard or the supplier's certificate.
+
+Examples
+--------
+>>> m = builtin_material("steel-S355")
+>>> m.E, m.G, m.fy
+(210000.0, 81000.0, 355.0)
+"""
+
+from __future__ import annotations
+
+import sys
+from collections.abc import Mapping
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+
+from .errors import InputFileError, UsageError
+
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover - Python 3.10
+    import tomli as tomllib
+
+
+@dataclass(frozen=True)
+class Material:
+    """An isotropic linear-elastic material.
+
+    Attributes
+    ----------
+    name : str
+        Name used in outlines (``material: NAME``), layer maps and reports.
+    E : float
+        Young's modulus, MPa.
+    nu : float
+        Poisson's ratio.
+    G : float
+        Shear modulus, MPa (E / (2 (1 + nu)) unless given).
+    fy : float or None
+        Yield or 0.2% proof strength, MPa.
+    density : float or None
+        Density, kg/m^3.
+    source : str
+        Where the values come from.
+    """
+
+    name: str
+    E: float
+    nu: float
+    G: float
+    fy: float | None = None
+    density: float | None = None
+    source: str = ""
+
+
+def make_material(name: str, E: float, nu: float | None = None, G: float | None = None,
+                  fy: float | None = None, density: float | None = None, source: str = "",
+                  where: str | None = None) -> Material:
+    """Build a checked Material; G from E and nu when not given (MPa, kg/m^3).
+
+    Raises
+    ------
+    UsageError
+        For missing or out-of-range values (``where`` names the file or table).
+    """
+    def bad(msg: str) -> UsageError:
+        return UsageError(f"material {name!r}: {msg}", file=where)
+
+    try:
+        E = float(E)
+        nu = None if nu is None else float(nu)
+        G = None if G is None else float(G)
+        fy = None if fy is None else float(fy)
+        density = None if density is None else float(density)
+    except (TypeError, ValueError):
+        raise bad("values must be numbers") from None
+    if not E > 0 or E != E:
+        raise bad(f"E must be positive, got {E}")
+    if nu is None and G is None:
+        raise bad("give Poisson's ratio nu or the shear modulus G")
+    if G is None:
+        if not -1.0 < nu < 0.5:
+            raise bad(f"Poisson's ratio must lie in (-1, 0.5), got {nu}")
+        G = E / (2.0 * (1.0 + nu))
+    elif nu is None:
+        nu = E / (2.0 * G) - 1.0
+    if not G > 0:
+        raise bad(f"G must be positive, got {G}")
+    if not -1.0 < nu < 0.5:
+        raise bad(f"E and G give Poisson's ratio {nu:.3f}, outside (-1, 0.5)")
+    if fy is not None and not fy > 0:
+        raise bad(f"fy must be positive, got {fy}")
+    if density is not None and not density > 0:
+        raise bad(f"density must be positive, got {density}")
+    return Material(name, E, nu, G, fy, density, source)
+
+
+_EN1999 = "EN 1999-1-1:2007, 3.2.5 (E, G, nu, density) and Table 3.2b (f0.2, extrusions, from memory)"
+_EN1993 = "EN 1993-1-1:2005, 3.2.6 (E, G, nu) and Table 3.1 (fy, t <= 40 mm); density 7850"
+
+#: Built-in generic materials (name -> Material). Strengths are nominal minimum values for thin
+#: extruded or rolled products; check the product standard for the actual thickness range.
+BUILTIN: dict[str, Material] = {m.name: m for m in (
+    make_material("aluminium-6060-T6", 70000.0, G=27000.0, fy=140.0, density=2700.0,
+                  source=_EN1999 + ", t <= 3 mm"),
+    make_material("aluminium-6063-T6", 70000.0, G=27000.0, fy=170.0, density=2700.0,
+                  source=_EN1999 + ", t <= 10 mm"),
+    make_material("aluminium-6082-T6", 70000.0, G=27000.0, fy=250.0, density=2700.0,
+                  source=_EN1999 + ", t <= 5 mm"),
+    make_material("steel-S235", 210000.0, G=81000.0, fy=235.0, density=7850.0, source=_EN1993),
+    make_material("steel-S355", 210000.0, G=81000.0, fy=355.0, density=7850.0, source=_EN1993),
+    make_material("stainless-1.4301", 200000.0, nu=0.3, fy=210.0, density=7900.0,
+                  source="EN 1993-1-4:2006, 2.1 (E, from memory) and Table 2.1 (hot-rolled "
+                         "plate, from memory); density 7900 (EN 10088-1, from memory)"),
+    make_material("polyamide-PA66-GF25", 4500.0, nu=0.35, fy=None, density=1300.0,
+                  source="typical value for glass-fibre polyamide thermal-break strips, dry "
+                         "(from memory; take the supplier's value)"),
+)}
+
+
+def builtin_material(name: str) -> Material:
+    """A built-in material by name.
+
+    Raises
+    ------
+    UsageError
+        For an unknown name (the message lists the known ones).
+    """
+    try:
+        return BUILTIN[name]
+    except KeyError:
+        raise UsageError(f"unknown material {name!r} (built in: {', '.join(BUILTIN)}; "
+                         "or give a table with --materials FILE.toml)") from None
+
+
+def read_materials(path: str | Path) -> dict[str, Material]:
+    """Read a TOML materials table: ``[materials.NAME]`` with E, nu or G, fy, density.
+
+    Parameters
+    ----------
+    path : str or Path
+        TOML file.
+
+    Returns
+    -------
+    dict of str to Material
+    """
+    p = Path(path)
+    if not p.is_file():
+        raise InputFileError("materials file not found", file=str(path))
+    try:
+        data = tomllib.loads(p.read_text(encoding="utf-8"))
+    except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
+        raise InputFileError(f"not a valid TOML materials table ({exc})", file=str(path)) from None
+    table = data.get("materials")
+    if not isinstance(table, dict) or not table:
+        raise InputFileError("no [materials.NAME] tables found", file=str(path))
+    out = {}
+    for name, v in table.items():
+        if not isinstance(v, dict):
+            raise InputFileError(f"[materials.{name}] must be a table", file=str(path))
+        unknown = set(v) - {"E", "nu", "G", "fy", "density", "source"}
+        if unknown:
+            raise InputFileError(f"[materials.{name}] has unknown keys {sorted(unknown)}",
+                                 file=str(path))
+        if "E" not in v:
+            raise InputFileError(f"[materials.{name}] needs E (MPa)", file=str(path))
+        out[name] = make_material(name, v["E"], v.get("nu"), v.get("G"), v.get("fy"),
+                                  v.get("density"), str(v.get("source", str(path))), where=str(path))
+    return out
+
+
+def resolve(names: list[str | None], table: Mapping[str, Material] | None = None,
+            default: str | None = None, source: str | None = None) -> list[Material] | None:
+    """Materials for region material names, from a user table or the built-in one.
+
+    Parameters
+    ----------
+    names : list of (str or None)
+        Material name of each region (None: the profile's single material).
+    table : mapping, optional
+        User materials by name (searched first).
+    default : str, optional
+        Material for regions without a name (``--material``).
+    source : str, optional
+        File named in messages.
+
+    Returns
+    -------
+    list of Material, or None when no material is known at all (geometry only).
+    """
+    if all(n is None for n in names) and default is None:
+        return None
+    out = []
+    for n in names:
+        key = n if n is not None else default
+        if key is None:
+            raise UsageError("some regions have no material; give --material NAME", file=source)
+        if table and key in table:
+            out.append(table[key])
+        else:
+            out.append(builtin_material(key))
+    return out
+
+
+@dataclass(frozen=True, eq=False)
+class ElementMaterials:
+    """Material data per element, relative to a reference material.
+
+    Attributes
+    ----------
+    E, G : numpy.ndarray
+        Element moduli over the reference E_ref and G_ref (m,); ones for one material.
+    c : numpy.ndarray
+        Coefficient of the shear-function split per element, nu G_ref / E_ref (m,); for one
+        material nu / (2 (1 + nu)).
+    nu : numpy.ndarray
+        Poisson's ratio per element (m,).
+    E_ref, G_ref : float or None
+        Reference moduli, MPa; None for geometry only (no material given).
+    materials : tuple of Material
+        The material of each region (empty for geometry only).
+    group : numpy.ndarray
+        Index (m,) of each element's material in ``names``.
+    names : tuple of str
+        Distinct material names in ``group`` order ("" for geometry only).
+    reference : str
+        Name of the reference material ("" for geometry only).
+    """
+
+    E: np.ndarray
+    G: np.ndarray
+    c: np.ndarray
+    nu: np.ndarray
+    E_ref: float | None
+    G_ref: float | None
+    materials: tuple[Material, ...]
+    group: np.ndarray
+    names: tuple[str, ...]
+    reference: str
+
+    @property
+    def composite(self) -> bool:
+        """True when the elements do not all share one material."""
+        return len(self.names) > 1
+
+    @classmethod
+    def single(cls, n_elements: int, nu: float, material: Material | None = None) -> ElementMaterials:
+        """One material (or geometry only with Poisson's ratio ``nu``) for every element."""
+        if material is not None:
+            nu = material.nu
+        ones = np.ones(n_elements)
+        return cls(ones, ones, np.full(n_elements, nu / (2.0 * (1.0 + nu))), np.full(n_elements, nu),
+                   None if material is None else material.E,
+                   None if material is None else material.G,
+                   () if material is None else (material,), np.zeros(n_elements, dtype=np.int64),
+                   ("" if material is None else material.name,),
+                   "" if material is None else material.name)
+
+    @classmethod
+    def from_regions(cls, region: np.ndarray, materials: list[Material],
+                     reference: str | None = None) -> ElementMaterials:
+        """Per-element data from the region index of each element and each region's material.
+
+        Parameters
+        ----------
+        region : numpy.ndarray
+            Region index (m,) of each element.
+        materials : list of Material
+            Material of each region.
+        reference : str, optional
+            Reference material name; default the material of the first region.
+        """
+        names = tuple(dict.fromkeys(m.name for m in materials))
+        by_name = {m.name: m for m in materials}
+        ref = by_name[names[0]] if reference is None else by_name.get(reference)
+        if ref is None:
+            ref = builtin_material(reference)
+        region_group = np.array([names.index(m.name) for m in materials], dtype=np.int64)
+        group = region_group[region]
+        mats = [by_name[n] for n in names]
+        E = np.array([m.E for m in mats])[group] / ref.E
+        G = np.array([m.G for m in mats])[group] / ref.G
+        nu = np.array([m.nu for m in mats])[group]
+        return cls(E, G, nu * ref.G / ref.E, nu, ref.E, ref.G, tuple(materials), group, names,
+                   ref.name)
