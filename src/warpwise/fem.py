@@ -172,8 +172,90 @@ def assemble_vector(mesh: Mesh, local: np.ndarray) -> np.ndarray:
     )
 
 
-def stiffness_matrix(mesh: Mesh, ev: ElementValues, coefficient: np.ndarray | None = None) -> sp.csr_matrix:
+#: A mid-side node counts as on its chord (element straight-sided) when it lies within this
+#: many units of round-off (machine epsilon times the element's coordinate magnitude) of the
+#: chord midpoint; the mesher computes it as 0.5 * (a + b), exact to 1 ulp.
+STRAIGHT_TOLERANCE_ULPS = 16.0
+
+#: Local (row, column) pairs k <= l of the 6 x 6 element matrix, and where each of the 36
+#: entries finds its value among them (symmetry by construction, not by round-off).
+_UPPER = np.triu_indices(6)
+_FROM_UPPER = np.empty((6, 6), dtype=np.intp)
+_FROM_UPPER[_UPPER] = np.arange(len(_UPPER[0]))
+_FROM_UPPER[_UPPER[::-1]] = np.arange(len(_UPPER[0]))
+_FROM_UPPER = _FROM_UPPER.ravel()
+
+
+def _straight_sided(X: np.ndarray) -> np.ndarray:
+    """Mask (m,) of elements (node coordinates X, (m, 6, 2)) with mid-side nodes on the chords.
+
+    Such elements have a constant Jacobian; the others are curved (isoparametric).
+    """
+    corners = X[:, :3]
+    off = X[:, 3:] - 0.5 * (corners + np.roll(corners, -1, axis=1))  # edges (0,1), (1,2), (2,0)
+    off = np.abs(off).reshape(len(X), -1).max(axis=1)
+    scale = np.abs(X).reshape(len(X), -1).max(axis=1)
+    return off <= STRAIGHT_TOLERANCE_ULPS * np.finfo(float).eps * scale
+
+
+def _reference_products(ev: ElementValues) -> np.ndarray:
+    """Products of reference derivatives at the quadrature points of ``ev``, (3 q, 21).
+
+    Row ``3 p + t`` holds, for the local pairs k <= l, ``a_k b_l`` (t = 0: xi xi, t = 1:
+    eta eta) and ``a_k b_l + b_k a_l`` (t = 2) with a = dN/dxi, b = dN/deta at point p.
+    The points are read back from ``ev.N`` (P2 reproduces linear fields exactly).
+    """
+    _, dN = shape_functions(ev.N @ NODE_POINTS)
+    a, b = dN[:, :, 0], dN[:, :, 1]
+    k, l = _UPPER
+    prod = np.stack([a[:, k] * a[:, l], b[:, k] * b[:, l], a[:, k] * b[:, l] + b[:, k] * a[:, l]],
+                    axis=1)  # (q, 3, 21)
+    return prod.reshape(-1, len(k))
+
+
+def _local_stiffness_straight(corners: np.ndarray, w: np.ndarray, ev: ElementValues) -> np.ndarray:
+    """Upper triangles (m, 21) of straight-sided element matrices, by one matrix product.
+
+    With a constant Jacobian J, grad N_k = J^-T (dN_k/dxi, dN_k/deta), so
+    ke_kl = sum_p w_p (dN_k)^T B (dN_l) with B = J^-1 J^-T = adj(J) adj(J)^T / det(J)^2
+    (three distinct entries). Hence ke = C @ R with C (m, 3 q) = w_p * B_t and R the
+    reference products: no per-point gradients needed.
+    """
+    X = corners  # (m, 3, 2)
+    j00, j10 = (X[:, 1] - X[:, 0]).T  # d(x, y)/dxi
+    j01, j11 = (X[:, 2] - X[:, 0]).T  # d(x, y)/deta
+    det = j00 * j11 - j01 * j10
+    inv_det2 = 1.0 / (det * det)
+    B = np.stack([(j11 * j11 + j01 * j01) * inv_det2, (j10 * j10 + j00 * j00) * inv_det2,
+                  -(j11 * j10 + j01 * j00) * inv_det2], axis=1)  # (m, 3)
+    C = (w[:, :, None] * B[:, None, :]).reshape(len(X), -1)
+    return C @ _reference_products(ev)
+
+
+def _local_stiffness_general(grad: np.ndarray, w: np.ndarray, block: int = 16384) -> np.ndarray:
+    """Upper triangles (c, 21) of element matrices from gradients at the points (curved).
+
+    Works in blocks of elements to bound the (block, q, 21) temporaries.
+    """
+    k, l = _UPPER
+    out = np.empty((len(w), len(k)))
+    for s in range(0, len(w), block):
+        g = grad[s:s + block]
+        out[s:s + block] = np.einsum("cq,cqk->ck", w[s:s + block],
+                                     g[:, :, k, 0] * g[:, :, l, 0] + g[:, :, k, 1] * g[:, :, l, 1])
+    return out
+
+
+def stiffness_matrix(mesh: Mesh, ev: ElementValues,
+                     coefficient: np.ndarray | None = None) -> sp.csr_matrix:
     """Global matrix of the form integral of c grad(u) . grad(v) dA, symmetric, CSR.
+
+    Straight-sided elements (constant Jacobian, mid-side nodes on their chords) get their element
+    matrices from one dense product over all elements; curved (isoparametric) elements use
+    the gradients at the quadrature points of ``ev``. Both apply the quadrature of ``ev``
+    (which integrates the degree-2 integrand of a straight P2 element exactly), so the two
+    ways agree to round-off on straight elements. Element matrices are symmetric bit for bit,
+    and so is the result (two distinct nodes share at most two elements, and a + b = b + a).
 
     Parameters
     ----------
@@ -189,29 +271,44 @@ def stiffness_matrix(mesh: Mesh, ev: ElementValues, coefficient: np.ndarray | No
     scipy.sparse.csr_matrix
         (n, n) matrix, drawing unit**0 (dimensionless for c = 1).
 
+    Examples
+    --------
+    >>> from warpwise.shapes import rectangle
+    >>> from warpwise.mesh import build_mesh
+    >>> mesh = build_mesh(rectangle(2.0, 1.0), size=0.5)
+    >>> K = stiffness_matrix(mesh, element_values(mesh))
+    >>> float(abs(K @ np.ones(mesh.n_nodes)).max()) < 1e-12, float(abs(K - K.T).max())
+    (True, 0.0)
+
     """
-    w = ev.dA if coefficient is None else ev.dA * coefficient[:, None]
-    gx = ev.grad[..., 0]
-    gy = ev.grad[..., 1]
-    m = mesh.n_elements
-    ke = np.empty((m, 6, 6))
-    for k in range(6):
-        wx = w * gx[:, :, k]
-        wy = w * gy[:, :, k]
-        for j in range(k, 6):
-            v = np.einsum("mq,mq->m", wx, gx[:, :, j]) + np.einsum("mq,mq->m", wy, gy[:, :, j])
-            ke[:, k, j] = v
-            ke[:, j, k] = v
+    w = ev.dA if coefficient is None else ev.dA * np.asarray(coefficient, dtype=float)[:, None]
+    X = mesh.nodes[mesh.elements]
+    straight = _straight_sided(X)
+    if straight.all():
+        upper = _local_stiffness_straight(X[:, :3], w, ev)
+    else:
+        upper = np.empty((mesh.n_elements, len(_UPPER[0])))
+        curved = ~straight
+        upper[curved] = _local_stiffness_general(ev.grad[curved], w[curved])
+        if straight.any():
+            upper[straight] = _local_stiffness_straight(X[straight, :3], w[straight], ev)
+    ke = np.take(upper, _FROM_UPPER, axis=1)
+    del X, upper, w  # release before the triplets are built (peak memory)
     return sparse_from_local(mesh, ke)
 
 
 def sparse_from_local(mesh: Mesh, ke: np.ndarray) -> sp.csr_matrix:
-    """Build a CSR matrix from element matrices (m, 6, 6) by summing COO triplets."""
+    """Build a CSR matrix from element matrices (m, 6, 6) or (m, 36) by summing COO triplets.
+
+    Indices are 32-bit when the node count allows (what scipy would convert them to anyway),
+    so the triplets cost half the memory and no conversion pass.
+    """
+    n = mesh.n_nodes
     e = mesh.elements
+    e = e.astype(np.int32 if n < np.iinfo(np.int32).max else np.int64, copy=False)
     rows = np.repeat(e, 6, axis=1).ravel()
     cols = np.tile(e, (1, 6)).ravel()
-    n = mesh.n_nodes
-    mat = sp.coo_matrix((ke.ravel(), (rows, cols)), shape=(n, n)).tocsr()
+    mat = sp.csr_matrix((np.ascontiguousarray(ke).reshape(-1), (rows, cols)), shape=(n, n))
     mat.sum_duplicates()
     return mat
 
