@@ -25,6 +25,7 @@ from .fem import ElementValues, element_values, integrate, stiffness_matrix
 from .geometry import Profile
 from .materials import ElementMaterials, Material
 from .mesh import Mesh, build_mesh
+from .plastic import PlasticProperties, plastic_properties
 from .section import (
     GeometricProperties,
     TorsionProperties,
@@ -65,6 +66,8 @@ class SectionResult:
         Torsion and shear results are referred to this centroid.
     materials : ElementMaterials
         Material data per element.
+    plastic : PlasticProperties or None
+        Plastic moduli, neutral axes and moments.
     errors : dict of str to float or None
         Estimated relative errors of the main values (see :mod:`warpwise.accuracy`), when an
         estimate was asked for.
@@ -80,6 +83,7 @@ class SectionResult:
     solver: PinnedSolver
     transformed: GeometricProperties
     materials: ElementMaterials
+    plastic: PlasticProperties | None = None
     errors: dict[str, float] | None = None
 
     @property
@@ -182,4 +186,10 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     if not shear.residual < MAX_RESIDUAL:
         raise AnalysisError(f"shear function solve residual {shear.residual:.2e} is too large",
                             file=profile.source)
-    return SectionResult(profile, mesh, geo, tor, shear, evc, factor, transformed, mats)
+    fy = None
+    if mats.materials:
+        region_mats = (list(mats.materials) if len(mats.materials) == len(profile.regions)
+                       else [mats.materials[0]] * len(profile.regions))
+        fy = [m.fy for m in region_mats]
+    plastic = plastic_properties(profile, geo.alpha_deg, fy)
+    return SectionResult(profile, mesh, geo, tor, shear, evc, factor, transformed, mats, plastic)

@@ -16,7 +16,7 @@ from typing import Any
 
 from ..analysis import SectionResult
 from ..errors import UsageError
-from .quantities import QUANTITIES, unit_of, values
+from .quantities import FORCE_UNITS, QUANTITIES, unit_of, values
 
 #: Columns of estimated relative errors, in this order, when any result has an estimate.
 ERROR_KEYS = ("J", "Cw", "xs", "ys", "Wel_x", "Wel_y", "Wel_1", "Wel_2", "As_x", "As_y")
@@ -64,11 +64,17 @@ def atomic_write(path: str | Path, data: str | bytes) -> None:
 def to_json_object(result: SectionResult) -> dict[str, Any]:
     """JSON object of one result, keys as in the design contract, values in the length unit."""
     v = values(result)
+    force, stress = FORCE_UNITS[result.units]
     obj: dict[str, Any] = {"file": result.profile.source, "units": {"length": result.units}}
+    if result.materials.E_ref is not None:
+        obj["units"].update({"force": force, "stress": stress, "mass": "kg/m"})
+        obj["materials"] = list(result.materials.names)
+        obj["reference_material"] = result.materials.reference
     for q in QUANTITIES:
         if q.key in ("xc", "yc", "xs", "ys", "xse", "yse"):
             continue
-        obj[q.key] = None if v[q.key] != v[q.key] else v[q.key]
+        if v[q.key] == v[q.key]:  # optional quantities (nan) are left out
+            obj[q.key] = v[q.key]
     obj["centroid"] = [v["xc"], v["yc"]]
     obj["shear_centre"] = [v["xs"], v["ys"]]
     obj["shear_centre_elastic"] = [v["xse"], v["yse"]]

@@ -30,6 +30,9 @@ class Quantity:
         Heading the quantity is shown under.
     definition : str
         Definition or formula, for the glossary.
+    kind : str
+        ``length`` (unit L^power), or a force-based unit: ``force`` (N), ``stiffness``
+        (N L^power), ``moment`` (N L), ``stress`` (N/L^2), ``mass`` (kg/m).
 
     """
 
@@ -39,6 +42,7 @@ class Quantity:
     power: int
     group: str
     definition: str
+    kind: str = "length"
 
 
 DEG = -1  # marker: the unit is degrees
@@ -95,6 +99,22 @@ QUANTITIES: tuple[Quantity, ...] = (
              "Torsion and warping", "integral of v (u^2 + v^2) dA / I1 - 2 v_s (u, v along axes 1, 2)"),
     Quantity("beta_2", "beta_2", "Wagner (mono-symmetry) constant, axis 2", 1,
              "Torsion and warping", "integral of u (u^2 + v^2) dA / I2 - 2 u_s"),
+    Quantity("pna_y", "ypl", "height of the horizontal plastic neutral axis", 1, "Plastic",
+             "y of the line parallel to x that halves the area (balances fy A)"),
+    Quantity("pna_x", "xpl", "position of the vertical plastic neutral axis", 1, "Plastic",
+             "x of the line parallel to y that halves the area"),
+    Quantity("Wpl_x", "Wpl,x", "plastic modulus, bending about x", 3, "Plastic",
+             "integral of |y - ypl| dA"),
+    Quantity("Wpl_y", "Wpl,y", "plastic modulus, bending about y", 3, "Plastic",
+             "integral of |x - xpl| dA"),
+    Quantity("Wpl_1", "Wpl,1", "plastic modulus, bending about axis 1", 3, "Plastic",
+             "as Wpl,x with the neutral axis parallel to axis 1"),
+    Quantity("Wpl_2", "Wpl,2", "plastic modulus, bending about axis 2", 3, "Plastic",
+             "as Wpl,x with the neutral axis parallel to axis 2"),
+    Quantity("shape_x", "Wpl/Wel,x", "shape factor about x", 0, "Plastic",
+             "Wpl,x / min(Wel,x+, Wel,x-)"),
+    Quantity("shape_y", "Wpl/Wel,y", "shape factor about y", 0, "Plastic",
+             "Wpl,y / min(Wel,y+, Wel,y-)"),
     Quantity("nu", "nu", "Poisson's ratio used for shear", 0, "Shear",
              "enters the shear functions; from the material, else 0.3"),
     Quantity("xse", "xse", "elastic shear centre, x", 1, "Shear",
@@ -111,13 +131,53 @@ QUANTITIES: tuple[Quantity, ...] = (
              "1 / integral of tau.tau dA for a unit force along axis 1"),
     Quantity("As_2", "As,2", "shear area for a force along axis 2", 2, "Shear",
              "1 / integral of tau.tau dA for a unit force along axis 2"),
+    Quantity("E_ref", "Eref", "Young's modulus of the reference material", 0, "Materials",
+             "transformed properties are referred to this material", "stress"),
+    Quantity("xe", "xe", "modulus-weighted centroid, x", 1, "Materials",
+             "integral of E x dA / EA"),
+    Quantity("ye", "ye", "modulus-weighted centroid, y", 1, "Materials",
+             "integral of E y dA / EA"),
+    Quantity("EA", "EA", "axial stiffness", 0, "Materials", "integral of E dA", "force"),
+    Quantity("EIx", "EIx", "bending stiffness about the x axis", 2, "Materials",
+             "integral of E y^2 dA about the modulus-weighted centroid", "stiffness"),
+    Quantity("EIy", "EIy", "bending stiffness about the y axis", 2, "Materials",
+             "integral of E x^2 dA", "stiffness"),
+    Quantity("EIxy", "EIxy", "product stiffness", 2, "Materials", "integral of E x y dA",
+             "stiffness"),
+    Quantity("EI1", "EI1", "major principal bending stiffness", 2, "Materials",
+             "principal value of the E-weighted second moments", "stiffness"),
+    Quantity("EI2", "EI2", "minor principal bending stiffness", 2, "Materials",
+             "principal value of the E-weighted second moments", "stiffness"),
+    Quantity("GJ", "GJ", "torsional stiffness", 2, "Materials",
+             "G-weighted Saint-Venant torsion: T = GJ theta", "stiffness"),
+    Quantity("ECw", "ECw", "warping stiffness", 4, "Materials",
+             "integral of E omega^2 dA, omega about the shear centre", "stiffness"),
+    Quantity("Mpl_x", "Mpl,x", "plastic moment about x", 1, "Materials",
+             "integral of fy |y - ypl| dA, ypl balancing fy over the section", "moment"),
+    Quantity("Mpl_y", "Mpl,y", "plastic moment about y", 1, "Materials",
+             "integral of fy |x - xpl| dA", "moment"),
+    Quantity("mass", "m", "mass per metre", 0, "Materials", "sum of density x area", "mass"),
 )
 
 QUANTITY_BY_KEY = {q.key: q for q in QUANTITIES}
 
 
+#: Force, moment and stress units that go with each length unit (consistent units).
+FORCE_UNITS = {"mm": ("N", "MPa"), "cm": ("N", "N/cm2"), "m": ("N", "Pa"), "in": ("lbf", "psi")}
+
+
 def unit_of(q: Quantity, length: str) -> str:
     """Unit text of a quantity for a length unit, e.g. ``mm4``; ``deg`` for angles."""
+    force, stress = FORCE_UNITS[length]
+    lp = length if q.power == 1 else f"{length}{q.power}"
+    if q.kind == "force":
+        return force
+    if q.kind == "stress":
+        return stress
+    if q.kind in ("stiffness", "moment"):
+        return f"{force}*{lp}"
+    if q.kind == "mass":
+        return "kg/m"
     if q.power == DEG:
         return "deg"
     if q.power == 0:
@@ -148,11 +208,46 @@ def values(result: SectionResult) -> dict[str, float]:
     for k, v in g.Wel.items():
         if "_" in k:
             out[f"Wel_{k}"] = v
+    nan = float("nan")
+    pl = result.plastic
+    out.update({"pna_y": nan, "pna_x": nan, "Wpl_x": nan, "Wpl_y": nan, "Wpl_1": nan,
+                "Wpl_2": nan, "shape_x": nan, "shape_y": nan})
+    if pl is not None:
+        out.update({"pna_y": pl.pna_y, "pna_x": pl.pna_x, "Wpl_x": pl.Wpl_x, "Wpl_y": pl.Wpl_y,
+                    "Wpl_1": pl.Wpl_1, "Wpl_2": pl.Wpl_2, "shape_x": pl.Wpl_x / g.Wel["x"],
+                    "shape_y": pl.Wpl_y / g.Wel["y"]})
+    out.update(_material_values(result))
     tiny = 1e-12 * result.profile.size  # round-off of a coordinate that is zero
-    for k in ("xc", "yc", "xs", "ys", "xse", "yse", "beta_1", "beta_2"):
+    for k in ("xc", "yc", "xs", "ys", "xse", "yse", "beta_1", "beta_2", "xe", "ye"):
         if abs(out[k]) < tiny:
             out[k] = 0.0
     return {q.key: float(out[q.key]) for q in QUANTITIES}
+
+
+def _material_values(result: SectionResult) -> dict[str, float]:
+    """Modulus-weighted stiffnesses, plastic moments and mass (nan without a material)."""
+    nan = float("nan")
+    keys = ("E_ref", "xe", "ye", "EA", "EIx", "EIy", "EIxy", "EI1", "EI2", "GJ", "ECw",
+            "Mpl_x", "Mpl_y", "mass")
+    m = result.materials
+    if m.E_ref is None:
+        return dict.fromkeys(keys, nan)
+    t, tor, pl = result.transformed, result.torsion, result.plastic
+    E, G = m.E_ref, m.G_ref
+    metre = {"mm": 1e-3, "cm": 1e-2, "m": 1.0, "in": 0.0254}[result.units]
+    regions = result.profile.regions
+    mats = list(m.materials) if len(m.materials) == len(regions) else [m.materials[0]] * len(regions)
+    if all(x.density is not None for x in mats):
+        mass = sum(x.density * r.area * metre**2 for x, r in zip(mats, regions, strict=True))
+    else:
+        mass = nan
+    return {
+        "E_ref": E, "xe": t.centroid[0], "ye": t.centroid[1], "EA": E * t.A, "EIx": E * t.Ix,
+        "EIy": E * t.Iy, "EIxy": E * t.Ixy, "EI1": E * t.I1, "EI2": E * t.I2, "GJ": G * tor.J,
+        "ECw": E * tor.Cw,
+        "Mpl_x": nan if pl is None or pl.Mpl_x is None else pl.Mpl_x,
+        "Mpl_y": nan if pl is None or pl.Mpl_y is None else pl.Mpl_y, "mass": mass,
+    }
 
 
 #: Quantities with an error estimate: key in QUANTITIES -> key in SectionResult.errors.
