@@ -356,7 +356,7 @@ def gradient(mesh: Mesh, ev: ElementValues, nodal: np.ndarray) -> np.ndarray:
 NODE_POINTS = np.array([[0, 0], [1, 0], [0, 1], [0.5, 0], [0.5, 0.5], [0, 0.5]], dtype=float)
 
 
-def nodal_gradient(mesh: Mesh, nodal: np.ndarray) -> np.ndarray:
+def nodal_gradient(mesh: Mesh, nodal: np.ndarray, elements: np.ndarray | None = None) -> np.ndarray:
     """Gradient (n, 2) of a P2 field at the nodes, averaged over the elements meeting there.
 
     The gradient is evaluated at each element's own six nodes and averaged with Jacobian
@@ -368,18 +368,22 @@ def nodal_gradient(mesh: Mesh, nodal: np.ndarray) -> np.ndarray:
         The mesh.
     nodal : numpy.ndarray
         Nodal values (n,), any unit U.
+    elements : numpy.ndarray, optional
+        Boolean mask (m,) of the elements to average over (e.g. one material, so that a
+        gradient that jumps at an interface is not mixed); nodes outside them get nan.
 
     Returns
     -------
     numpy.ndarray
         (n, 2) gradient, U per drawing unit.
-
     """
+    conn = mesh.elements if elements is None else mesh.elements[elements]
     _, dN = shape_functions(NODE_POINTS)
-    grad, det = _physical_gradients(mesh.nodes[mesh.elements], dN)
-    g = np.einsum("mk,mqki->mqi", nodal[mesh.elements], grad)  # (m, 6 nodes, 2)
-    idx = mesh.elements.ravel()
+    grad, det = _physical_gradients(mesh.nodes[conn], dN)
+    g = np.einsum("mk,mqki->mqi", nodal[conn], grad)  # (m, 6 nodes, 2)
+    idx = conn.ravel()
     total = np.bincount(idx, weights=det.ravel(), minlength=mesh.n_nodes)
-    gx = np.bincount(idx, weights=(det * g[..., 0]).ravel(), minlength=mesh.n_nodes) / total
-    gy = np.bincount(idx, weights=(det * g[..., 1]).ravel(), minlength=mesh.n_nodes) / total
+    with np.errstate(invalid="ignore", divide="ignore"):
+        gx = np.bincount(idx, weights=(det * g[..., 0]).ravel(), minlength=mesh.n_nodes) / total
+        gy = np.bincount(idx, weights=(det * g[..., 1]).ravel(), minlength=mesh.n_nodes) / total
     return np.column_stack([gx, gy])
