@@ -16,7 +16,8 @@ from typing import Any
 
 from ..analysis import SectionResult
 from ..errors import UsageError
-from .quantities import FORCE_UNITS, QUANTITIES, unit_of, values
+from .quantities import FORCE_UNITS, QUANTITIES, unit_of
+from .records import Record, record_of
 
 #: Columns of estimated relative errors, in this order, when any result has an estimate.
 ERROR_KEYS = ("J", "Cw", "xs", "ys", "Wel_x", "Wel_y", "Wel_1", "Wel_2", "As_x", "As_y")
@@ -61,34 +62,37 @@ def atomic_write(path: str | Path, data: str | bytes) -> None:
         raise
 
 
-def to_json_object(result: SectionResult) -> dict[str, Any]:
-    """JSON object of one result, keys as in the design contract, values in the length unit."""
-    v = values(result)
-    force, stress = FORCE_UNITS[result.units]
-    obj: dict[str, Any] = {"file": result.profile.source, "units": {"length": result.units}}
-    if result.materials.E_ref is not None:
+def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
+    """JSON object of one result, keys as in the design contract, values in the length unit.
+
+    Quantities that were not computed (nan) are left out.
+    """
+    rec = item if isinstance(item, Record) else record_of(item)
+    v = rec.values
+    force, stress = FORCE_UNITS[rec.units]
+    obj: dict[str, Any] = {"file": rec.source, "units": {"length": rec.units}}
+    if rec.materials:
         obj["units"].update({"force": force, "stress": stress, "mass": "kg/m"})
-        obj["materials"] = list(result.materials.names)
-        obj["reference_material"] = result.materials.reference
+        obj["materials"] = list(rec.materials)
+        obj["reference_material"] = rec.reference
     for q in QUANTITIES:
         if q.key in ("xc", "yc", "xs", "ys", "xse", "yse"):
             continue
-        if v[q.key] == v[q.key]:  # optional quantities (nan) are left out
+        if v[q.key] == v[q.key]:
             obj[q.key] = v[q.key]
     obj["centroid"] = [v["xc"], v["yc"]]
     obj["shear_centre"] = [v["xs"], v["ys"]]
     obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
-    obj["mesh"] = {"nodes": result.mesh.n_nodes, "elements": result.mesh.n_elements,
-                   "size": result.mesh.size}
-    obj["notes"] = list(result.profile.notes)
-    if result.errors is not None:
-        obj["relative_error"] = dict(result.errors)
+    obj["mesh"] = {"nodes": rec.nodes, "elements": rec.elements, "size": rec.mesh_size}
+    obj["notes"] = list(rec.notes)
+    if rec.errors is not None:
+        obj["relative_error"] = dict(rec.errors)
     return obj
 
 
-def json_text(results: list[SectionResult]) -> str:
+def json_text(items: list[SectionResult] | list[Record]) -> str:
     """JSON text: one object for one result, a list for several."""
-    objs = [to_json_object(r) for r in results]
+    objs = [to_json_object(r) for r in items]
     return json.dumps(objs[0] if len(objs) == 1 else objs, indent=2) + "\n"
 
 
@@ -98,23 +102,32 @@ def csv_header(length: str) -> list[str]:
             "mesh nodes (count)", "mesh elements (count)"]
 
 
-def csv_text(results: list[SectionResult]) -> str:
-    """CSV text with one row per result; all results must share one length unit."""
-    units = {r.units for r in results}
-    if len(units) > 1:
-        raise UsageError(f"profiles use different length units ({', '.join(sorted(units))}); "
-                         "give --units to report them in one")
+def csv_text(items: list[SectionResult] | list[Record], units: str | None = None) -> str:
+    """CSV text with one row per profile, in one length unit.
+
+    Parameters
+    ----------
+    items : list of SectionResult or Record
+        The profiles, in row order.
+    units : str, optional
+        Length unit of the table; default the unit of the first profile (others converted).
+    """
+    recs = [r if isinstance(r, Record) else record_of(r) for r in items]
+    if not recs:
+        raise UsageError("no profile to write")
+    length = units or recs[0].units
+    recs = [r.in_units(length) for r in recs]
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
-    with_errors = any(r.errors is not None for r in results)
-    header = csv_header(results[0].units)
+    with_errors = any(r.errors is not None for r in recs)
+    header = csv_header(length)
     if with_errors:
         header += [f"{k} est. rel. error (-)" for k in ERROR_KEYS]
     w.writerow(header)
-    for r in results:
-        v = values(r)
-        row = [r.profile.source, r.units, *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}"
-                                            for q in QUANTITIES], r.mesh.n_nodes, r.mesh.n_elements]
+    for r in recs:
+        v = r.values
+        row = [r.source, r.units, *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}"
+                                    for q in QUANTITIES], r.nodes, r.elements]
         if with_errors:
             row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
         w.writerow(row)
