@@ -74,6 +74,11 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
     def bad(msg: str) -> UsageError:
         return UsageError(f"material {name!r}: {msg}", file=where)
 
+    for label, v in (("E", E), ("nu", nu), ("G", G), ("fy", fy), ("density", density)):
+        if isinstance(v, bool) or (v is not None and not isinstance(v, (int, float, np.floating))):
+            raise bad(f"{label} must be a number, got {v!r}")
+        if v is not None and not np.isfinite(v):
+            raise bad(f"{label} must be a finite number, got {v}")
     try:
         E = float(E)
         nu = None if nu is None else float(nu)
@@ -280,7 +285,11 @@ class ElementMaterials:
             Reference material name; default the material of the first region.
         """
         names = tuple(dict.fromkeys(m.name for m in materials))
-        by_name = {m.name: m for m in materials}
+        by_name: dict[str, Material] = {}
+        for m in materials:
+            if m.name in by_name and by_name[m.name] != m:
+                raise UsageError(f"two different materials are both named {m.name!r}")
+            by_name[m.name] = m
         ref = by_name[names[0]] if reference is None else by_name.get(reference)
         if ref is None:
             ref = builtin_material(reference)

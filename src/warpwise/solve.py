@@ -20,7 +20,7 @@ import scipy.sparse.linalg as spla
 from .errors import AnalysisError, UsageError
 
 #: Unknowns above which PARDISO is used when available.
-DIRECT_LARGE = 30_000
+DIRECT_LARGE = 100_000
 #: Unknowns above which AMG-preconditioned CG replaces SuperLU when PARDISO is missing.
 AMG_LARGE = 300_000
 #: Relative residual at which the iterative method stops.
@@ -30,6 +30,20 @@ METHODS = ("auto", "superlu", "pardiso", "amg")
 
 
 def _pardiso_available() -> bool:
+    """True when pypardiso and its MKL library can be loaded.
+
+    pypardiso searches the whole installation tree for the MKL runtime each time a solver is
+    made (about a second); the pip wheel of MKL puts it in ``sys.prefix/lib``, so point
+    pypardiso there once.
+    """
+    import glob
+    import os
+    import sys
+
+    if "PYPARDISO_MKL_RT" not in os.environ:
+        found = sorted(glob.glob(f"{sys.prefix}/lib/libmkl_rt.so*"), key=len)
+        if found:
+            os.environ["PYPARDISO_MKL_RT"] = found[0]
     try:
         import pypardiso  # noqa: F401
     except (ImportError, OSError):

@@ -9,6 +9,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
+import numpy as np
+
 from ..analysis import SectionResult
 
 
@@ -100,7 +102,7 @@ QUANTITIES: tuple[Quantity, ...] = (
     Quantity("beta_2", "beta_2", "Wagner (mono-symmetry) constant, axis 2", 1,
              "Torsion and warping", "integral of u (u^2 + v^2) dA / I2 - 2 u_s"),
     Quantity("pna_y", "ypl", "height of the horizontal plastic neutral axis", 1, "Plastic",
-             "y of the line parallel to x that halves the area (balances fy A)"),
+             "y of the line parallel to x that halves the area"),
     Quantity("pna_x", "xpl", "position of the vertical plastic neutral axis", 1, "Plastic",
              "x of the line parallel to y that halves the area"),
     Quantity("Wpl_x", "Wpl,x", "plastic modulus, bending about x", 3, "Plastic",
@@ -238,7 +240,10 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     regions = result.profile.regions
     mats = list(m.materials) if len(m.materials) == len(regions) else [m.materials[0]] * len(regions)
     if all(x.density is not None for x in mats):
-        mass = sum(x.density * r.area * metre**2 for x, r in zip(mats, regions, strict=True))
+        # areas of the meshed regions (curved edges included), not of the polygons
+        ev = result.values
+        area = np.bincount(result.mesh.region, weights=ev.dA.sum(axis=1), minlength=len(regions))
+        mass = float(sum(x.density * a * metre**2 for x, a in zip(mats, area, strict=True)))
     else:
         mass = nan
     return {
