@@ -89,6 +89,8 @@ class Outcome:
         Wall time of the analysis, s.
     datasheet : str or None
         Path of its HTML datasheet, when written.
+    thumbnail : str or None
+        Inline SVG of its outline, when datasheets are written.
     """
 
     path: str
@@ -96,6 +98,7 @@ class Outcome:
     error: str | None = None
     seconds: float = 0.0
     datasheet: str | None = None
+    thumbnail: str | None = None
 
     @property
     def ok(self) -> bool:
@@ -127,7 +130,7 @@ def collect_files(items: Iterable[str | Path]) -> list[Path]:
     return out
 
 
-def analyse_one(path: str, options: RunOptions) -> Outcome:
+def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -> Outcome:
     """Read and analyse one file; every user-input error is caught into the outcome.
 
     This is the worker function of a catalogue (picklable, top level).
@@ -153,12 +156,13 @@ def analyse_one(path: str, options: RunOptions) -> Outcome:
                 result = analyse(profile, options.mesh_size, refine=options.refine, **kwargs)
         else:
             result = analyse(profile, options.mesh_size, refine=options.refine, **kwargs)
-        sheet = None
+        sheet = thumb = None
         if options.datasheet_dir:
-            from .report.html import write_datasheet
+            from .report.html import thumbnail_svg, write_datasheet
 
-            sheet = str(write_datasheet(result, options.datasheet_dir))
-        return Outcome(path, record_of(result), None, time.perf_counter() - start, sheet)
+            sheet = str(write_datasheet(result, options.datasheet_dir, filename=sheet_name))
+            thumb = thumbnail_svg(result)
+        return Outcome(path, record_of(result), None, time.perf_counter() - start, sheet, thumb)
     except WarpwiseError as exc:
         return Outcome(path, None, str(exc.with_file(path)), time.perf_counter() - start)
     except MemoryError:
@@ -195,6 +199,11 @@ def run_catalogue(files: Sequence[str | Path], options: RunOptions | None = None
     """
     options = options or RunOptions()
     paths = [str(f) for f in files]
+    names: list[str | None] = [None] * len(paths)
+    if options.datasheet_dir:
+        from .report.html import unique_filenames
+
+        names = list(unique_filenames(paths))
     total = len(paths)
     outcomes: list[Outcome | None] = [None] * total
     done = 0
@@ -208,12 +217,12 @@ def run_catalogue(files: Sequence[str | Path], options: RunOptions | None = None
 
     if executor is None and (jobs == 1 or total <= 1):
         for i, p in enumerate(paths):
-            finished(i, analyse_one(p, options))
+            finished(i, analyse_one(p, options, names[i]))
         return outcomes  # type: ignore[return-value]
     own = executor is None
     pool = executor if executor is not None else ProcessPoolExecutor(max_workers=jobs)
     try:
-        futures = {pool.submit(analyse_one, p, options): i for i, p in enumerate(paths)}
+        futures = {pool.submit(analyse_one, p, options, names[i]): i for i, p in enumerate(paths)}
         from concurrent.futures import as_completed
 
         for fut in as_completed(futures):

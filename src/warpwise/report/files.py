@@ -53,6 +53,10 @@ def atomic_write(path: str | Path, data: str | bytes) -> None:
             fh.write(raw)
             fh.flush()
             os.fsync(fh.fileno())
+        # mkstemp makes the file private; give it the usual permissions (0666 less the umask)
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(tmp, 0o666 & ~umask)
         os.replace(tmp, target)
     except BaseException:
         try:

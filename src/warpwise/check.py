@@ -1,0 +1,428 @@
+"""The report of ``warpwise check``: what a drawing holds and everything wrong with it.
+
+:func:`check_file` reads a drawing the way ``warpwise props`` does, but instead of stopping at
+the first defect it collects all of them: open chains with their free ends and gaps, branch
+points, self-crossing and crossing loops, duplicate and zero-length pieces, entities that could
+not be used, a truncated file. :func:`format_report` prints the findings, and
+:func:`plot_report` draws the outline with every defect marked (matplotlib, Agg backend).
+The verdict (``CheckReport.ok``) is True exactly when the profile can be analysed with the same
+options.
+
+Examples
+--------
+>>> import ezdxf, tempfile, pathlib
+>>> doc = ezdxf.new()
+>>> msp = doc.modelspace()
+>>> _ = msp.add_lwpolyline([(0, 0), (40, 0), (40, 20), (0, 20)])   # not closed
+>>> path = pathlib.Path(tempfile.mkdtemp()) / "open.dxf"
+>>> doc.saveas(path)
+>>> report = check_file(path)
+>>> report.ok, [d.kind for d in report.defects]
+(False, ['open chain'])
+
+"""
+
+from __future__ import annotations
+
+import io
+from collections import Counter
+from collections.abc import Sequence
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+
+from .errors import ProfileError, UsageError
+from .geometry import Profile
+from .io import is_dxf, read_outline
+from .io.chains import ERROR, Defect, fmt, fmt_point, loop_points
+from .io.dxf import DxfProfile, Layout, build_profile, lay_out, read_drawing
+
+#: Repairs made by ezdxf listed one by one in the report (the rest are counted).
+REPAIRS_SHOWN = 5
+
+
+@dataclass(frozen=True)
+class LayerSummary:
+    """What one layer holds.
+
+    Attributes
+    ----------
+    name : str
+        Layer name.
+    loops : int
+        Closed loops on it.
+    open_chains : int
+        Open chains on it.
+    used : bool
+        True when the layer is part of the profile.
+    left_out : bool
+        True when the layer was left out by default because it holds no closed geometry (a
+        layer neither used nor left out was not chosen with ``--layer``).
+    """
+
+    name: str
+    loops: int
+    open_chains: int
+    used: bool
+    left_out: bool = False
+
+
+@dataclass(frozen=True)
+class PartSummary:
+    """One connected part of the section.
+
+    Attributes
+    ----------
+    number : int
+        Part number as ``--part N`` takes it (largest area first).
+    bounds : (float, float, float, float)
+        (xmin, ymin, xmax, ymax), length unit.
+    area : float
+        Area, length unit squared.
+    holes : int
+        Number of holes.
+    """
+
+    number: int
+    bounds: tuple[float, float, float, float]
+    area: float
+    holes: int
+
+
+@dataclass(frozen=True, eq=False)
+class CheckReport:
+    """Findings of ``warpwise check`` for one file.
+
+    Attributes
+    ----------
+    source : str
+        File name.
+    kind : str
+        ``DXF drawing`` or ``coordinate outline``.
+    version : str
+        DXF version ($ACADVER), empty for outlines.
+    entities, in_blocks, skipped : dict of str to int
+        Entities by type: in model space, inside block references, left out as not geometry.
+    repairs : tuple of str
+        What ezdxf fixed while reading.
+    unit : str
+        Length unit of all coordinates below.
+    unit_note : str
+        Where the unit came from.
+    join_tolerance : float or None
+        Ends closer than this were joined, length unit.
+    chord_tolerance : float or None
+        Largest distance of a chord from its curve in the profile, length unit (None when the
+        profile could not be built or has no curves).
+    layers : tuple of LayerSummary
+        Every layer with geometry.
+    loops, holes, islands : int
+        Closed loops, and how many of them are holes and islands (solid inside a hole).
+    parts : tuple of PartSummary
+        Connected parts, largest first.
+    defects : tuple of Defect
+        Everything wrong, errors and warnings.
+    ok : bool
+        True when the profile can be analysed with the options given.
+    verdict : str
+        ``analysable`` or the one-line reason it is not.
+    outline : tuple of numpy.ndarray
+        Loop polygons (for the plot), length unit.
+    depth : tuple of int
+        Nesting depth of each loop (even: solid boundary, odd: hole).
+    open_paths : tuple of numpy.ndarray
+        Open chains on the layers used (for the plot).
+    ignored_paths : tuple of numpy.ndarray
+        Open chains on layers left out (for the plot).
+    """
+
+    source: str
+    kind: str
+    version: str
+    entities: dict[str, int]
+    in_blocks: dict[str, int]
+    skipped: dict[str, int]
+    repairs: tuple[str, ...]
+    unit: str
+    unit_note: str
+    join_tolerance: float | None
+    chord_tolerance: float | None
+    layers: tuple[LayerSummary, ...]
+    loops: int
+    holes: int
+    islands: int
+    parts: tuple[PartSummary, ...]
+    defects: tuple[Defect, ...]
+    ok: bool
+    verdict: str
+    outline: tuple[np.ndarray, ...] = ()
+    depth: tuple[int, ...] = ()
+    open_paths: tuple[np.ndarray, ...] = ()
+    ignored_paths: tuple[np.ndarray, ...] = ()
+
+    @property
+    def errors(self) -> tuple[Defect, ...]:
+        """Defects that stop the analysis."""
+        return tuple(d for d in self.defects if d.fatal)
+
+    @property
+    def warnings(self) -> tuple[Defect, ...]:
+        """Defects that were repaired or left out."""
+        return tuple(d for d in self.defects if not d.fatal)
+
+
+def _layer_summaries(layout: Layout) -> tuple[LayerSummary, ...]:
+    loops = Counter(lp.layer for lp in layout.loops)
+    opens = Counter(c.layer for c in layout.open_chains)
+    return tuple(LayerSummary(name, loops[name], opens[name] + layout.left_out.get(name, 0),
+                              name in layout.layers, name in layout.left_out)
+                 for name in layout.drawing.layers)
+
+
+def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | None,
+               part: int | None, all_parts: bool, chord_tolerance: float | None,
+               mesh_size: float | None) -> CheckReport:
+    drawing = read_drawing(path, units)
+    layout = lay_out(drawing, layers)
+    built: DxfProfile | None = None
+    try:
+        built = build_profile(layout, part=part, all_parts=all_parts, chord_tolerance=chord_tolerance,
+                              mesh_size=mesh_size)
+        verdict = "analysable"
+    except (ProfileError, UsageError) as exc:
+        verdict = str(exc)
+    defects = list(layout.defects)
+    depth = [lp.depth for lp in layout.loops]
+    curved = built is not None and any(
+        drawing.pieces[i].curved_length > 0 for lp in layout.loops for i, _ in lp.chain.steps)
+    pieces = drawing.pieces
+    return CheckReport(
+        source=drawing.source, kind="DXF drawing", version=drawing.version,
+        entities=drawing.entities, in_blocks=drawing.in_blocks, skipped=drawing.skipped,
+        repairs=drawing.repairs, unit=drawing.units.unit, unit_note=drawing.units.note,
+        join_tolerance=layout.tolerance,
+        chord_tolerance=built.chord_tolerance if built is not None and curved else None,
+        layers=_layer_summaries(layout), loops=len(layout.loops),
+        holes=sum(1 for d in depth if d % 2), islands=sum(1 for d in depth if d and d % 2 == 0),
+        parts=tuple(PartSummary(k + 1, p.bounds, p.area, p.holes) for k, p in enumerate(layout.parts)),
+        defects=tuple(defects), ok=built is not None, verdict=verdict,
+        outline=tuple(lp.points for lp in layout.loops), depth=tuple(depth),
+        open_paths=tuple(loop_points(c, pieces, layout.tolerance)[0] for c in layout.open_chains),
+        ignored_paths=tuple(loop_points(c, pieces, layout.tolerance)[0] for c in layout.ignored),
+    )
+
+
+def _check_outline(path: str | Path, units: str | None) -> CheckReport:
+    profile: Profile | None = None
+    try:
+        profile = read_outline(path, units)
+        verdict = "analysable"
+        defects: tuple[Defect, ...] = ()
+    except ProfileError as exc:
+        verdict = str(exc)
+        where = (exc.where,) if exc.where is not None else ()
+        defects = (Defect("invalid outline", exc.message, where, ERROR, anchor=bool(where)),)
+    regions = profile.regions if profile is not None else ()
+    unit = profile.units if profile is not None else (units or "mm")
+    loops = tuple(lp for r in regions for lp in r.loops())
+    depth = tuple(d for r in regions for d in [0] + [1] * len(r.holes))
+    parts = []
+    for k, r in enumerate(sorted(regions, key=lambda r: -r.area)):
+        x0, y0 = r.outer.min(axis=0)
+        x1, y1 = r.outer.max(axis=0)
+        parts.append(PartSummary(k + 1, (float(x0), float(y0), float(x1), float(y1)), r.area, len(r.holes)))
+    note = next((n for n in (profile.notes if profile else ()) if "unit" in n), f"length unit {unit}")
+    return CheckReport(
+        source=str(path), kind="coordinate outline", version="", entities={}, in_blocks={},
+        skipped={}, repairs=(), unit=unit, unit_note=note, join_tolerance=None, chord_tolerance=None,
+        layers=(), loops=len(loops), holes=sum(len(r.holes) for r in regions), islands=0,
+        parts=tuple(parts), defects=defects, ok=profile is not None, verdict=verdict,
+        outline=loops, depth=depth)
+
+
+def check_file(path: str | Path, *, units: str | None = None, layers: Sequence[str] | None = None,
+               part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
+               mesh_size: float | None = None) -> CheckReport:
+    """Read a drawing or outline and report what it holds and every defect.
+
+    Parameters
+    ----------
+    path : str or Path
+        DXF drawing (``.dxf``) or coordinate outline.
+    units : str, optional
+        Length unit overriding the file's.
+    layers : sequence of str, optional
+        DXF layers to use (default every layer with closed geometry).
+    part : int, optional
+        Part to analyse (1-based, largest first).
+    all_parts : bool
+        Take all parts as one section.
+    chord_tolerance : float, optional
+        Chord tolerance for curves, length unit.
+    mesh_size : float, optional
+        Mesh size meant for the analysis, length unit.
+
+    Returns
+    -------
+    CheckReport
+
+    Raises
+    ------
+    InputFileError
+        For a file that cannot be read at all (missing, empty, not DXF, corrupt).
+    UsageError
+        For an unknown layer, or DXF-only options on an outline.
+
+    """
+    if is_dxf(path):
+        return _check_dxf(path, units=units, layers=layers, part=part, all_parts=all_parts,
+                          chord_tolerance=chord_tolerance, mesh_size=mesh_size)
+    for flag, value in (("--layer", layers), ("--part", part), ("--chord-tolerance", chord_tolerance)):
+        if value:
+            raise UsageError(f"{flag} applies to DXF drawings only", file=str(path))
+    return _check_outline(path, units)
+
+
+def _counts(counts: dict[str, int]) -> str:
+    return ", ".join(f"{n} {t}" for t, n in sorted(counts.items(), key=lambda kv: (-kv[1], kv[0])))
+
+
+def _plural(n: int, word: str) -> str:
+    return f"{n} {word}{'' if n == 1 else 's'}"
+
+
+def format_report(report: CheckReport) -> str:
+    """The report as text, one finding per line.
+
+    Parameters
+    ----------
+    report : CheckReport
+        From :func:`check_file`.
+
+    Returns
+    -------
+    str
+        Lines ending in a newline; coordinates in the report's length unit.
+
+    """
+    u = report.unit
+    lines = [f"Check of {report.source}"]
+    kind = report.kind + (f", version {report.version}" if report.version else "")
+    if report.repairs:
+        kind += f"; ezdxf made {_plural(len(report.repairs), 'repair')} while reading"
+    lines.append(f"  file: {kind}")
+    for text in report.repairs[:REPAIRS_SHOWN]:
+        lines.append(f"    repaired: {text}")
+    if len(report.repairs) > REPAIRS_SHOWN:
+        lines.append(f"    and {len(report.repairs) - REPAIRS_SHOWN} more repairs")
+    lines.append(f"  units: {report.unit_note}")
+    if report.entities:
+        lines.append(f"  entities: {_counts(report.entities)}")
+    if report.in_blocks:
+        lines.append(f"  inside block references: {_counts(report.in_blocks)}")
+    if report.skipped:
+        lines.append(f"  left out, not geometry: {_counts(report.skipped)}")
+    if report.join_tolerance is not None:
+        lines.append(f"  joining tolerance: {fmt(report.join_tolerance)} {u} (ends closer than this "
+                     "are joined)")
+    if report.layers:
+        lines.append("  layers:")
+        for layer in report.layers:
+            bits = []
+            if layer.loops:
+                bits.append(_plural(layer.loops, "loop"))
+            if layer.open_chains:
+                bits.append(_plural(layer.open_chains, "open chain"))
+            if layer.used:
+                lines.append(f"    {layer.name}: {', '.join(bits) or 'nothing closed'}")
+            elif layer.left_out:
+                lines.append(f"    {layer.name}: {', '.join(bits)}  (left out: no closed geometry)")
+            else:
+                lines.append(f"    {layer.name}: not chosen")
+    outers = report.loops - report.holes - report.islands
+    lines.append(f"  loops: {report.loops} ({_plural(outers, 'outer loop')}, "
+                 f"{_plural(report.holes, 'hole')}, {_plural(report.islands, 'island')})")
+    lines.append(f"  parts: {len(report.parts)}")
+    for p in report.parts:
+        x0, y0, x1, y1 = p.bounds
+        lines.append(f"    part {p.number}: {fmt(x1 - x0)} x {fmt(y1 - y0)} {u} at {fmt_point((x0, y0))}, "
+                     f"area {fmt(p.area)} {u}2, {_plural(p.holes, 'hole')}")
+    if report.chord_tolerance is not None:
+        lines.append(f"  chord tolerance: {fmt(report.chord_tolerance)} {u} (largest distance of a "
+                     "chord from its curve)")
+    n_err, n_warn = len(report.errors), len(report.warnings)
+    lines.append(f"  defects: {_plural(n_err, 'error')}, {_plural(n_warn, 'warning')}")
+    for k, d in enumerate(report.defects, start=1):
+        lines.append(f"    {k}. {d.severity}: {d.message}")
+    verdict = report.verdict.removeprefix(f"{report.source}: ")
+    lines.append("  result: analysable" if report.ok else f"  result: not analysable: {verdict}")
+    return "\n".join(lines) + "\n"
+
+
+def plot_report(report: CheckReport, out: str | Path) -> None:
+    """Draw the outline with every defect marked and write it to ``out`` (PNG, PDF or SVG).
+
+    Solid boundaries are drawn dark blue, holes orange, open chains red, open chains on layers
+    left out grey; errors are red crosses and warnings orange circles, numbered as in the
+    report, and each part is labelled with its number.
+
+    Parameters
+    ----------
+    report : CheckReport
+        From :func:`check_file`.
+    out : str or Path
+        Image file; written atomically.
+
+    Raises
+    ------
+    UsageError
+        For an ending other than .png, .pdf or .svg, or a folder that cannot be written.
+
+    """
+    import matplotlib
+
+    matplotlib.use("Agg")
+    from matplotlib.figure import Figure
+
+    from .report.files import atomic_write
+
+    fmt_name = Path(out).suffix.lower().lstrip(".")
+    if fmt_name not in ("png", "pdf", "svg"):
+        raise UsageError("the plot must be a .png, .pdf or .svg file", file=str(out))
+    fig = Figure(figsize=(9, 7), dpi=120)
+    ax = fig.add_subplot()
+    for pts in report.ignored_paths:
+        ax.plot(pts[:, 0], pts[:, 1], color="0.7", lw=0.6)
+    for pts, d in zip(report.outline, report.depth, strict=True):
+        closed = np.vstack([pts, pts[:1]])
+        ax.plot(closed[:, 0], closed[:, 1], color="tab:orange" if d % 2 else "navy", lw=1.0)
+    for pts in report.open_paths:
+        ax.plot(pts[:, 0], pts[:, 1], color="red", lw=2.0)
+    for p in report.parts:
+        x0, y0, x1, y1 = p.bounds
+        ax.annotate(f"part {p.number}", (x0, y1), fontsize=8, color="navy",
+                    xytext=(2, 2), textcoords="offset points")
+    for k, d in enumerate(report.defects, start=1):
+        if not d.where:
+            continue
+        pts = np.asarray(d.where, dtype=float)
+        error = d.severity == ERROR
+        ax.plot(pts[:, 0], pts[:, 1], "x" if error else "o", ms=9 if error else 7, mew=2,
+                mfc="none", color="red" if error else "darkorange")
+        ax.annotate(str(k), tuple(pts[0]), fontsize=8, color="red" if error else "darkorange",
+                    xytext=(4, 4), textcoords="offset points")
+    ax.set_aspect("equal", adjustable="datalim")
+    ax.set_xlabel(f"x ({report.unit})")
+    ax.set_ylabel(f"y ({report.unit})")
+    state = "analysable" if report.ok else "not analysable"
+    ax.set_title(f"{Path(report.source).name}: {state}; {_plural(len(report.errors), 'error')}, "
+                 f"{_plural(len(report.warnings), 'warning')} (numbers as in the report)", fontsize=9)
+    ax.grid(True, lw=0.3, alpha=0.5)
+    buf = io.BytesIO()
+    fig.savefig(buf, format=fmt_name)
+    atomic_write(out, buf.getvalue())
+
+
+__all__ = ["CheckReport", "LayerSummary", "PartSummary", "check_file", "format_report",
+           "plot_report"]
