@@ -198,7 +198,8 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
     torque : float
         Torque T, force x L (N*mm with mm).
     G : float
-        Shear modulus, force / L^2 (MPa with mm).
+        Shear modulus, force / L^2 (MPa with mm); for a composite section that of the
+        reference material.
 
     Returns
     -------
@@ -209,10 +210,27 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
         raise UsageError(f"torque must be a finite number, got {torque}")
     mesh, tor, geo = result.mesh, result.torsion, result.transformed
     local = mesh.nodes - np.array(geo.centroid)
-    g = nodal_gradient(mesh, tor.psi)
     scale = torque / tor.J
-    tzx = scale * (g[:, 0] - local[:, 1])
-    tzy = scale * (g[:, 1] + local[:, 0])
+    mats = result.materials
+    if not mats.composite:
+        g = nodal_gradient(mesh, tor.psi)
+        tzx = scale * (g[:, 0] - local[:, 1])
+        tzy = scale * (g[:, 1] + local[:, 0])
+    else:
+        # each material's stress from its own elements (the stress jumps at an interface);
+        # at a node shared by two materials the larger magnitude is kept
+        tzx = np.zeros(mesh.n_nodes)
+        tzy = np.zeros(mesh.n_nodes)
+        for gi in range(len(mats.names)):
+            mask = mats.group == gi
+            nodes = np.unique(mesh.elements[mask])
+            g = nodal_gradient(mesh, tor.psi, mask)[nodes]
+            w = scale * float(mats.G[mask][0])
+            zx = w * (g[:, 0] - local[nodes, 1])
+            zy = w * (g[:, 1] + local[nodes, 0])
+            bigger = np.hypot(zx, zy) > np.hypot(tzx[nodes], tzy[nodes])
+            tzx[nodes[bigger]] = zx[bigger]
+            tzy[nodes[bigger]] = zy[bigger]
     tau = np.hypot(tzx, tzy)
     top, at, corners = peak_stress(result, tau)
     return TorsionStress(
