@@ -69,7 +69,7 @@ from .chains import (
     nest_loops,
     polyline_piece,
 )
-from .outline import MAX_FILE_BYTES
+from .outline import read_input
 
 #: Joining tolerance as a fraction of the diagonal of the drawing's extent.
 JOIN_TOLERANCE = 1e-5
@@ -222,21 +222,6 @@ class Drawing:
         return tuple(sorted({p.layer for p in self.pieces}))
 
 
-def _read_bytes(path: Path, name: str) -> bytes:
-    if not path.exists():
-        raise InputFileError("file not found", file=name)
-    if path.is_dir():
-        raise InputFileError("is a folder, not a file", file=name)
-    size = path.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise InputFileError(
-            f"file is {size / 1e6:.1f} MB, over the {MAX_FILE_BYTES / 1e6:.0f} MB limit", file=name)
-    try:
-        return path.read_bytes()
-    except OSError as exc:
-        raise InputFileError(f"cannot be read ({exc.strerror})", file=name) from None
-
-
 def _check_text_dxf(data: bytes, name: str) -> None:
     """Refuse data that does not start like a DXF text file."""
     if b"\x00" in data[:65536]:
@@ -264,7 +249,7 @@ def _load_document(path: str | Path) -> tuple[object, tuple[str, ...], bool, dic
 
     p = Path(path)
     name = str(path)
-    data = _read_bytes(p, name)
+    data = read_input(p)
     if not data.strip():
         raise InputFileError("file is empty", file=name)
     if data.startswith(_BINARY_SENTINEL):

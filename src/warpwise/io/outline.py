@@ -35,6 +35,30 @@ MAX_FILE_BYTES = 50 * 1024 * 1024
 _SPLIT = re.compile(r"[,;\s]+")
 
 
+def read_input(path: str | Path) -> bytes:
+    """Bytes of an input file, after the checks every reader shares.
+
+    Raises
+    ------
+    InputFileError
+        Missing file, a folder, a file over :data:`MAX_FILE_BYTES`, or unreadable.
+    """
+    p = Path(path)
+    name = str(path)
+    if not p.exists():
+        raise InputFileError("file not found", file=name)
+    if p.is_dir():
+        raise InputFileError("is a folder, not a file", file=name)
+    size = p.stat().st_size
+    if size > MAX_FILE_BYTES:
+        raise InputFileError(
+            f"file is {size / 1e6:.1f} MB, over the {MAX_FILE_BYTES / 1e6:.0f} MB limit", file=name)
+    try:
+        return p.read_bytes()
+    except OSError as exc:
+        raise InputFileError(f"cannot be read ({exc.strerror})", file=name) from None
+
+
 def read_text(path: str | Path, kind: str = "outline") -> str:
     """Read a text file with the size and encoding checks every reader shares.
 
@@ -56,20 +80,8 @@ def read_text(path: str | Path, kind: str = "outline") -> str:
         Missing, unreadable, too large, empty or binary file.
 
     """
-    p = Path(path)
     name = str(path)
-    if not p.exists():
-        raise InputFileError("file not found", file=name)
-    if p.is_dir():
-        raise InputFileError("is a folder, not a file", file=name)
-    size = p.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise InputFileError(
-            f"file is {size / 1e6:.1f} MB, over the {MAX_FILE_BYTES / 1e6:.0f} MB limit", file=name)
-    try:
-        data = p.read_bytes()
-    except OSError as exc:
-        raise InputFileError(f"cannot be read ({exc.strerror})", file=name) from None
+    data = read_input(path)
     if not data.strip():
         raise InputFileError("file is empty", file=name)
     if b"\x00" in data:
