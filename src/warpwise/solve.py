@@ -83,7 +83,7 @@ class SPDFactor:
         if method == "pardiso" and not _pardiso_available():
             raise UsageError("the pardiso solver needs the pypardiso package (x86-64 only)")
         self.method = method
-        self.matrix = a
+        self.n = n
         try:
             if method == "superlu":
                 self._lu = spla.splu(a.tocsc(), permc_spec="MMD_AT_PLUS_A",
@@ -92,6 +92,7 @@ class SPDFactor:
                 import pypardiso
 
                 self._upper = sp.triu(a, format="csr")
+                del a  # keep only the upper triangle (pypardiso checks it on every solve)
                 self._pardiso = pypardiso.PyPardisoSolver(mtype=2)  # real symmetric positive definite
                 self._pardiso.factorize(self._upper)
             else:
@@ -141,10 +142,9 @@ class PinnedSolver:
         self.pinned = int(pinned)
         self.keep = np.delete(np.arange(n), self.pinned)
         mat = sp.csr_matrix(matrix)
-        reduced = mat[self.keep][:, self.keep]
         self.matrix = mat
         self._norm = float(abs(mat).sum(axis=1).max()) if n else 0.0
-        self._factor = SPDFactor(reduced, method)
+        self._factor = SPDFactor(mat[self.keep][:, self.keep], method)
         self.method = self._factor.method
 
     @staticmethod
