@@ -175,9 +175,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
                             file=profile.source)
     if bounds and not mats.composite:
-        rings = [ring for poly in getattr(profile.geometry(), "geoms", [profile.geometry()])
-                 for ring in poly.interiors]
-        J_low, _ = prandtl_lower_bound(mesh, evc, K, rings, 1e-7 * profile.size, solver)
+        J_low, _ = prandtl_lower_bound(mesh, evc, K, solver)
         if not J_low <= tor.J * (1 + 1e-9):
             raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
                                 file=profile.source)

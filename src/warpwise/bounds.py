@@ -18,30 +18,70 @@ from __future__ import annotations
 
 import numpy as np
 import scipy.sparse as sp
-import shapely
+from scipy.sparse.csgraph import connected_components
 
 from .errors import AnalysisError
 from .fem import ElementValues
-from .mesh import Mesh, boundary_edges
+from .mesh import Mesh
 from .solve import SPDFactor
 
 
-def _boundary_loops(mesh: Mesh, holes: list[shapely.LinearRing], tol: float) -> tuple[
-        np.ndarray, np.ndarray]:
-    """Boundary nodes and, for each, the hole index it lies on (-1 for an outer boundary)."""
-    bnd = boundary_edges(mesh.elements)
-    nodes = np.unique(bnd)
-    which = np.full(len(nodes), -1)
-    if holes:
-        pts = shapely.points(mesh.nodes[nodes])
-        for k, ring in enumerate(holes):
-            near = shapely.distance(pts, ring) < tol
-            which[near] = k
-    return nodes, which
+def _hole_areas(mesh: Mesh, bnodes: np.ndarray, which: np.ndarray, n_holes: int) -> np.ndarray:
+    """Area enclosed by each hole loop of the mesh (curved edges as their chords), L^2."""
+    local = np.array([[0, 3, 1], [1, 4, 2], [2, 5, 0]])
+    edges = mesh.elements[:, local].reshape(-1, 3)
+    key = np.sort(edges[:, [0, 2]], axis=1)
+    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
+    bnd = edges[counts[inverse.reshape(-1)] == 1]
+    hole = np.full(mesh.n_nodes, -1)
+    hole[bnodes] = which
+    h = hole[bnd[:, 0]]
+    keep = h >= 0
+    # each boundary edge a -> m -> b as two chords through its mid-side node; the hole lies to
+    # the right of the edge, so its area is minus the signed area swept
+    out = np.zeros(n_holes)
+    for i, j in ((0, 1), (1, 2)):
+        p, q = mesh.nodes[bnd[keep, i]], mesh.nodes[bnd[keep, j]]
+        cross = p[:, 0] * q[:, 1] - q[:, 0] * p[:, 1]
+        out -= np.bincount(h[keep], weights=0.5 * cross, minlength=n_holes)
+    return out
+
+
+def boundary_loops(mesh: Mesh) -> tuple[np.ndarray, np.ndarray, int]:
+    """Boundary nodes, the hole each lies on (-1: an outer boundary), and the number of holes.
+
+    The boundary edges, oriented as in their element (material on the left), form closed
+    loops; a loop enclosing positive area is an outer boundary, negative area a hole. This
+    uses the mesh alone (no geometric tolerance), so curved boundaries are classified as well.
+    """
+    local = np.array([[0, 1, 3], [1, 2, 4], [2, 0, 5]])
+    edges3 = mesh.elements[:, local].reshape(-1, 3)
+    key = np.sort(edges3[:, :2], axis=1)
+    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
+    bnd3 = edges3[counts[inverse.reshape(-1)] == 1]
+    bnd = bnd3[:, :2]
+    nodes = np.unique(bnd3)  # corners and mid-side nodes of the boundary edges
+    n = mesh.n_nodes
+    # the mid-side node of a boundary edge joins the loop of its corners
+    links = np.vstack([bnd, bnd3[:, [0, 2]]])
+    graph = sp.coo_matrix((np.ones(len(links)), (links[:, 0], links[:, 1])), shape=(n, n))
+    _, label = connected_components(graph, directed=False)
+    p, q = mesh.nodes[bnd[:, 0]], mesh.nodes[bnd[:, 1]]
+    c = mesh.nodes[nodes].mean(axis=0)  # shift for round-off
+    cross = (p[:, 0] - c[0]) * (q[:, 1] - c[1]) - (q[:, 0] - c[0]) * (p[:, 1] - c[1])
+    comp = label[bnd[:, 0]]
+    uniq, comp_index = np.unique(comp, return_inverse=True)
+    area = np.bincount(comp_index, weights=0.5 * cross)
+    hole_of_comp = np.full(len(uniq), -1)
+    holes = np.flatnonzero(area < 0)
+    hole_of_comp[holes] = np.arange(len(holes))
+    lookup = dict(zip(uniq.tolist(), hole_of_comp.tolist(), strict=True))
+    which = np.array([lookup[v] for v in label[nodes].tolist()], dtype=np.int64) if len(nodes) else \
+        np.zeros(0, dtype=np.int64)
+    return nodes, which, len(holes)
 
 
 def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix,
-                        hole_rings: list[shapely.LinearRing], tol: float,
                         method: str = "auto") -> tuple[float, np.ndarray]:
     """Lower bound J_low from the Prandtl stress function on the mesh.
 
@@ -53,10 +93,6 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
         Basis values (any origin).
     stiffness : scipy.sparse.csr_matrix
         The Laplacian stiffness matrix of the mesh (the one of the warping problem).
-    hole_rings : list of shapely.LinearRing
-        Boundaries of the holes of the material (interiors of the profile's union).
-    tol : float
-        Distance within which a boundary node lies on a hole ring, drawing unit.
     method : str
         Linear solver (see :class:`warpwise.solve.SPDFactor`).
 
@@ -68,8 +104,7 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
         Nodal stress function phi (n,), L^2 (phi = 0 on outer boundaries).
     """
     n = mesh.n_nodes
-    bnodes, which = _boundary_loops(mesh, hole_rings, tol)
-    n_holes = len(hole_rings)
+    bnodes, which, n_holes = boundary_loops(mesh)
     # reduced unknowns: interior nodes, then one per hole; outer boundary nodes are zero
     is_bnd = np.zeros(n, bool)
     is_bnd[bnodes] = True
@@ -84,7 +119,7 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
     # load 2 int N_i dA, plus 2 A_k on each hole unknown
     local = 2.0 * np.einsum("mq,qk->mk", evc.dA, evc.N)
     f = np.bincount(mesh.elements.ravel(), weights=local.ravel(), minlength=n)
-    hole_area = np.array([shapely.Polygon(r).area for r in hole_rings])
+    hole_area = _hole_areas(mesh, bnodes, which, n_holes)
     fr = P.T @ f
     fr[len(free):] += 2.0 * hole_area
     if m == 0:
