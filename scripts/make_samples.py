@@ -89,6 +89,14 @@ def write_outlines(out: Path) -> None:
     pts += list(arc(tw + r, H - tf - r, r, 180, 90))
     pts += [(B, H - tf), (B, H), (0, H)]
     write(out / "channel_thick_80x40.txt", "thick channel 80 x 40 x 6/8, root radius 5", [pts])
+    # composite mullion: aluminium box 60 x 120 x 3 (outer radius 4, inner 1) with a steel
+    # flat bar 6 x 80 bonded to the inside of one web
+    box = rounded_rectangle(60, 120, 4, 30, 60)
+    cavity = rounded_rectangle(54, 114, 1, 30, 60)[::-1]
+    bar = [(3.0, 20.0), (9.0, 20.0), (9.0, 100.0), (3.0, 100.0)]
+    write(out / "mullion_steel_reinforced.txt",
+          "aluminium mullion 60 x 120 x 3 with a steel flat bar 6 x 80 bonded inside",
+          [box, cavity, bar], ["aluminium-6063-T6", "aluminium-6063-T6", "steel-S355"])
 
 
 # ----------------------------------------------------------------------------------------------

@@ -228,10 +228,14 @@ def _check_outline(path: str | Path, units: str | None) -> CheckReport:
     loops = tuple(lp for r in regions for lp in r.loops())
     depth = tuple(d for r in regions for d in [0] + [1] * len(r.holes))
     parts = []
-    for k, r in enumerate(sorted(regions, key=lambda r: -r.area)):
-        x0, y0 = r.outer.min(axis=0)
-        x1, y1 = r.outer.max(axis=0)
-        parts.append(PartSummary(k + 1, (float(x0), float(y0), float(x1), float(y1)), r.area, len(r.holes)))
+    if profile is not None:
+        # a part is a connected piece of material: regions of different materials that share
+        # an edge (a bonded insert) form one part
+        union = profile.geometry()
+        pieces = sorted(getattr(union, "geoms", [union]), key=lambda g: -g.area)
+        for k, g in enumerate(pieces):
+            parts.append(PartSummary(k + 1, tuple(float(v) for v in g.bounds), float(g.area),
+                                     len(g.interiors)))
     note = next((n for n in (profile.notes if profile else ()) if "unit" in n), f"length unit {unit}")
     return CheckReport(
         source=str(path), kind="coordinate outline", version="", entities={}, in_blocks={},

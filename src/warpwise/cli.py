@@ -301,9 +301,7 @@ def run_stress(args: argparse.Namespace) -> int:
         raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
                          "and/or --moment-y")
     G = None
-    has_material = bool(args.material or args.materials)
-    if args.shear_modulus is not None or args.youngs_modulus is not None or (
-            args.torque != 0 and not has_material):
+    if args.shear_modulus is not None or args.youngs_modulus is not None:
         G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
     result = _analyse_file(args.file, args, bounds=False)
     if G is None and result.materials.G_ref is not None:
