@@ -341,11 +341,17 @@ def _check_no_crossings(polys: list[Polygon], labels: list[int], file: str | Non
     Loops of different materials may share boundary (a bonded interface); whether their areas
     overlap is checked once the regions are built.
     """
-    tree = shapely.STRtree([p.exterior for p in polys])
-    left, right = tree.query([p.exterior for p in polys], predicate="intersects")
+    rings = [p.exterior for p in polys]
+    size = max(max(np.ptp(np.asarray(r.coords), axis=0)) for r in rings)
+    tol = POINT_TOLERANCE * size
+    tree = shapely.STRtree(rings)
+    # closer than the point tolerance counts as touching (the mesher cannot separate them)
+    left, right = tree.query(rings, predicate="dwithin", distance=tol)
     for i, j in zip(left, right, strict=True):
         if i < j and materials[i] == materials[j]:
             meet = polys[i].exterior.intersection(polys[j].exterior)
+            if meet.is_empty:  # not touching, only closer than the tolerance
+                meet = shapely.shortest_line(polys[i].exterior, polys[j].exterior)
             where = tuple(np.asarray(meet.representative_point().coords[0]))
             raise ProfileError(
                 f"loops {labels[i]} and {labels[j]} cross or touch", file=file, where=where

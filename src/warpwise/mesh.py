@@ -35,6 +35,10 @@ ELEMENTS_ACROSS_WALL = 2.5
 CORNER_SIZE_FACTOR = 0.05
 #: Growth of the element size with distance from a sharp re-entrant corner.
 CORNER_GRADING = 0.3
+#: Smallest element size asked for at a boundary, as a fraction of the largest size h.
+MIN_SIZE_FRACTION = 1e-3
+#: Largest number of boundary points before meshing is refused.
+MAX_BOUNDARY_POINTS = 400_000
 #: Largest number of elements a mesh may have before meshing is refused.
 MAX_ELEMENTS = 4_000_000
 
@@ -302,6 +306,19 @@ def _hole_seeds(part: Profile) -> list[np.ndarray]:
     return holes
 
 
+def _check_boundary_budget(pts: np.ndarray, seg: np.ndarray, target: np.ndarray,
+                           full: Profile) -> None:
+    """Refuse a boundary that would need more than MAX_BOUNDARY_POINTS points (a sliver)."""
+    lengths = np.linalg.norm(pts[seg[:, 1]] - pts[seg[:, 0]], axis=1)
+    needed = int(np.sum(np.ceil(lengths / target)))
+    if needed > MAX_BOUNDARY_POINTS:
+        thin = int(np.argmin(target))
+        where = tuple(0.5 * (pts[seg[thin, 0]] + pts[seg[thin, 1]]))
+        raise ProfileError(f"a wall thins to almost nothing (the mesh would need {needed:,} "
+                           "boundary points); is the outline a sliver?", file=full.source,
+                           where=where)
+
+
 def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
                  refine_level: float = 1.0) -> tuple[
         np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -309,10 +326,17 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, acros
     vertices, seg = _planar_graph(part)
     fv, fseg = _planar_graph(full)
     seg_a, seg_b = fv[fseg[:, 0]], fv[fseg[:, 1]]
-    # two passes: split by the thickness at segment midpoints, then measure again on the pieces
-    t1 = wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b)
+    # two passes: split by the thickness at segment midpoints, then measure again on the pieces;
+    # no element is asked to be smaller than MIN_SIZE_FRACTION of h (a wall thinning to nothing
+    # would otherwise ask for endless boundary points)
+    floor = MIN_SIZE_FRACTION * h
+    t1 = np.maximum(wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b),
+                    floor * across)
+    _check_boundary_budget(vertices, seg, np.minimum(h, t1 / across), full)
     pts, sub = _split_segments(vertices, seg, np.minimum(h, t1 / across))
-    t2 = wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b)
+    t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b),
+                    floor * across)
+    _check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)
     pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / across))
     corners = reentrant_corners(full)
     if corners:

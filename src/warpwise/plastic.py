@@ -121,6 +121,15 @@ def plastic_properties(profile: Profile, alpha_deg: float = 0.0,
     def about(angle: float) -> tuple[float, float, float | None]:
         # rotate so that the neutral axis direction (angle from +x) becomes horizontal
         rot = [affinity.rotate(p, -angle, origin=(0.0, 0.0)) for p in polys]
+        try:
+            return _about(rot)
+        except shapely.errors.GEOSException:
+            # CAD round-off (a coordinate of 6e-17 for zero) can make GEOS build degenerate
+            # rings while clipping: snap to a grid far below any real dimension and retry
+            grid = 1e-12 * profile.size
+            return _about([shapely.set_precision(p, grid) for p in rot])
+
+    def _about(rot: list) -> tuple[float, float, float | None]:
         yp, z = _plastic_about_horizontal(rot, ones)
         m = None
         if strengths is not None:

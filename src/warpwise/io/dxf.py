@@ -38,6 +38,7 @@ True
 
 from __future__ import annotations
 
+import logging
 import math
 from collections import Counter
 from collections.abc import Callable, Iterable, Mapping, Sequence
@@ -266,10 +267,29 @@ def _load_document(path: str | Path) -> tuple[object, tuple[str, ...], bool, dic
         found = Counter(e.dxftype() for e in doc.modelspace())  # before the audit removes any
         auditor = doc.audit()
     except Exception as strict:  # ezdxf raises many kinds for a damaged file
+        log = logging.getLogger("ezdxf")
+        heard: list[str] = []
+
+        class _Collect(logging.Handler):
+            def emit(self, record: logging.LogRecord) -> None:
+                heard.append(record.getMessage())
+
+        handler = _Collect(level=logging.WARNING)
+        keep = log.propagate
+        log.addHandler(handler)
+        log.propagate = False  # ezdxf's own lines must not reach the user's stderr
         try:
             doc, auditor = recover.readfile(p)
         except Exception as exc:  # recover mode gave up: the file is not a usable DXF
             raise InputFileError(f"is not a readable DXF drawing ({_why(exc)})", file=name) from None
+        finally:
+            log.removeHandler(handler)
+            log.propagate = keep
+        bad_numbers = [m for m in heard if "invalid floating point" in m or "invalid integer" in m]
+        if bad_numbers:
+            # a guessed coordinate would change the profile silently: refuse instead
+            raise InputFileError(f"holds an invalid number ({' '.join(bad_numbers[0].split())[:120]})",
+                                 file=name) from None
         recovered = (f"read in recover mode (the strict reader stopped: {_why(strict)})",)
         found = Counter(e.dxftype() for e in doc.modelspace())
     repairs = recovered + tuple(str(getattr(f, "message", f))

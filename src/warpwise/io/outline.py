@@ -145,6 +145,9 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
                     raise InputFileError(
                         f"line {number}: unknown unit {value!r} (use {', '.join(LENGTH_UNITS)})",
                         file=source)
+                if file_units is not None and file_units != value:
+                    raise InputFileError(f"line {number}: a second 'units:' line ({value}) "
+                                         f"contradicts the first ({file_units})", file=source)
                 file_units = value
             else:
                 raise InputFileError(f"line {number}: unknown directive {key!r}", file=source)
