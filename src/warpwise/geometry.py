@@ -315,6 +315,16 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
             file=file, where=tuple(arr[0]),
         )
     ring = LinearRing(arr)
+    # a vertex closer to a non-adjacent edge than the point tolerance touches it (the mesher
+    # cannot separate them)
+    n = len(arr)
+    segs = shapely.linestrings(np.stack([arr, np.roll(arr, -1, axis=0)], axis=1))
+    vi, si = shapely.STRtree(segs).query(shapely.points(arr), predicate="dwithin", distance=tol)
+    near = (si != vi) & (si != (vi - 1) % n)
+    if near.any():
+        k = int(vi[near][0])
+        raise ProfileError(f"loop {index} touches itself (a vertex lies on another of its edges)",
+                           file=file, where=(float(arr[k, 0]), float(arr[k, 1])))
     if not ring.is_simple:
         where = _where_from_shapely(explain_validity(Polygon(arr)))
         if where is None:
