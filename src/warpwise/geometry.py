@@ -39,6 +39,9 @@ LENGTH_UNITS: dict[str, float] = {"mm": 1.0, "cm": 10.0, "m": 1000.0, "in": 25.4
 #: cannot resolve a wall of ordinary thickness).
 MAX_COORDINATE = 1.0e9
 
+#: Smallest angle between the two edges at a vertex, radians (below: a spike or a crack).
+MIN_VERTEX_ANGLE = 1e-3
+
 #: Relative size (to the largest dimension) below which two vertices are the same point.
 POINT_TOLERANCE = 1.0e-9
 
@@ -314,6 +317,17 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
             f"loop {index} encloses no area (all its points lie on one line)",
             file=file, where=tuple(arr[0]),
         )
+    # a spike or crack (two edges meeting at almost zero angle) cannot be meshed sensibly
+    e_back = np.roll(arr, 1, axis=0) - arr
+    e_fwd = np.roll(arr, -1, axis=0) - arr
+    cosang = np.einsum("ij,ij->i", e_back, e_fwd) / (
+        np.linalg.norm(e_back, axis=1) * np.linalg.norm(e_fwd, axis=1))
+    spikes = np.flatnonzero(cosang > np.cos(MIN_VERTEX_ANGLE))
+    if len(spikes):
+        k = int(spikes[0])
+        raise ProfileError(f"loop {index} has a spike: two edges meet at less than "
+                           f"{np.degrees(MIN_VERTEX_ANGLE):.2g} degrees", file=file,
+                           where=(float(arr[k, 0]), float(arr[k, 1])))
     ring = LinearRing(arr)
     # a vertex closer to a non-adjacent edge than the point tolerance touches it (the mesher
     # cannot separate them)
