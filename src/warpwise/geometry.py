@@ -85,7 +85,7 @@ def check_points(points: object, what: str = "points", *, file: str | None = Non
     big = np.abs(arr).max(initial=0.0)
     if big > MAX_COORDINATE:
         raise ProfileError(
-            f"{what} reach coordinates of {big:.3g}, beyond the limit of {MAX_COORDINATE:.0e}",
+            f"{what}: a coordinate of {big:.3g} is beyond the limit of {MAX_COORDINATE:.0e}",
             file=file,
         )
     return arr
