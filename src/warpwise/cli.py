@@ -45,16 +45,6 @@ class _Parser(argparse.ArgumentParser):
         raise UsageError(f"{self.prog}: {message} (see --help)")
 
 
-def _positive_float(text: str) -> float:
-    try:
-        v = float(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"not a number: {text!r}") from None
-    if not v > 0 or v == float("inf"):
-        raise argparse.ArgumentTypeError(f"must be a positive number, got {text}")
-    return v
-
-
 def _float(text: str) -> float:
     try:
         v = float(text)
@@ -62,6 +52,13 @@ def _float(text: str) -> float:
         raise argparse.ArgumentTypeError(f"not a number: {text!r}") from None
     if v != v or abs(v) == float("inf"):
         raise argparse.ArgumentTypeError(f"must be a finite number, got {text}")
+    return v
+
+
+def _positive_float(text: str) -> float:
+    v = _float(text)
+    if not v > 0:
+        raise argparse.ArgumentTypeError(f"must be a positive number, got {text}")
     return v
 
 
