@@ -96,6 +96,18 @@ def _drawing_options(p: argparse.ArgumentParser) -> None:
                         "(default: tied to the mesh size)")
 
 
+def _load_options(p: argparse.ArgumentParser) -> None:
+    """Section forces, in consistent units (N and N*mm with mm)."""
+    for flag, meta, text in (
+            ("--torque", "T", "torque about the shear centre, force x length (N*mm with mm)"),
+            ("--shear-x", "VX", "shear force along x through the shear centre (N with mm)"),
+            ("--shear-y", "VY", "shear force along y through the shear centre (N with mm)"),
+            ("--axial", "N", "axial force through the (modulus-weighted) centroid, tension positive"),
+            ("--moment-x", "MX", "bending moment about the x axis, positive when it puts +y in tension"),
+            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension")):
+        p.add_argument(flag, type=_float, default=0.0, metavar=meta, help=text)
+
+
 def _analysis_options(p: argparse.ArgumentParser) -> None:
     """Options of the analysis itself: accuracy, materials, solver."""
     p.add_argument("--accuracy", choices=list(ACCURACY_LEVELS), default="normal",
@@ -144,18 +156,7 @@ def build_parser() -> argparse.ArgumentParser:
         description="Shear stresses from a torque and shear forces (through the shear centre), "
                     "and the twist rate.")
     stress.add_argument("file", metavar="FILE", help="outline file")
-    stress.add_argument("--torque", type=_float, default=0.0, metavar="T",
-                        help="torque about the shear centre, force x length (N*mm with mm)")
-    stress.add_argument("--shear-x", type=_float, default=0.0, metavar="VX",
-                        help="shear force along x through the shear centre (N with mm)")
-    stress.add_argument("--shear-y", type=_float, default=0.0, metavar="VY",
-                        help="shear force along y through the shear centre (N with mm)")
-    stress.add_argument("--axial", type=_float, default=0.0, metavar="N",
-                        help="axial force through the (modulus-weighted) centroid, tension positive")
-    stress.add_argument("--moment-x", type=_float, default=0.0, metavar="MX",
-                        help="bending moment about the x axis, positive when it puts +y in tension")
-    stress.add_argument("--moment-y", type=_float, default=0.0, metavar="MY",
-                        help="bending moment about the y axis, positive when it puts +x in tension")
+    _load_options(stress)
     stress.add_argument("--shear-modulus", type=_positive_float, metavar="G",
                         help="shear modulus, force/length^2 (MPa with mm)")
     stress.add_argument("--youngs-modulus", type=_positive_float, metavar="E",
@@ -199,13 +200,7 @@ def build_parser() -> argparse.ArgumentParser:
     plot.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
     plot.add_argument("--show", choices=("mesh", "warping", "torsion", "combined"), default="mesh")
     plot.add_argument("-o", "--output", required=True, metavar="OUT.png|OUT.svg")
-    for flag, meta, text in (("--torque", "T", "torque (torsion, combined)"),
-                             ("--axial", "N", "axial force (combined)"),
-                             ("--moment-x", "MX", "moment about x (combined)"),
-                             ("--moment-y", "MY", "moment about y (combined)"),
-                             ("--shear-x", "VX", "shear force along x (combined)"),
-                             ("--shear-y", "VY", "shear force along y (combined)")):
-        plot.add_argument(flag, type=_float, default=0.0, metavar=meta, help=text)
+    _load_options(plot)
     plot.add_argument("--shear-modulus", type=_positive_float, metavar="G")
     plot.add_argument("--poisson", type=_float, default=None, metavar="NU")
     _common(plot)
