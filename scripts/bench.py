@@ -26,11 +26,11 @@ ROOT = HERE.parent
 
 def one(size: float) -> dict:
     """Time mesh / assembly / solve / post of the torsion set for one mesh size (this process)."""
-    from warpwise.fem import element_values, stiffness_matrix
-    from warpwise.mesh import build_mesh
-    from warpwise.section import geometric_properties, torsion_load, torsion_properties
-    from warpwise.shapes import rectangle
-    from warpwise.solve import PinnedSolver
+    from warpwise.fem.p2 import element_values, stiffness_matrix
+    from warpwise.fem.solve import PinnedSolver
+    from warpwise.geometry.shapes import rectangle
+    from warpwise.mesh.core import build_mesh
+    from warpwise.properties.section import geometric_properties, torsion_load, torsion_properties
 
     prof = rectangle(100.0, 100.0)
     t0 = time.perf_counter()
@@ -57,8 +57,8 @@ def compare(size: float) -> None:
     sys.path.insert(0, str(HERE))
     from bench_assembly import skfem_reference
 
-    from warpwise.mesh import build_mesh
-    from warpwise.shapes import rectangle
+    from warpwise.geometry.shapes import rectangle
+    from warpwise.mesh.core import build_mesh
 
     mesh = build_mesh(rectangle(100.0, 100.0), size)
     w = one(size)
@@ -91,8 +91,8 @@ def scaling(max_nodes: int) -> None:
 
 def samples() -> None:
     """(c) Time of the full property set for each sample profile at default accuracy."""
-    from warpwise.analysis import analyse
     from warpwise.io import load_profile
+    from warpwise.properties.analysis import analyse
 
     print(f"{'profile':<34} {'nodes':>7} {'read s':>7} {'analyse s':>9}")
     for p in sorted((ROOT / "sample_sections").iterdir()):

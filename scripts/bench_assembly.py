@@ -35,12 +35,12 @@ from functools import partial
 
 import numpy as np
 
-from warpwise.analysis import analyse
-from warpwise.fem import element_values, stiffness_matrix
-from warpwise.mesh import build_mesh
-from warpwise.section import geometric_properties, torsion_load
-from warpwise.shapes import rectangle, tube
-from warpwise.solve import PinnedSolver
+from warpwise.fem.p2 import element_values, stiffness_matrix
+from warpwise.fem.solve import PinnedSolver
+from warpwise.geometry.shapes import rectangle, tube
+from warpwise.mesh.core import build_mesh
+from warpwise.properties.analysis import analyse
+from warpwise.properties.section import geometric_properties, torsion_load
 
 #: Mesh sizes giving about 300k nodes for each shape.
 SHAPES = {

@@ -12,12 +12,12 @@ from pathlib import Path
 
 import numpy as np
 
-from warpwise.analysis import analyse
-from warpwise.fem import element_values, stiffness_matrix
+from warpwise.fem.p2 import element_values, stiffness_matrix
+from warpwise.fem.solve import PinnedSolver
 from warpwise.io import load_profile
-from warpwise.mesh import build_mesh
-from warpwise.section import geometric_properties, torsion_load, torsion_properties
-from warpwise.solve import PinnedSolver
+from warpwise.mesh.core import build_mesh
+from warpwise.properties.analysis import analyse
+from warpwise.properties.section import geometric_properties, torsion_load, torsion_properties
 
 ROOT = Path(__file__).resolve().parents[1]
 

@@ -224,8 +224,8 @@ def preload() -> None:
     import ezdxf  # noqa: F401
     import ezdxf.recover  # noqa: F401
 
-    import warpwise.analysis  # noqa: F401
     import warpwise.io  # noqa: F401
+    import warpwise.properties.analysis  # noqa: F401
 
 
 def examine(path: str, mesh_factor: float = 0.25) -> tuple[str, str, float | None]:
@@ -246,9 +246,9 @@ def examine(path: str, mesh_factor: float = 0.25) -> tuple[str, str, float | Non
 
 
 def _examine(path: str, mesh_factor: float, repairs: list[str]) -> tuple[str, str, float | None]:
-    from warpwise.analysis import analyse
     from warpwise.errors import WarpwiseError
     from warpwise.io import load_profile
+    from warpwise.properties.analysis import analyse
 
     def clean(exc: WarpwiseError) -> tuple[str, str, None]:
         text = str(exc)

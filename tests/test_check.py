@@ -7,8 +7,8 @@ import ezdxf
 import numpy as np
 import pytest
 
-from warpwise.check import check_file, format_report, plot_report
 from warpwise.errors import InputFileError
+from warpwise.io.check import check_file, format_report, plot_report
 
 PNG_MAGIC = b"\x89PNG\r\n\x1a\n"
 

@@ -37,10 +37,10 @@ def test_composite_mullion_stress_per_material(cli):
     # the stiffer steel carries three times the aluminium's stress at the same strain, so its
     # largest normal stress is higher although it lies nearer the neutral axis... check the
     # ratio of stresses at the shared interface instead through the API
-    from warpwise.analysis import analyse
-    from warpwise.combined import Loads, combined_stress
     from warpwise.io import load_profile
     from warpwise.materials import resolve
+    from warpwise.properties.analysis import analyse
+    from warpwise.stress.combined import Loads, combined_stress
 
     prof = load_profile(SAMPLE)
     r = analyse(prof, materials=resolve([g.material for g in prof.regions]))

@@ -13,7 +13,7 @@ import pytest
 
 from warpwise import analyse
 from warpwise.errors import InputFileError, ProfileError, UsageError
-from warpwise.geometry import Arc
+from warpwise.geometry.profile import Arc
 from warpwise.io import load_profile
 from warpwise.io.chains import MAX_ARC_STEP, arcs_for_mesh, chain_pieces, line_piece
 from warpwise.io.dxf import import_dxf, read_drawing, read_dxf

@@ -1,9 +1,9 @@
 import numpy as np
 import pytest
 
-from warpwise.geometry import profile_from_loops
-from warpwise.mesh import build_mesh
-from warpwise.shapes import rectangle, tube
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import rectangle, tube
+from warpwise.mesh.core import build_mesh
 
 
 def test_mid_side_nodes_and_orientation():

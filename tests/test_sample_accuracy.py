@@ -9,8 +9,8 @@ target of 0.1% at the default mesh: measured widths 7e-6 ... 1.4e-3 over the sam
 import pytest
 
 from conftest import SAMPLES
-from warpwise.analysis import analyse
 from warpwise.io import load_profile
+from warpwise.properties.analysis import analyse
 
 FILES = sorted(p for p in SAMPLES.iterdir() if p.suffix in (".dxf", ".txt"))
 

@@ -13,11 +13,9 @@ import numpy as np
 import pytest
 import shapely
 
-from warpwise.analysis import analyse
-from warpwise.corners import reentrant_corners
 from warpwise.errors import ProfileError, UsageError
-from warpwise.mesh import boundary_edges, build_mesh
-from warpwise.shapes import (
+from warpwise.geometry.corners import reentrant_corners
+from warpwise.geometry.shapes import (
     SHAPE_KINDS,
     SHAPES,
     angle,
@@ -36,7 +34,9 @@ from warpwise.shapes import (
     tube,
     zed,
 )
-from warpwise.symmetry import symmetry_axes
+from warpwise.geometry.symmetry import symmetry_axes
+from warpwise.mesh.core import boundary_edges, build_mesh
+from warpwise.properties.analysis import analyse
 
 NAMES = ["rectangle", "round_bar", "tube", "rhs", "i_section", "channel", "angle", "tee", "zed",
          "lipped_channel", "hexagon", "keyed_shaft"]

@@ -2,11 +2,11 @@ import numpy as np
 import pytest
 from scipy.spatial import cKDTree
 
-from warpwise.analysis import analyse
-from warpwise.geometry import profile_from_loops
-from warpwise.mesh import build_mesh
-from warpwise.shapes import rectangle
-from warpwise.symmetry import symmetry_axes
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import rectangle
+from warpwise.geometry.symmetry import symmetry_axes
+from warpwise.mesh.core import build_mesh
+from warpwise.properties.analysis import analyse
 
 
 def equal_angle(b=50.0, t=5.0):

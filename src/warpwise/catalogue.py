@@ -135,10 +135,10 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
 
     This is the worker function of a catalogue (picklable, top level).
     """
-    from .accuracy import estimate_errors
-    from .analysis import analyse
     from .io import load_profile
     from .materials import resolve
+    from .properties.accuracy import estimate_errors
+    from .properties.analysis import analyse
     from .report.records import record_of
 
     start = time.perf_counter()

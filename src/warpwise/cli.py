@@ -16,22 +16,22 @@ from collections.abc import Sequence
 from dataclasses import replace
 from pathlib import Path
 
-from .accuracy import ACCURACY_LEVELS, estimate_errors, refinement_for
-from .adapt import refine_adaptively
-from .analysis import SectionResult, analyse
 from .catalogue import Outcome, RunOptions, collect_files, run_catalogue
-from .check import check_file, format_report, plot_report
-from .combined import Loads, combined_stress
 from .errors import UsageError, WarpwiseError
-from .geometry import LENGTH_UNITS, Profile
+from .fem.solve import METHODS
+from .geometry.profile import LENGTH_UNITS, Profile
+from .geometry.shapes import describe_shapes, shape_from_spec
 from .io import load_profile
+from .io.check import check_file, format_report, plot_report
 from .materials import BUILTIN, read_materials, resolve
+from .properties.accuracy import ACCURACY_LEVELS, estimate_errors, refinement_for
+from .properties.adapt import refine_adaptively
+from .properties.analysis import SectionResult, analyse
+from .properties.shear import DEFAULT_POISSON
 from .report.files import atomic_write, csv_text, json_text
 from .report.table import CAUTION, format_value, property_table
-from .shapes import describe_shapes, shape_from_spec
-from .shear import DEFAULT_POISSON
-from .solve import METHODS
-from .stress import shear_modulus, shear_stress
+from .stress.combined import Loads, combined_stress
+from .stress.recovery import shear_modulus, shear_stress
 
 EXIT_INPUT = 1
 EXIT_USAGE = 2

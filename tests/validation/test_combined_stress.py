@@ -19,13 +19,13 @@ import math
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.combined import Loads, combined_stress
-from warpwise.fem import integrate, interpolate
-from warpwise.geometry import Arc, profile_from_loops
+from warpwise.fem.p2 import integrate, interpolate
+from warpwise.geometry.profile import Arc, profile_from_loops
+from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
 from warpwise.materials import builtin_material, make_material
-from warpwise.shapes import ellipse_points, rectangle, round_bar
-from warpwise.stress import shear_stress, torsion_stress
+from warpwise.properties.analysis import analyse
+from warpwise.stress.combined import Loads, combined_stress
+from warpwise.stress.recovery import shear_stress, torsion_stress
 
 RTOL = 1e-12
 

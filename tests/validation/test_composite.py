@@ -19,12 +19,12 @@ import math
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
 from warpwise.errors import InputFileError, ProfileError, UsageError, WarpwiseError
-from warpwise.geometry import Arc, profile_from_loops
+from warpwise.geometry.profile import Arc, profile_from_loops
+from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
 from warpwise.materials import BUILTIN, builtin_material, make_material, read_materials
+from warpwise.properties.analysis import analyse
 from warpwise.report.quantities import values
-from warpwise.shapes import ellipse_points, rectangle, round_bar
 
 RTOL = 1e-13
 

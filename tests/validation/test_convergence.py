@@ -17,8 +17,8 @@ closed form is the exact J of the meshed domain.
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.shapes import polygon, rectangle
+from warpwise.geometry.shapes import polygon, rectangle
+from warpwise.properties.analysis import analyse
 
 
 def rectangle_J(long: float, short: float, terms: int = 2000) -> float:

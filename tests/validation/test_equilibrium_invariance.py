@@ -20,13 +20,13 @@ directions); the lipped channel is monosymmetric and the eccentric tube has curv
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.fem import gradient, interpolate
-from warpwise.geometry import Arc, profile_from_loops
-from warpwise.mesh import Mesh, build_mesh
-from warpwise.shapes import ellipse_points
-from warpwise.shear import shear_stress_at_nodes
-from warpwise.stress import shear_stress, torsion_stress
+from warpwise.fem.p2 import gradient, interpolate
+from warpwise.geometry.profile import Arc, profile_from_loops
+from warpwise.geometry.shapes import ellipse_points
+from warpwise.mesh.core import Mesh, build_mesh
+from warpwise.properties.analysis import analyse
+from warpwise.properties.shear import shear_stress_at_nodes
+from warpwise.stress.recovery import shear_stress, torsion_stress
 
 
 def solid(*loops, arcs=()):

@@ -34,8 +34,8 @@ errs on the safe side where it errs at all.
 import numpy as np
 import pytest
 
-from warpwise.accuracy import ACCURACY_LEVELS, estimate_errors
-from warpwise.shapes import ellipse, polygon, rectangle, tube
+from warpwise.geometry.shapes import ellipse, polygon, rectangle, tube
+from warpwise.properties.accuracy import ACCURACY_LEVELS, estimate_errors
 
 #: Both errors below this: converged (see the module docstring).
 CONVERGED = 2e-9

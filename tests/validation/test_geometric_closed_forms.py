@@ -18,8 +18,8 @@ whose quadratic form e^T M e is the second moment about an axis through the cent
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.shapes import polygon, rectangle, round_bar
+from warpwise.geometry.shapes import polygon, rectangle, round_bar
+from warpwise.properties.analysis import analyse
 
 RTOL = 1e-13
 

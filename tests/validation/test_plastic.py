@@ -28,12 +28,12 @@ import math
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.geometry import profile_from_loops
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
 from warpwise.materials import builtin_material, make_material
-from warpwise.plastic import plastic_properties
+from warpwise.properties.analysis import analyse
+from warpwise.properties.plastic import plastic_properties
 from warpwise.report.quantities import values
-from warpwise.shapes import ellipse_points, rectangle, round_bar
 
 RTOL = 1e-12
 

@@ -30,11 +30,9 @@ from dataclasses import dataclass
 import numpy as np
 import pytest
 
-from warpwise.fem import element_values
-from warpwise.geometry import Arc, profile_from_loops
-from warpwise.mesh import build_mesh
-from warpwise.section import geometric_properties
-from warpwise.shapes import (
+from warpwise.fem.p2 import element_values
+from warpwise.geometry.profile import Arc, profile_from_loops
+from warpwise.geometry.shapes import (
     angle,
     channel,
     hexagon,
@@ -48,6 +46,8 @@ from warpwise.shapes import (
     tube,
     zed,
 )
+from warpwise.mesh.core import build_mesh
+from warpwise.properties.section import geometric_properties
 
 PI = math.pi
 

@@ -16,10 +16,10 @@ bound at the thinnest wall; not by one loose tolerance.
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.geometry import profile_from_loops
-from warpwise.mesh import boundary_edges
-from warpwise.shapes import ellipse_points, rectangle, round_bar, tube
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar, tube
+from warpwise.mesh.core import boundary_edges
+from warpwise.properties.analysis import analyse
 
 #: Wall thickness over flange width for the thin-walled sequences.
 T_OVER_B = np.array([0.2, 0.1, 0.05, 0.025])

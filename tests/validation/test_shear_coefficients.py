@@ -13,10 +13,10 @@ beside each.
 import numpy as np
 import pytest
 
-from warpwise.analysis import analyse
-from warpwise.fem import gradient, interpolate
-from warpwise.shapes import rectangle, round_bar
-from warpwise.shear import shear_stress_at_nodes
+from warpwise.fem.p2 import gradient, interpolate
+from warpwise.geometry.shapes import rectangle, round_bar
+from warpwise.properties.analysis import analyse
+from warpwise.properties.shear import shear_stress_at_nodes
 
 B, H = 40.0, 20.0  # rectangle, width along x and height along y
 R = 10.0  # round bar radius

@@ -20,12 +20,12 @@ import scipy.sparse.linalg as spla
 from skfem import Basis, BilinearForm, ElementTriP2, Functional, LinearForm, MeshTri2
 from skfem.helpers import dot, grad
 
-from warpwise.analysis import analyse
-from warpwise.fem import element_values, stiffness_matrix
-from warpwise.geometry import profile_from_loops
-from warpwise.mesh import Mesh, build_mesh
-from warpwise.section import torsion_load
-from warpwise.shapes import rectangle, tube
+from warpwise.fem.p2 import element_values, stiffness_matrix
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import rectangle, tube
+from warpwise.mesh.core import Mesh, build_mesh
+from warpwise.properties.analysis import analyse
+from warpwise.properties.section import torsion_load
 
 # Tolerances (relative unless stated), with the reason for each. Measured agreement on these
 # meshes (500-1200 nodes): matrices 2e-14, areas 4e-15, psi 6e-14, shear centre 1e-13,

@@ -24,10 +24,10 @@ rate must fall back towards 4/3. Slopes are measured against the nominal size h 
 import numpy as np
 import pytest
 
-from warpwise.accuracy import estimate_errors
-from warpwise.analysis import analyse
-from warpwise.geometry import profile_from_loops
-from warpwise.shapes import polygon, rectangle
+from warpwise.geometry.profile import profile_from_loops
+from warpwise.geometry.shapes import polygon, rectangle
+from warpwise.properties.accuracy import estimate_errors
+from warpwise.properties.analysis import analyse
 
 REFINES = (0.5, 1.0, 2.0)  # the draft, normal and fine settings
 

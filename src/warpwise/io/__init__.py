@@ -11,7 +11,7 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from ..errors import UsageError
-from ..geometry import Profile
+from ..geometry.profile import Profile
 from .dxf import import_dxf, read_drawing, read_dxf
 from .outline import parse_outline, read_outline
 

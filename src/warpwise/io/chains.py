@@ -48,7 +48,8 @@ from scipy.spatial import cKDTree
 from shapely.geometry import LinearRing, Point, Polygon
 from shapely.validation import explain_validity
 
-from ..geometry import Arc, signed_area
+from ..geometry.loops import signed_area
+from ..geometry.profile import Arc
 
 _POINT_IN_TEXT = re.compile(r"\[\s*([-+0-9.eE]+)[\s,]+([-+0-9.eE]+)\s*\]")
 

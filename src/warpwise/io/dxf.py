@@ -48,8 +48,8 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import InputFileError, ProfileError, UsageError
-from ..geometry import LENGTH_UNITS, MAX_COORDINATE, Profile, profile_from_loops
-from ..mesh import DEFAULT_SIZE_FACTOR
+from ..geometry.loops import MAX_COORDINATE
+from ..geometry.profile import LENGTH_UNITS, Profile, default_element_size, profile_from_loops
 from .chains import (
     ERROR,
     WARNING,
@@ -1036,7 +1036,7 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     if chord_tolerance is not None:
         s = float(chord_tolerance)
     elif curved > 0:
-        h = mesh_size if mesh_size else DEFAULT_SIZE_FACTOR * math.sqrt(area)
+        h = mesh_size if mesh_size else default_element_size(area)
         s = choose_chord_tolerance([layout.loops[k] for k in picked], pieces, h)
     else:
         s = layout.tolerance

@@ -27,7 +27,7 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import InputFileError
-from ..geometry import LENGTH_UNITS, Profile, profile_from_loops
+from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
 
 #: Largest input file accepted, bytes.
 MAX_FILE_BYTES = 50 * 1024 * 1024

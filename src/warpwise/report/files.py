@@ -14,8 +14,8 @@ import tempfile
 from pathlib import Path
 from typing import Any
 
-from ..analysis import SectionResult
 from ..errors import UsageError
+from ..properties.analysis import SectionResult
 from .quantities import FORCE_UNITS, QUANTITIES, unit_of
 from .records import Record, record_of
 

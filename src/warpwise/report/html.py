@@ -30,10 +30,10 @@ from pathlib import Path
 import numpy as np
 
 from .. import __version__
-from ..analysis import SectionResult
-from ..combined import Loads, combined_stress
-from ..corners import reentrant_corners
-from ..stress import torsion_stress
+from ..geometry.corners import reentrant_corners
+from ..properties.analysis import SectionResult
+from ..stress.combined import Loads, combined_stress
+from ..stress.recovery import torsion_stress
 from .files import atomic_write
 from .plots import figure_outline, figure_torsion, figure_warping, profile_name, svg_text
 from .quantities import FORCE_UNITS, QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values

@@ -12,7 +12,7 @@ variation inside an element both show.
 Examples
 --------
 >>> from warpwise import analyse
->>> from warpwise.shapes import rectangle
+>>> from warpwise.geometry.shapes import rectangle
 >>> fig = figure_outline(analyse(rectangle(40.0, 20.0)), show_mesh=False)
 >>> svg_text(fig).startswith("<svg")
 True
@@ -36,11 +36,11 @@ from matplotlib.path import Path as MplPath
 from matplotlib.ticker import MaxNLocator
 from matplotlib.tri import Triangulation
 
-from ..analysis import SectionResult
-from ..combined import Loads, combined_stress
-from ..corners import exclusion_radius, reentrant_corners
 from ..errors import UsageError
-from ..stress import torsion_stress
+from ..geometry.corners import exclusion_radius, reentrant_corners
+from ..properties.analysis import SectionResult
+from ..stress.combined import Loads, combined_stress
+from ..stress.recovery import torsion_stress
 from .files import atomic_write
 from .quantities import FORCE_UNITS
 
@@ -570,7 +570,7 @@ def figure_combined(result: SectionResult, loads: Loads | Mapping[str, float], G
         An analysed section (with materials for a composite section).
     loads : Loads or mapping
         Section forces N, Mx, My, Vx, Vy (force, force x L) and T (force x L); see
-        :mod:`warpwise.combined` for signs. A mapping is turned into :class:`Loads`.
+        :mod:`warpwise.stress.combined` for signs. A mapping is turned into :class:`Loads`.
     G : float, optional
         Shear modulus of a geometry-only section, force / L^2 (only the twist rate uses it).
     quantity : str

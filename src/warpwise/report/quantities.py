@@ -11,7 +11,7 @@ from typing import Any
 
 import numpy as np
 
-from ..analysis import SectionResult
+from ..properties.analysis import SectionResult
 
 
 @dataclass(frozen=True)

@@ -8,8 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 
-from ..analysis import SectionResult
-from ..geometry import LENGTH_UNITS
+from ..geometry.profile import LENGTH_UNITS
+from ..properties.analysis import SectionResult
 from .quantities import DEG, QUANTITIES, values
 
 
@@ -78,7 +78,7 @@ class Record:
 
 def record_of(result: SectionResult) -> Record:
     """The record of an analysed section."""
-    from ..corners import reentrant_corners
+    from ..geometry.corners import reentrant_corners
     from .table import format_value
 
     notes = list(result.profile.notes)

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..analysis import SectionResult
-from ..corners import reentrant_corners
+from ..geometry.corners import reentrant_corners
+from ..properties.analysis import SectionResult
 from .quantities import QUANTITIES, error_of, unit_of, values
 
 CAUTION = ("Results support, and never replace, a check of the member to the applicable design "

@@ -52,8 +52,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .errors import ProfileError, UsageError
-from .geometry import Arc, Profile, profile_from_loops
+from ..errors import ProfileError, UsageError
+from .profile import Arc, Profile, profile_from_loops
 
 #: Largest chord sagitta of the polygon that approximates an arc, as a fraction of the
 #: profile's largest dimension. The mesh follows the true arc, so this only sets how finely the
@@ -65,7 +65,7 @@ ARC_SAGITTA = 1.0e-4
 
 #: Largest angle one chord of an arc may span, degrees. A concave fillet's tangent points then
 #: turn by at most half of it, well under the 10 degrees beyond which
-#: :func:`warpwise.corners.reentrant_corners` would take them for sharp corners.
+#: :func:`warpwise.geometry.corners.reentrant_corners` would take them for sharp corners.
 ARC_MAX_STEP_DEG = 15.0
 
 

@@ -18,9 +18,9 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
+from ..errors import UsageError
+from ..geometry.profile import Profile
 from .analysis import SectionResult, analyse
-from .errors import UsageError
-from .geometry import Profile
 from .shear import DEFAULT_POISSON
 
 #: Refinement factor of each accuracy setting (divides every local element size).

@@ -9,7 +9,7 @@ the profile's polygons (shapely clipping), so they are exact for straight-sided 
 
 Examples
 --------
->>> from warpwise.shapes import rectangle
+>>> from warpwise.geometry.shapes import rectangle
 >>> p = plastic_properties(rectangle(20.0, 10.0))
 >>> round(p.Wpl_x, 9), round(p.Wpl_y, 9)
 (500.0, 1000.0)
@@ -24,7 +24,7 @@ import numpy as np
 import shapely
 from shapely import affinity
 
-from .geometry import Profile
+from ..geometry.profile import Profile
 
 
 @dataclass(frozen=True)

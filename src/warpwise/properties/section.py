@@ -17,9 +17,9 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-from .fem import ElementValues, integrate, interpolate
-from .mesh import Mesh
-from .solve import PinnedSolver
+from ..fem.p2 import ElementValues, integrate, interpolate
+from ..fem.solve import PinnedSolver
+from ..mesh.core import Mesh
 
 
 @dataclass(frozen=True)

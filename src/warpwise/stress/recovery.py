@@ -11,10 +11,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .analysis import SectionResult
-from .corners import Corner, exclusion_radius, reentrant_corners
-from .errors import UsageError
-from .fem import nodal_gradient
+from ..errors import UsageError
+from ..fem.p2 import nodal_gradient
+from ..geometry.corners import Corner, exclusion_radius, reentrant_corners
+from ..properties.analysis import SectionResult
 
 
 @dataclass(frozen=True, eq=False)
@@ -266,7 +266,7 @@ def shear_stress(result: SectionResult, torque: float = 0.0, vx: float = 0.0, vy
     UsageError
         A torque without a shear modulus, or non-finite loads.
     """
-    from .shear import shear_stress_at_nodes
+    from ..properties.shear import shear_stress_at_nodes
 
     for name, v in (("torque", torque), ("shear force x", vx), ("shear force y", vy)):
         if not np.isfinite(v):

@@ -22,7 +22,7 @@ from dataclasses import dataclass
 import numpy as np
 import scipy.sparse as sp
 
-from .mesh import Mesh
+from ..mesh.core import Mesh
 
 
 @dataclass(frozen=True)
@@ -280,7 +280,7 @@ def stiffness_matrix(mesh: Mesh, ev: ElementValues,
 
     Examples
     --------
-    >>> from warpwise.shapes import rectangle
+    >>> from warpwise.geometry.shapes import rectangle
     >>> from warpwise.mesh import build_mesh
     >>> mesh = build_mesh(rectangle(2.0, 1.0), size=0.5)
     >>> K = stiffness_matrix(mesh, element_values(mesh))

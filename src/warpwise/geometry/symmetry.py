@@ -7,7 +7,7 @@ of to the discretisation error of an unsymmetric mesh.
 
 Examples
 --------
->>> from warpwise.shapes import rectangle
+>>> from warpwise.geometry.shapes import rectangle
 >>> [round(a.angle_deg) for a in symmetry_axes(rectangle(4.0, 2.0))]
 [0, 90]
 """
@@ -19,7 +19,8 @@ from dataclasses import dataclass
 import numpy as np
 import shapely
 
-from .geometry import Profile, Region, signed_area
+from .loops import signed_area
+from .profile import Profile, Region
 
 #: Relative area (to the profile's area) within which a mirrored profile counts as the same.
 SYMMETRY_TOLERANCE = 1e-9

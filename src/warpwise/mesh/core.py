@@ -7,7 +7,7 @@ elements through its thickness, and Triangle grades the interior from there (min
 
 Examples
 --------
->>> from warpwise.shapes import rectangle
+>>> from warpwise.geometry.shapes import rectangle
 >>> m = build_mesh(rectangle(20.0, 10.0), size=2.0)
 >>> m.elements.shape[1], bool(abs(m.area - 200.0) < 1e-9)
 (6, True)
@@ -22,13 +22,11 @@ import numpy as np
 import shapely
 from meshpy import triangle
 
-from .corners import reentrant_corners
-from .errors import ProfileError, UsageError
-from .geometry import Arc, Profile
-from .symmetry import cut, mirror_mesh, symmetry_axes
+from ..errors import ProfileError, UsageError
+from ..geometry.corners import reentrant_corners
+from ..geometry.profile import Arc, Profile, default_element_size
+from ..geometry.symmetry import cut, mirror_mesh, symmetry_axes
 
-#: Default largest element size as a fraction of sqrt(A) (J of a square within 2e-4 at this size).
-DEFAULT_SIZE_FACTOR = 0.125
 #: Elements through the local wall thickness at the boundary (at least two).
 ELEMENTS_ACROSS_WALL = 2.5
 #: Element size at a sharp re-entrant corner, as a fraction of the local size there.
@@ -120,7 +118,7 @@ class Mesh:
 
 def default_size(profile: Profile) -> float:
     """Default target element size for a profile: a fraction of sqrt(A), drawing unit."""
-    return DEFAULT_SIZE_FACTOR * float(np.sqrt(profile.area))
+    return default_element_size(profile.area)
 
 
 def _planar_graph(profile: Profile) -> tuple[np.ndarray, np.ndarray]:

@@ -22,7 +22,7 @@ import numpy as np
 import shapely
 from shapely.geometry.polygon import orient
 
-from .geometry import Profile
+from .profile import Profile
 
 #: Interior angle above which a corner counts as sharp and re-entrant, degrees.
 SHARP_ANGLE_DEG = 190.0

@@ -7,7 +7,7 @@ J_h - J = int |grad(psi - psi_h)|^2 dA, so sum(eta_e^2) / J estimates the relati
 directly; it steers the refinement: elements carrying the largest indicators (Doerfler marking,
 together half of the total) get their size halved (area limit a quarter). Refinement stops when
 the guaranteed bracket of J (warping upper bound, stress-function lower bound, see
-:mod:`warpwise.bounds`) is narrower than the requested tolerance, so the relative error of J on
+:mod:`warpwise.properties.bounds`) is narrower than the requested tolerance, so the relative error of J on
 the meshed domain is certainly below it.
 
 Examples
@@ -25,11 +25,11 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..errors import UsageError
+from ..fem.p2 import interpolate, nodal_gradient
+from ..geometry.profile import Profile
+from ..mesh.core import build_mesh, refine_mesh
 from .analysis import SectionResult, analyse
-from .errors import UsageError
-from .fem import interpolate, nodal_gradient
-from .geometry import Profile
-from .mesh import build_mesh, refine_mesh
 from .shear import DEFAULT_POISSON
 
 #: Fraction of the total indicator that the marked elements carry (Doerfler marking).

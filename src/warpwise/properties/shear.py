@@ -23,11 +23,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .fem import ElementValues, integrate, nodal_gradient
-from .materials import ElementMaterials
-from .mesh import Mesh
+from ..fem.p2 import ElementValues, integrate, nodal_gradient
+from ..fem.solve import PinnedSolver
+from ..materials import ElementMaterials
+from ..mesh.core import Mesh
 from .section import GeometricProperties
-from .solve import PinnedSolver
 
 #: Poisson's ratio used for shear properties when no material is given (steel and aluminium
 #: alloys lie at 0.30 and 0.33; common practice, no source).

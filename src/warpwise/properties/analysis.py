@@ -5,7 +5,7 @@ solve every right-hand side with the same factorisation.
 
 Examples
 --------
->>> from warpwise.shapes import rectangle
+>>> from warpwise.geometry.shapes import rectangle
 >>> res = analyse(rectangle(40.0, 20.0))
 >>> round(res.geometric.A, 6)
 800.0
@@ -19,12 +19,13 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
+from ..errors import AnalysisError
+from ..fem.p2 import ElementValues, element_values, integrate, stiffness_matrix
+from ..fem.solve import PinnedSolver
+from ..geometry.profile import Profile
+from ..materials import ElementMaterials, Material
+from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
-from .errors import AnalysisError
-from .fem import ElementValues, element_values, integrate, stiffness_matrix
-from .geometry import Profile
-from .materials import ElementMaterials, Material
-from .mesh import Mesh, build_mesh
 from .plastic import PlasticProperties, plastic_properties
 from .section import (
     GeometricProperties,
@@ -34,7 +35,6 @@ from .section import (
     torsion_properties,
 )
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
-from .solve import PinnedSolver
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
 MAX_RESIDUAL = 1e-8
@@ -69,7 +69,7 @@ class SectionResult:
     plastic : PlasticProperties or None
         Plastic moduli, neutral axes and moments.
     errors : dict of str to float or None
-        Estimated relative errors of the main values (see :mod:`warpwise.accuracy`), when an
+        Estimated relative errors of the main values (see :mod:`warpwise.properties.accuracy`), when an
         estimate was asked for.
 
     """
@@ -123,7 +123,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         Mesh refinement factor (see :func:`warpwise.mesh.build_mesh`).
     solver : str
         Linear solver: ``auto``, ``superlu``, ``pardiso`` or ``amg`` (see
-        :class:`warpwise.solve.SPDFactor`).
+        :class:`warpwise.fem.solve.SPDFactor`).
     bounds : bool
         Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
         (``torsion.J_low``; J itself is the upper bound).

@@ -11,7 +11,7 @@ Loads (any subset), in consistent units (N, N*mm with mm):
 Normal stress (Navier, unsymmetric bending, transformed section with E_ref):
 sigma_z = (E / E_ref) (N / A* + a x + b y), with a = (My Ix* - Mx Ixy*) / D*,
 b = (Mx Iy* - My Ixy*) / D*, D* = Ix* Iy* - Ixy*^2 about the modulus-weighted centroid.
-Shear stress: the torsion field plus the shear-function field (see :mod:`warpwise.shear`),
+Shear stress: the torsion field plus the shear-function field (see :mod:`warpwise.properties.shear`),
 each scaled by G / G_ref of the element's material. Von Mises: sqrt(sigma^2 + 3 tau^2).
 
 Stresses are recovered at the nodes separately for each material (so that a stress that jumps
@@ -26,11 +26,11 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from .analysis import SectionResult
-from .corners import exclusion_radius, reentrant_corners
-from .errors import UsageError
-from .fem import nodal_gradient
-from .shear import _h_field, _unit_loads
+from ..errors import UsageError
+from ..fem.p2 import nodal_gradient
+from ..geometry.corners import exclusion_radius, reentrant_corners
+from ..properties.analysis import SectionResult
+from ..properties.shear import _h_field, _unit_loads
 
 
 @dataclass(frozen=True)

@@ -32,11 +32,11 @@ from pathlib import Path
 
 import numpy as np
 
-from .errors import ProfileError, UsageError
-from .geometry import Profile
-from .io import is_dxf, read_outline
-from .io.chains import ERROR, Defect, fmt, fmt_point, loop_points
-from .io.dxf import DxfProfile, Layout, build_profile, lay_out, read_drawing
+from ..errors import ProfileError, UsageError
+from ..geometry.profile import Profile
+from . import is_dxf, read_outline
+from .chains import ERROR, Defect, fmt, fmt_point, loop_points
+from .dxf import DxfProfile, Layout, build_profile, lay_out, read_drawing
 
 #: Repairs made by ezdxf listed one by one in the report (the rest are counted).
 REPAIRS_SHOWN = 5
@@ -389,7 +389,7 @@ def plot_report(report: CheckReport, out: str | Path) -> None:
     matplotlib.use("Agg")
     from matplotlib.figure import Figure
 
-    from .report.files import atomic_write
+    from ..report.files import atomic_write
 
     fmt_name = Path(out).suffix.lower().lstrip(".")
     if fmt_name not in ("png", "pdf", "svg"):

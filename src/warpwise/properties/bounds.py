@@ -20,10 +20,10 @@ import numpy as np
 import scipy.sparse as sp
 from scipy.sparse.csgraph import connected_components
 
-from .errors import AnalysisError
-from .fem import ElementValues
-from .mesh import Mesh
-from .solve import SPDFactor
+from ..errors import AnalysisError
+from ..fem.p2 import ElementValues
+from ..fem.solve import SPDFactor
+from ..mesh.core import Mesh
 
 
 def _hole_areas(mesh: Mesh, bnodes: np.ndarray, which: np.ndarray, n_holes: int) -> np.ndarray:
@@ -94,7 +94,7 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
     stiffness : scipy.sparse.csr_matrix
         The Laplacian stiffness matrix of the mesh (the one of the warping problem).
     method : str
-        Linear solver (see :class:`warpwise.solve.SPDFactor`).
+        Linear solver (see :class:`warpwise.fem.solve.SPDFactor`).
 
     Returns
     -------

@@ -17,7 +17,7 @@ import numpy as np
 import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
-from .errors import AnalysisError, UsageError
+from ..errors import AnalysisError, UsageError
 
 #: Unknowns above which PARDISO is used when available.
 DIRECT_LARGE = 100_000
