@@ -131,7 +131,7 @@ motions = st.tuples(st.floats(0.0, 360.0), st.floats(-10.0, 10.0), st.floats(-10
 
 
 def moved_mesh(mesh, angle_deg=0.0, shift=(0.0, 0.0), scale=1.0):
-    """The mesh under the map of ``Profile.transformed`` (rotate, scale, shift)."""
+    """The mesh under the map of ``Profile.moved`` (rotate, scale, shift)."""
     c, s = np.cos(np.radians(angle_deg)), np.sin(np.radians(angle_deg))
     rot = np.array([[c, -s], [s, c]]) * scale
     return Mesh(mesh.nodes @ rot.T + np.asarray(shift, dtype=float), mesh.elements, mesh.region,
@@ -206,7 +206,7 @@ def test_rigid_motion_with_the_mesh_moved_alike(profile, motion):
     angle, sx, sy = motion
     shift = (sx * profile.size, sy * profile.size)
     a = analyse(profile)
-    b = analyse(profile.transformed(angle_deg=angle, shift=shift),
+    b = analyse(profile.moved(angle_deg=angle, shift=shift),
                 mesh=moved_mesh(a.mesh, angle, shift))
     ga, gb, ta, tb = a.geometric, b.geometric, a.torsion, b.torsion
     for key in ("A", "I1", "I2", "Ip"):
@@ -223,7 +223,7 @@ def test_rigid_motion_with_the_mesh_moved_alike(profile, motion):
 
 def check_remeshed(profile, angle, shift):
     a = analyse(profile)
-    b = analyse(profile.transformed(angle_deg=angle, shift=shift))
+    b = analyse(profile.moved(angle_deg=angle, shift=shift))
     ga, gb, ta, tb = a.geometric, b.geometric, a.torsion, b.torsion
     # A, I1, I2 of a polygon: straight-sided elements integrate x^2, x y, y^2 exactly, so any
     # mesh of the polygon gives the same sums up to round-off. Where the mesh follows arcs, the
@@ -269,7 +269,7 @@ def test_scaling_with_the_mesh_scaled_alike(profile, log_s):
     # Dimensions: A ~ L^2, I and J ~ L^4, Cw ~ L^6, points ~ L (common practice, no source).
     s = 10.0 ** log_s
     a = analyse(profile)
-    b = analyse(profile.transformed(scale=s), mesh=moved_mesh(a.mesh, scale=s))
+    b = analyse(profile.moved(scale=s), mesh=moved_mesh(a.mesh, scale=s))
     ga, gb, ta, tb = a.geometric, b.geometric, a.torsion, b.torsion
     assert close(gb.A, s ** 2 * ga.A, ROUND_OFF)
     for key in ("Ix", "Iy", "I1", "I2", "Ip"):
@@ -341,7 +341,7 @@ def test_torsion_stress_resultant_is_the_torque(profile, torque):
     # the P2 space) and int x dA = int y dA = 0: zero up to the solve's backward error. Both
     # sums cancel terms of size (T/J) Ip, so their round-off is relative to that.
     res = analyse(profile)
-    ev, J = res.values, res.torsion.J
+    ev, J = res.basis, res.torsion.J
     g = gradient(res.mesh, ev, res.torsion.psi)
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     tzx = torque / J * (g[..., 0] - y)

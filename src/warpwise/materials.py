@@ -61,6 +61,38 @@ class Material:
     source: str = ""
 
 
+#: Open interval of Poisson's ratios of an isotropic, stable elastic material (common practice,
+#: no source: E > 0 and G > 0 with bulk modulus > 0).
+POISSON_RANGE = (-1.0, 0.5)
+
+
+def check_poisson(nu: float, what: str = "Poisson's ratio", *, file: str | None = None) -> float:
+    """Return ``nu`` as a float when it lies in (-1, 0.5), else raise a UsageError.
+
+    Parameters
+    ----------
+    nu : float
+        Poisson's ratio (dimensionless).
+    what : str
+        How the value is named in the message.
+    file : str, optional
+        Source named in the message.
+
+    Examples
+    --------
+    >>> check_poisson(0.3)
+    0.3
+    >>> check_poisson(0.5)
+    Traceback (most recent call last):
+    ...
+    warpwise.errors.UsageError: Poisson's ratio must lie in (-1, 0.5), got 0.5
+    """
+    lo, hi = POISSON_RANGE
+    if isinstance(nu, bool) or not isinstance(nu, (int, float, np.floating)) or not lo < nu < hi:
+        raise UsageError(f"{what} must lie in ({lo:g}, {hi:g}), got {nu}", file=file)
+    return float(nu)
+
+
 def make_material(name: str, E: float, nu: float | None = None, G: float | None = None,
                   fy: float | None = None, density: float | None = None, source: str = "",
                   where: str | None = None) -> Material:
@@ -92,15 +124,14 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
     if nu is None and G is None:
         raise bad("give Poisson's ratio nu or the shear modulus G")
     if G is None:
-        if not -1.0 < nu < 0.5:
-            raise bad(f"Poisson's ratio must lie in (-1, 0.5), got {nu}")
+        check_poisson(nu, f"material {name!r}: Poisson's ratio", file=where)
         G = E / (2.0 * (1.0 + nu))
     elif nu is None:
         nu = E / (2.0 * G) - 1.0
     if not G > 0:
         raise bad(f"G must be positive, got {G}")
-    if not -1.0 < nu < 0.5:
-        raise bad(f"E and G give Poisson's ratio {nu:.3f}, outside (-1, 0.5)")
+    check_poisson(nu, f"material {name!r}: the Poisson's ratio E / (2 G) - 1 given by E and G",
+                  file=where)
     if fy is not None and not fy > 0:
         raise bad(f"fy must be positive, got {fy}")
     if density is not None and not density > 0:

@@ -99,11 +99,11 @@ def test_navier_unequal_angle(angle_result):
     # (3) the stress resultants are the loads (sigma is linear: P2 integration is exact)
     full = np.full(res.mesh.n_nodes, np.nan)
     full[ms.nodes] = ms.sigma
-    sq = interpolate(res.mesh, res.values, full)
-    x, y = res.values.xy[..., 0], res.values.xy[..., 1]
-    assert integrate(res.values, sq) == pytest.approx(L.N, rel=RTOL)
-    assert integrate(res.values, sq * y) == pytest.approx(L.Mx, rel=RTOL)
-    assert integrate(res.values, sq * x) == pytest.approx(L.My, rel=RTOL)
+    sq = interpolate(res.mesh, res.basis, full)
+    x, y = res.basis.xy[..., 0], res.basis.xy[..., 1]
+    assert integrate(res.basis, sq) == pytest.approx(L.N, rel=RTOL)
+    assert integrate(res.basis, sq * y) == pytest.approx(L.Mx, rel=RTOL)
+    assert integrate(res.basis, sq * x) == pytest.approx(L.My, rel=RTOL)
 
 
 def test_navier_rotated_rectangle_principal_frame():
@@ -113,7 +113,7 @@ def test_navier_rotated_rectangle_principal_frame():
     # I_xi = h b^3 / 12, I_eta = b h^3 / 12 (Gere, bending about principal axes; from memory).
     # No warpwise property enters the reference.
     b, h, phi, shift = 30.0, 80.0, 25.0, np.array([4.0, -2.0])
-    res = analyse(rectangle(b, h).transformed(angle_deg=phi, shift=tuple(shift)))
+    res = analyse(rectangle(b, h).moved(angle_deg=phi, shift=tuple(shift)))
     assert abs(res.geometric.Ixy) > 0.1 * res.geometric.Iy
     L = Loads(N=-5e3, Mx=2.0e6, My=0.7e6)
     ms, = combined_stress(res, L).by_material

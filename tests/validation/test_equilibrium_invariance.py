@@ -48,7 +48,7 @@ STRAIGHT = [name for name in PROFILES if name != "eccentric tube"]
 
 def flexure_stress_at_points(res, vx, vy):
     """tau = grad(Theta) - h at the quadrature points (m, q, 2), per shear.py (Pilkey 2002)."""
-    geo, ev, nu = res.geometric, res.values, res.shear.poisson
+    geo, ev, nu = res.geometric, res.basis, res.shear.poisson
     D = geo.Ix * geo.Iy - geo.Ixy**2
     a = (geo.Ix * vx - geo.Ixy * vy) / D
     b = (geo.Iy * vy - geo.Ixy * vx) / D
@@ -61,7 +61,7 @@ def flexure_stress_at_points(res, vx, vy):
 
 def resultants(res, zx, zy):
     """Force (Fx, Fy) and torque about the centroid of a stress field at the points."""
-    ev = res.values
+    ev = res.basis
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     return (float(np.sum(ev.dA * zx)), float(np.sum(ev.dA * zy)),
             float(np.sum(ev.dA * (x * zy - y * zx))))
@@ -88,7 +88,7 @@ def test_flexure_stress_resultant(name, nu):
     #    checks the drawing-coordinate bookkeeping): measured <= 2.5e-16 |V| size, bound 1e-11.
     profile = PROFILES[name]()
     res = analyse(profile, poisson=nu)
-    ev, mesh, size = res.values, res.mesh, profile.size
+    ev, mesh, size = res.basis, res.mesh, profile.size
     centre = np.array(res.shear.shear_centre) - np.array(res.geometric.centroid)
     nodal_tol = 1e-11 if name in STRAIGHT else 5e-8
     for vx, vy in [(1.0, 0.0), (0.0, 1.0), (300.0, -700.0)]:
@@ -127,7 +127,7 @@ def test_torsion_stress_resultant(name):
     for factor in (1.0, 0.5):
         h = None if factor == 1.0 else factor * build_mesh(profile).size
         res = analyse(profile, mesh_size=h)
-        ev, mesh, tor = res.values, res.mesh, res.torsion
+        ev, mesh, tor = res.basis, res.mesh, res.torsion
         F0 = T / tor.J * res.geometric.Ip / size
         x, y = ev.xy[..., 0], ev.xy[..., 1]
         g = gradient(mesh, ev, tor.psi)
@@ -155,7 +155,7 @@ def test_combined_shear_stress_resultant(name):
     T, vx, vy, G = 2.0e5, 1500.0, -2500.0, 26000.0
     F0 = T / res.torsion.J * res.geometric.Ip / profile.size
     out = shear_stress(res, torque=T, vx=vx, vy=vy, G=G)
-    mesh, ev = res.mesh, res.values
+    mesh, ev = res.mesh, res.basis
     fx, fy, torque = resultants(res, interpolate(mesh, ev, out.tau_zx),
                                 interpolate(mesh, ev, out.tau_zy))
     tol = 1e-11 * np.hypot(vx, vy) + 1e-10 * F0
@@ -211,7 +211,7 @@ def test_invariance_with_moved_mesh(name):
     for angle_deg, shift in MOTIONS:
         R, shift = rotation(angle_deg), np.asarray(shift)
         moved = Mesh(mesh.nodes @ R.T + shift, mesh.elements, mesh.region, mesh.size)
-        res = analyse(profile.transformed(angle_deg=angle_deg, shift=tuple(shift)), mesh=moved)
+        res = analyse(profile.moved(angle_deg=angle_deg, shift=tuple(shift)), mesh=moved)
         trefftz, elastic = moved_centres(base, R, shift)
         assert np.hypot(*(np.array(res.torsion.shear_centre) - trefftz)) < 1e-9 * size
         assert np.hypot(*(np.array(res.shear.shear_centre) - elastic)) < 1e-9 * size
@@ -242,7 +242,7 @@ def test_invariance_with_new_mesh(name):
               "I1": 1e-11, "I2": 1e-11}
     for angle_deg, shift in MOTIONS:
         R, shift = rotation(angle_deg), np.asarray(shift)
-        res = analyse(profile.transformed(angle_deg=angle_deg, shift=tuple(shift)))
+        res = analyse(profile.moved(angle_deg=angle_deg, shift=tuple(shift)))
         trefftz, elastic = moved_centres(base, R, shift)
         assert np.hypot(*(np.array(res.torsion.shear_centre) - trefftz)) < 1e-4 * size
         assert np.hypot(*(np.array(res.shear.shear_centre) - elastic)) < 1e-4 * size
@@ -257,7 +257,7 @@ def test_rotated_symmetric_profile_keeps_centre_on_axis(angle_deg):
     # its (now inclined) axis, so both shear centres lie on the turned axis to round-off
     # (common practice, no source: the shear centre lies on every axis of symmetry).
     # Measured <= 2.0e-13 of the size; bound 1e-12.
-    profile = PROFILES["lipped channel"]().transformed(angle_deg=angle_deg, shift=(3.0, 4.0))
+    profile = PROFILES["lipped channel"]().moved(angle_deg=angle_deg, shift=(3.0, 4.0))
     res = analyse(profile)
     a = np.radians(angle_deg)
     normal = np.array([-np.sin(a), np.cos(a)])

@@ -99,7 +99,7 @@ def test_rectangle(mesh_size):
     # rectangle b x h (common practice): A = b h, Ix = b h^3 / 12, Iy = h b^3 / 12, Ixy = 0;
     # wider than tall, so the major axis 1 is the y axis (alpha = 90) and x_top = h / 2.
     b, h, shift = 40.0, 20.0, (3.0, -7.0)
-    prof = rectangle(b, h).transformed(shift=shift)
+    prof = rectangle(b, h).moved(shift=shift)
     res = analyse(prof, mesh_size)
     verts = prof.regions[0].outer
     check_all(res, verts, b * h, shift, b * h**3 / 12, h * b**3 / 12, 0.0)
@@ -117,7 +117,7 @@ def test_rotated_rectangle_principal_axes(angle):
     # (common practice). Axis 1 (major, along the rectangle's short direction) lies at
     # angle + 90 degrees, reported in (-90, 90].
     b, h = 40.0, 20.0
-    prof = rectangle(b, h).transformed(angle_deg=angle, shift=(11.0, 5.0))
+    prof = rectangle(b, h).moved(angle_deg=angle, shift=(11.0, 5.0))
     res = analyse(prof)
     c, s = np.cos(np.radians(angle)), np.sin(np.radians(angle))
     R = np.array([[c, -s], [s, c]])

@@ -81,7 +81,7 @@ def test_rectangle_rotated_and_shifted_principal_moduli():
     # across the long side, so bending about it has lever arms along the long side:
     # Wpl_1 = 10 * 40^2 / 4 and Wpl_2 = 40 * 10^2 / 4 (exact geometry).
     long, short = 40.0, 10.0
-    res = analyse(rectangle(long, short).transformed(angle_deg=30.0, shift=(5.0, 3.0)))
+    res = analyse(rectangle(long, short).moved(angle_deg=30.0, shift=(5.0, 3.0)))
     assert abs(res.geometric.alpha_deg - (-60.0)) < 1e-9
     assert rel(res.plastic.Wpl_1, short * long**2 / 4) < RTOL
     assert rel(res.plastic.Wpl_2, long * short**2 / 4) < RTOL
@@ -130,7 +130,7 @@ def test_doubly_symmetric_i_section():
     assert rel(p.Wpl_1, wx) < RTOL and rel(p.Wpl_2, wy) < RTOL  # alpha = 0
     assert abs(p.pna_x) < RTOL * h and abs(p.pna_y) < RTOL * h
     # the moduli do not depend on where the section is drawn; the PNA moves with it
-    q = plastic_properties(prof.transformed(shift=(13.0, -7.0)))
+    q = plastic_properties(prof.moved(shift=(13.0, -7.0)))
     assert rel(q.Wpl_x, wx) < RTOL and rel(q.Wpl_y, wy) < RTOL
     assert abs(q.pna_x - 13.0) < RTOL * h and abs(q.pna_y + 7.0) < RTOL * h
 

@@ -104,7 +104,7 @@ def test_doubly_symmetric_centre_at_centroid(name, shift):
     # The mesher meshes one quarter and mirrors it, so this holds to round-off, not to the
     # discretisation error. Measured: at most 1.1e-14 of the size for the shear centres and
     # 2e-14 for the Wagner constants (I-section); bound 1e-12 of the size.
-    profile = DOUBLY_SYMMETRIC[name]().transformed(shift=shift)
+    profile = DOUBLY_SYMMETRIC[name]().moved(shift=shift)
     res = run(profile)
     size = profile.size
     tol = 1e-12 * size

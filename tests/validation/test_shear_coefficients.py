@@ -120,7 +120,7 @@ def test_rectangle_nu0_parabolic_field():
     #    4e-5 of C), and C_h moves to first order with the round-off of the solve, so the
     #    identity is checked against C: measured within 3e-14 C; bound 1e-12 C.
     res = analyse(rectangle(B, H), poisson=0.0)
-    ev = res.values
+    ev = res.basis
     A = B * H
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     peak = 1.5 / A
@@ -175,7 +175,7 @@ def test_circle_kappa_with_poisson(nu):
     for kappa in (s.kappa_x, s.kappa_y, s.kappa_1, s.kappa_2):
         assert rel(kappa, circle_kappa(nu)) == pytest.approx(0.0, abs=2e-5)
     assert s.flexibility[0, 1] == pytest.approx(0.0, abs=1e-9 * s.flexibility[0, 0])
-    ev = res.values
+    ev = res.basis
     x, y = ev.xy[..., 0], ev.xy[..., 1]
     a, c = 1.0 / res.geometric.Iy, nu / (2.0 * (1.0 + nu))  # unit Vx: d(sigma_z)/dz = x / Iy
     hx, hy = c * a * 0.5 * (x * x - y * y), c * a * x * y
@@ -197,7 +197,7 @@ def test_circle_flexure_stress_field(nu):
     # error would be 0.41 (nu = 0) and 0.50 (0.3). Bound 1.5 x measured (P2 stresses at this
     # mesh; the nodal averaging adds to the quadrature-point error).
     res = analyse(round_bar(2 * R), poisson=nu)
-    mesh, ev = res.mesh, res.values
+    mesh, ev = res.mesh, res.basis
     nodal = shear_stress_at_nodes(mesh, res.geometric, res.shear, 1.0, 0.0)
     zx, zy = interpolate(mesh, ev, nodal[:, 0]), interpolate(mesh, ev, nodal[:, 1])
     ex, ey = circle_flexure_field(ev.xy[..., 0], ev.xy[..., 1], nu)

@@ -16,7 +16,7 @@ Examples
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 import shapely
@@ -38,6 +38,9 @@ class Corner:
         Location, drawing coordinates.
     angle_deg : float
         Interior angle on the material side, degrees (> 180).
+    radius : float
+        Radius around the corner within which the singular stress is left out of reported
+        maxima (see :func:`exclusion_radius`), drawing unit; 0 when not measured.
     exponent : float
         Stress singularity exponent pi/alpha - 1 (the stress grows as r to this power).
     """
@@ -45,6 +48,7 @@ class Corner:
     x: float
     y: float
     angle_deg: float
+    radius: float = 0.0
 
     @property
     def exponent(self) -> float:
@@ -52,7 +56,8 @@ class Corner:
         return 180.0 / self.angle_deg - 1.0
 
 
-def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> list[Corner]:
+def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG, *,
+                      measure: bool = True) -> list[Corner]:
     """Corners of the material outline with an interior angle above ``sharp_deg``.
 
     Interfaces between materials are not free boundaries and are not searched; vertices of the
@@ -64,6 +69,9 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> l
         The profile.
     sharp_deg : float
         Interior angle threshold, degrees.
+    measure : bool
+        Also measure each corner's exclusion radius (``Corner.radius``); the mesher, which
+        needs only the locations, leaves it out.
 
     Returns
     -------
@@ -91,6 +99,8 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG) -> l
                 sharp &= ~on
             for k in np.flatnonzero(sharp):
                 found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))
+    if measure:
+        found = [replace(c, radius=exclusion_radius(profile, c)) for c in found]
     return found
 
 

@@ -177,7 +177,14 @@ class Profile:
         """Union of all regions (material outline, interfaces dissolved) as shapely geometry."""
         return shapely.union_all([r.polygon for r in self.regions])
 
-    def transformed(
+    def transformed(self, **kwargs: object) -> Profile:
+        """Deprecated name of :meth:`moved` (kept for one release)."""
+        import warnings
+
+        warnings.warn("Profile.transformed is now Profile.moved", DeprecationWarning, stacklevel=2)
+        return self.moved(**kwargs)  # type: ignore[arg-type]
+
+    def moved(
         self, *, angle_deg: float = 0.0, shift: tuple[float, float] = (0.0, 0.0), scale: float = 1.0
     ) -> Profile:
         """Return a copy rotated about the origin, then scaled, then shifted.

@@ -17,6 +17,7 @@ Examples
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 import shapely
@@ -26,6 +27,7 @@ from ..errors import ProfileError, UsageError
 from ..geometry.corners import reentrant_corners
 from ..geometry.profile import Arc, Profile, default_element_size
 from ..geometry.symmetry import cut, mirror_mesh, symmetry_axes
+from .edges import Edges, mesh_edges
 
 #: Elements through the local wall thickness at the boundary (at least two).
 ELEMENTS_ACROSS_WALL = 2.5
@@ -87,7 +89,7 @@ class Mesh:
         Index (m,) into ``Profile.regions`` of the region each element belongs to.
     size : float
         Target element size used, drawing unit.
-    linear : Triangulation or None
+    triangulation : Triangulation or None
         The three-node triangulation the mesh was made from (for local refinement).
 
     """
@@ -96,7 +98,20 @@ class Mesh:
     elements: np.ndarray
     region: np.ndarray
     size: float
-    linear: Triangulation | None = None
+    triangulation: Triangulation | None = None
+
+    @cached_property
+    def edges(self) -> Edges:
+        """Unique edges, element-to-edge map, boundary and interface edges (derived once)."""
+        return mesh_edges(self.elements, self.region)
+
+    @property
+    def linear(self) -> Triangulation | None:
+        """Deprecated name of :attr:`triangulation` (kept for one release)."""
+        import warnings
+
+        warnings.warn("Mesh.linear is now Mesh.triangulation", DeprecationWarning, stacklevel=2)
+        return self.triangulation
 
     @property
     def n_nodes(self) -> int:
@@ -283,12 +298,10 @@ def _grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_c
 
 def _to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Add mid-side nodes to three-node triangles, vectorised over unique edges."""
-    edges = tris[:, [0, 1, 1, 2, 2, 0]].reshape(-1, 2)
-    key = np.sort(edges, axis=1)
-    uniq, inverse = np.unique(key, axis=0, return_inverse=True)
-    inverse = inverse.reshape(-1)
-    mids = 0.5 * (nodes[uniq[:, 0]] + nodes[uniq[:, 1]])
-    mid_idx = (len(nodes) + inverse).reshape(-1, 3)
+    edges = mesh_edges(tris)
+    a, b = edges.nodes[:, 0], edges.nodes[:, 1]
+    mids = 0.5 * (nodes[a] + nodes[b])
+    mid_idx = len(nodes) + edges.of_element
     return np.vstack([nodes, mids]), np.hstack([tris, mid_idx]).astype(np.int64)
 
 
@@ -336,7 +349,7 @@ def _triangulate(part: Profile, full: Profile, h: float, min_angle: float, acros
                     floor * across)
     _check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)
     pts, sub = _split_segments(pts, sub, np.minimum(h, t2 / across))
-    corners = reentrant_corners(full)
+    corners = reentrant_corners(full, measure=False)
     if corners:
         cxy = np.array([(c.x, c.y) for c in corners])
         # size at the corner: a fraction of the local size there (wall thickness or h)
@@ -387,23 +400,10 @@ def boundary_edges(elements: np.ndarray, region: np.ndarray | None = None) -> np
     """Boundary edges of a six-node mesh as rows (corner a, corner b, mid-side node).
 
     With ``region`` (element region indices), edges between two regions are included once.
+    See :func:`warpwise.mesh.edges.mesh_edges`; :attr:`Mesh.edges` keeps them for a mesh.
     """
-    local = np.array([[0, 1, 3], [1, 2, 4], [2, 0, 5]])
-    edges = elements[:, local].reshape(-1, 3)
-    key = np.sort(edges[:, :2], axis=1)
-    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
-    inverse = inverse.reshape(-1)
-    pick = counts[inverse] == 1
-    if region is not None:
-        owner = np.repeat(region, 3)
-        lo = np.full(len(counts), np.iinfo(np.int64).max)
-        np.minimum.at(lo, inverse, owner)
-        hi = np.full(len(counts), -1)
-        np.maximum.at(hi, inverse, owner)
-        first = np.zeros(len(edges), bool)
-        first[np.unique(inverse, return_index=True)[1]] = True
-        pick |= (lo[inverse] != hi[inverse]) & first
-    return edges[pick]
+    edges = mesh_edges(elements, region)
+    return edges.nodes[edges.outline_and_interfaces]
 
 
 def follow_arcs(nodes: np.ndarray, elements: np.ndarray, arcs: tuple[Arc, ...],
@@ -542,16 +542,7 @@ def _quadratic_mesh(tri: Triangulation, region: np.ndarray, h: float) -> Mesh:
 
 def _segments_of(tris: np.ndarray, region: np.ndarray) -> np.ndarray:
     """Boundary edges and edges between regions of a three-node triangulation."""
-    edges = tris[:, [0, 1, 1, 2, 2, 0]].reshape(-1, 2)
-    key = np.sort(edges, axis=1)
-    owner = np.repeat(region, 3)
-    uniq, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
-    inverse = inverse.reshape(-1)
-    lo = np.full(len(uniq), np.iinfo(np.int64).max)
-    hi = np.full(len(uniq), -1)
-    np.minimum.at(lo, inverse, owner)
-    np.maximum.at(hi, inverse, owner)
-    return uniq[(counts == 1) | (lo != hi)]
+    return boundary_edges(tris, region)[:, :2]
 
 
 def refine_mesh(mesh: Mesh, max_area: np.ndarray, *, min_angle: float = 30.0) -> Mesh:
@@ -562,7 +553,7 @@ def refine_mesh(mesh: Mesh, max_area: np.ndarray, *, min_angle: float = 30.0) ->
     mesh : Mesh
         A mesh made by :func:`build_mesh`.
     max_area : numpy.ndarray
-        Largest area (t,) allowed in each triangle of ``mesh.linear`` (the first t elements of
+        Largest area (t,) allowed in each triangle of ``mesh.triangulation`` (the first t elements of
         the mesh; mirrored copies follow them), drawing unit squared; a value <= 0 sets none.
     min_angle : float
         Smallest angle, degrees.
@@ -572,7 +563,7 @@ def refine_mesh(mesh: Mesh, max_area: np.ndarray, *, min_angle: float = 30.0) ->
     Mesh
         The refined six-node mesh, mirrored and on the arcs like the original.
     """
-    tri = mesh.linear
+    tri = mesh.triangulation
     if tri is None:
         raise UsageError("this mesh was not made by build_mesh and cannot be refined")
     info = triangle.MeshInfo()

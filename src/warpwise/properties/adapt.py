@@ -59,7 +59,7 @@ class AdaptiveRun:
 
 def warping_indicator(result: SectionResult) -> np.ndarray:
     """Recovered-gradient indicator eta_e^2 (m,) of the warping solution, L^4 per element."""
-    mesh, ev = result.mesh, result.values
+    mesh, ev = result.mesh, result.basis
     psi = result.torsion.psi
     g = nodal_gradient(mesh, psi)
     grad_h = np.einsum("mk,mqki->mqi", psi[mesh.elements], ev.grad)
@@ -99,7 +99,7 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
         history.append((mesh.n_nodes, J, estimate, float(eta2.sum() / J)))
         if estimate <= tolerance:
             break
-        t = len(mesh.linear.triangles)
+        t = len(mesh.triangulation.triangles)
         part = eta2[:t]  # the meshed part; mirrored copies carry the same values
         order = np.argsort(part)[::-1]
         share = np.cumsum(part[order]) / part.sum()

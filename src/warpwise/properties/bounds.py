@@ -28,11 +28,7 @@ from ..mesh.core import Mesh
 
 def _hole_areas(mesh: Mesh, bnodes: np.ndarray, which: np.ndarray, n_holes: int) -> np.ndarray:
     """Area enclosed by each hole loop of the mesh (curved edges as their chords), L^2."""
-    local = np.array([[0, 3, 1], [1, 4, 2], [2, 5, 0]])
-    edges = mesh.elements[:, local].reshape(-1, 3)
-    key = np.sort(edges[:, [0, 2]], axis=1)
-    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
-    bnd = edges[counts[inverse.reshape(-1)] == 1]
+    bnd = mesh.edges.nodes[mesh.edges.boundary][:, [0, 2, 1]]  # corner, mid-side, corner
     hole = np.full(mesh.n_nodes, -1)
     hole[bnodes] = which
     h = hole[bnd[:, 0]]
@@ -54,11 +50,7 @@ def boundary_loops(mesh: Mesh) -> tuple[np.ndarray, np.ndarray, int]:
     loops; a loop enclosing positive area is an outer boundary, negative area a hole. This
     uses the mesh alone (no geometric tolerance), so curved boundaries are classified as well.
     """
-    local = np.array([[0, 1, 3], [1, 2, 4], [2, 0, 5]])
-    edges3 = mesh.elements[:, local].reshape(-1, 3)
-    key = np.sort(edges3[:, :2], axis=1)
-    _, inverse, counts = np.unique(key, axis=0, return_inverse=True, return_counts=True)
-    bnd3 = edges3[counts[inverse.reshape(-1)] == 1]
+    bnd3 = mesh.edges.nodes[mesh.edges.boundary]  # corner a, corner b, mid-side node
     bnd = bnd3[:, :2]
     nodes = np.unique(bnd3)  # corners and mid-side nodes of the boundary edges
     n = mesh.n_nodes

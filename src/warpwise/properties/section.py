@@ -233,11 +233,11 @@ def torsion_properties(
     Ip_G = integrate(evc, x * x + y * y, wG)
     J = Ip_G - float(psi @ load)
     psi_q = interpolate(mesh, evc, psi)
-    Ipx, Ipy = integrate(evc, psi_q * x, wE), integrate(evc, psi_q * y, wE)
+    I_psi_x, I_psi_y = integrate(evc, psi_q * x, wE), integrate(evc, psi_q * y, wE)
     # Trefftz: omega = psi - y0 x + x0 y is orthogonal to x and y
     det = geo.Ix * geo.Iy - geo.Ixy**2
-    x0 = (geo.Ixy * Ipx - geo.Iy * Ipy) / det
-    y0 = (geo.Ix * Ipx - geo.Ixy * Ipy) / det
+    x0 = (geo.Ixy * I_psi_x - geo.Iy * I_psi_y) / det
+    y0 = (geo.Ix * I_psi_x - geo.Ixy * I_psi_y) / det
     local = mesh.nodes - np.array(geo.centroid)
     omega = psi - y0 * local[:, 0] + x0 * local[:, 1]
     omega = zero_mean(mesh, evc, omega, geo.A, wE)

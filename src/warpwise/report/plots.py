@@ -282,7 +282,7 @@ def _mark_centroid(ax: object, result: SectionResult) -> list[Line2D]:
     handles = [Line2D([], [], marker="o", ms=7, mfc=CENTROID_COLOUR, mec="white", ls="none",
                       label=f"C: centroid ({_fmt(xc)}, {_fmt(yc)}) {result.units}")]
     if result.composite:
-        xe, ye = result.transformed.centroid
+        xe, ye = result.weighted.centroid
         ax.plot([xe], [ye], marker="o", ms=8, mfc="none", mec=CENTROID_COLOUR, mew=1.4, ls="none",
                 zorder=8, gid="elastic-centroid")
         handles.append(Line2D([], [], marker="o", ms=8, mfc="none", mec=CENTROID_COLOUR, mew=1.4,

@@ -234,14 +234,14 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     m = result.materials
     if m.E_ref is None:
         return dict.fromkeys(keys, nan)
-    t, tor, pl = result.transformed, result.torsion, result.plastic
+    t, tor, pl = result.weighted, result.torsion, result.plastic
     E, G = m.E_ref, m.G_ref
     metre = {"mm": 1e-3, "cm": 1e-2, "m": 1.0, "in": 0.0254}[result.units]
     regions = result.profile.regions
     mats = list(m.materials) if len(m.materials) == len(regions) else [m.materials[0]] * len(regions)
     if all(x.density is not None for x in mats):
         # areas of the meshed regions (curved edges included), not of the polygons
-        ev = result.values
+        ev = result.basis
         area = np.bincount(result.mesh.region, weights=ev.dA.sum(axis=1), minlength=len(regions))
         mass = float(sum(x.density * a * metre**2 for x, a in zip(mats, area, strict=True)))
     else:

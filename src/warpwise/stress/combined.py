@@ -141,7 +141,7 @@ def combined_stress(result: SectionResult, loads: Loads, G: float | None = None)
     CombinedStress
     """
     loads.check()
-    mesh, tr, mats = result.mesh, result.transformed, result.materials
+    mesh, tr, mats = result.mesh, result.weighted, result.materials
     local = mesh.nodes - np.array(tr.centroid)
     x, y = local[:, 0], local[:, 1]
     D = tr.Ix * tr.Iy - tr.Ixy**2

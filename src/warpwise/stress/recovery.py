@@ -208,7 +208,7 @@ def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStr
     """
     if not np.isfinite(torque):
         raise UsageError(f"torque must be a finite number, got {torque}")
-    mesh, tor, geo = result.mesh, result.torsion, result.transformed
+    mesh, tor, geo = result.mesh, result.torsion, result.weighted
     local = mesh.nodes - np.array(geo.centroid)
     scale = torque / tor.J
     mats = result.materials
@@ -283,7 +283,7 @@ def shear_stress(result: SectionResult, torque: float = 0.0, vx: float = 0.0, vy
         t_zx, t_zy, tau_t, twist = ts.tau_zx, ts.tau_zy, ts.tau_max, ts.twist_rate
     elif G is not None:
         twist = 0.0
-    v = shear_stress_at_nodes(result.mesh, result.transformed, result.shear, vx, vy)
+    v = shear_stress_at_nodes(result.mesh, result.weighted, result.shear, vx, vy)
     tau_v = peak_stress(result, np.hypot(v[:, 0], v[:, 1]))[0]
     zx, zy = t_zx + v[:, 0], t_zy + v[:, 1]
     tau = np.hypot(zx, zy)

@@ -1,0 +1,118 @@
+"""Section forces and the shear modulus that turns a torque into a twist.
+
+Loads (any subset), in consistent units (N, N*mm with mm):
+
+- N: axial force, positive in tension, through the modulus-weighted centroid;
+- Mx: bending moment about the x axis, positive when it puts fibres at +y in tension;
+- My: bending moment about the y axis, positive when it puts fibres at +x in tension;
+- Vx, Vy: shear forces through the elastic shear centre;
+- T: torque about the shear centre.
+
+Examples
+--------
+>>> Loads(T=1000.0).check()
+>>> Loads().check()
+Traceback (most recent call last):
+...
+warpwise.errors.UsageError: no load given (N, Mx, My, Vx, Vy or T)
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, fields
+
+import numpy as np
+
+from ..errors import UsageError
+from ..materials import check_poisson
+
+#: What a load needs when no material is known (the one wording, used everywhere).
+NEEDS_MATERIAL = "a torque needs a material: give the shear modulus G, or E with Poisson's ratio"
+
+
+@dataclass(frozen=True)
+class Loads:
+    """Section forces (force unit F, length unit L).
+
+    Attributes
+    ----------
+    N : float
+        Axial force, F, tension positive.
+    Mx, My : float
+        Bending moments, F*L (see the module notes for signs).
+    Vx, Vy : float
+        Shear forces through the shear centre, F.
+    T : float
+        Torque, F*L.
+    """
+
+    N: float = 0.0
+    Mx: float = 0.0
+    My: float = 0.0
+    Vx: float = 0.0
+    Vy: float = 0.0
+    T: float = 0.0
+
+    @classmethod
+    def of(cls, loads: Loads | Mapping[str, float]) -> Loads:
+        """Loads from a Loads or a mapping of its field names (F, F*L)."""
+        if isinstance(loads, Loads):
+            return loads
+        unknown = set(loads) - {f.name for f in fields(cls)}
+        if unknown:
+            raise UsageError(f"unknown load {sorted(unknown)[0]!r} (use N, Mx, My, Vx, Vy, T)")
+        return cls(**{k: float(v) for k, v in loads.items()})
+
+    def check(self) -> None:
+        """Raise a UsageError for a non-finite load or no load at all."""
+        for f in fields(self):
+            v = getattr(self, f.name)
+            if not np.isfinite(v):
+                raise UsageError(f"load {f.name} must be a finite number, got {v}")
+        if not any(getattr(self, f.name) for f in fields(self)):
+            raise UsageError("no load given (N, Mx, My, Vx, Vy or T)")
+
+
+def shear_modulus(
+    shear_modulus: float | None = None, youngs_modulus: float | None = None,
+    poisson: float | None = None,
+) -> float:
+    """Shear modulus G, given directly or as E / (2 (1 + nu)).
+
+    Parameters
+    ----------
+    shear_modulus : float, optional
+        G, force / L^2 (MPa with mm and N).
+    youngs_modulus : float, optional
+        E, same unit as G.
+    poisson : float, optional
+        Poisson's ratio nu, in (-1, 0.5).
+
+    Returns
+    -------
+    float
+        G.
+
+    Examples
+    --------
+    >>> shear_modulus(youngs_modulus=70000.0, poisson=0.33)  # doctest: +ELLIPSIS
+    26315.78...
+    >>> shear_modulus()
+    Traceback (most recent call last):
+    ...
+    warpwise.errors.UsageError: a torque needs a material: give the shear modulus G, or E with Poisson's ratio
+
+    """
+    if shear_modulus is not None:
+        if youngs_modulus is not None:
+            raise UsageError("give either G or E with Poisson's ratio, not both")
+        if not (np.isfinite(shear_modulus) and shear_modulus > 0):
+            raise UsageError(f"shear modulus must be positive, got {shear_modulus}")
+        return float(shear_modulus)
+    if youngs_modulus is None or poisson is None:
+        raise UsageError(NEEDS_MATERIAL)
+    if not (np.isfinite(youngs_modulus) and youngs_modulus > 0):
+        raise UsageError(f"Young's modulus must be positive, got {youngs_modulus}")
+    nu = check_poisson(poisson)
+    return float(youngs_modulus) / (2.0 * (1.0 + nu))
