@@ -40,7 +40,7 @@ def test_composite_mullion_stress_per_material(cli):
     from warpwise.io import load_profile
     from warpwise.materials import resolve
     from warpwise.properties.analysis import analyse
-    from warpwise.stress.combined import Loads, combined_stress
+    from warpwise.stress import Loads, combined_stress
 
     prof = load_profile(SAMPLE)
     r = analyse(prof, materials=resolve([g.material for g in prof.regions]))

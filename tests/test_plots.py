@@ -14,7 +14,7 @@ from warpwise.geometry.shapes import rectangle
 from warpwise.io import load_profile
 from warpwise.materials import builtin_material
 from warpwise.report import plots
-from warpwise.stress.combined import Loads
+from warpwise.stress import Loads
 
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
 
@@ -163,7 +163,7 @@ def test_torsion_picture(name, request, tmp_path):
 
 
 def test_torsion_picture_of_composite_uses_each_materials_stress(composite):
-    from warpwise.stress.combined import combined_stress
+    from warpwise.stress import combined_stress
 
     fig = plots.figure_torsion(composite, 1000.0)
     cs = combined_stress(composite, Loads(T=1000.0))

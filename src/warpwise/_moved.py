@@ -28,7 +28,7 @@ MOVED: dict[str, tuple[str, ...]] = {
     "warpwise.analysis": ("warpwise.properties.analysis",),
     "warpwise.accuracy": ("warpwise.properties.accuracy",),
     "warpwise.adapt": ("warpwise.properties.adapt",),
-    "warpwise.combined": ("warpwise.stress.combined",),
+    "warpwise.combined": ("warpwise.stress.combined", "warpwise.stress.loads"),
 }
 
 

@@ -30,8 +30,7 @@ from .properties.analysis import SectionResult, analyse
 from .properties.shear import DEFAULT_POISSON
 from .report.files import atomic_write, csv_text, json_text
 from .report.table import CAUTION, format_value, property_table
-from .stress.combined import Loads, combined_stress
-from .stress.recovery import shear_modulus, shear_stress
+from .stress import Loads, combined_stress, shear_modulus, shear_stress
 
 EXIT_INPUT = 1
 EXIT_USAGE = 2

@@ -62,8 +62,9 @@ class Material:
 
 
 #: Open interval of Poisson's ratios of an isotropic, stable elastic material (common practice,
-#: no source: E > 0 and G > 0 with bulk modulus > 0).
+#: no source: E > 0 and G > 0 with bulk modulus > 0), and its text in messages.
 POISSON_RANGE = (-1.0, 0.5)
+POISSON_RANGE_TEXT = "(-1, 0.5)"
 
 
 def check_poisson(nu: float, what: str = "Poisson's ratio", *, file: str | None = None) -> float:
@@ -89,7 +90,7 @@ def check_poisson(nu: float, what: str = "Poisson's ratio", *, file: str | None 
     """
     lo, hi = POISSON_RANGE
     if isinstance(nu, bool) or not isinstance(nu, (int, float, np.floating)) or not lo < nu < hi:
-        raise UsageError(f"{what} must lie in ({lo:g}, {hi:g}), got {nu}", file=file)
+        raise UsageError(f"{what} must lie in {POISSON_RANGE_TEXT}, got {nu}", file=file)
     return float(nu)
 
 
@@ -130,8 +131,9 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
         nu = E / (2.0 * G) - 1.0
     if not G > 0:
         raise bad(f"G must be positive, got {G}")
-    check_poisson(nu, f"material {name!r}: the Poisson's ratio E / (2 G) - 1 given by E and G",
-                  file=where)
+    if not POISSON_RANGE[0] < nu < POISSON_RANGE[1]:
+        # the same range as check_poisson, said of the value that E and G imply
+        raise bad(f"E and G give Poisson's ratio {nu:.3f}, outside {POISSON_RANGE_TEXT}")
     if fy is not None and not fy > 0:
         raise bad(f"fy must be positive, got {fy}")
     if density is not None and not density > 0:

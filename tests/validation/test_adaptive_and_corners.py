@@ -22,7 +22,7 @@ from warpwise.geometry.profile import Arc, profile_from_loops
 from warpwise.geometry.shapes import tube
 from warpwise.properties.adapt import refine_adaptively
 from warpwise.properties.analysis import analyse
-from warpwise.stress.recovery import torsion_stress
+from warpwise.stress import torsion_stress
 
 LEG, WALL = 40.0, 8.0
 TORQUE, G = 1.0e5, 26_000.0  # N mm and MPa (tau does not depend on G)

@@ -24,8 +24,7 @@ from warpwise.geometry.profile import Arc, profile_from_loops
 from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
 from warpwise.materials import builtin_material, make_material
 from warpwise.properties.analysis import analyse
-from warpwise.stress.combined import Loads, combined_stress
-from warpwise.stress.recovery import shear_stress, torsion_stress
+from warpwise.stress import Loads, combined_stress, shear_stress, torsion_stress
 
 RTOL = 1e-12
 

@@ -25,8 +25,7 @@ from warpwise.geometry.profile import Arc, profile_from_loops
 from warpwise.geometry.shapes import ellipse_points
 from warpwise.mesh.core import Mesh, build_mesh
 from warpwise.properties.analysis import analyse
-from warpwise.properties.shear import shear_stress_at_nodes
-from warpwise.stress.recovery import shear_stress, torsion_stress
+from warpwise.stress import shear_stress, torsion_stress
 
 
 def solid(*loops, arcs=()):
@@ -78,7 +77,7 @@ def test_flexure_stress_resultant(name, nu):
     #    curved isoparametric elements too). It gives int (dTheta/dx - h_x) dA
     #    = int x (a x + b y) dA = a Iy + b Ixy = Vx; v = y gives Vy. Same quadrature on both
     #    sides, so round-off only: measured <= 1.3e-12 |V| (lipped channel); bound 1e-11 |V|.
-    # 2. Nodal stresses (shear_stress_at_nodes) interpolated with the P2 basis: on straight
+    # 2. Nodal stresses (shear_stress) interpolated with the P2 basis: on straight
     #    elements the integral of a P2 field is A_e / 3 times the sum of its mid-side values,
     #    and the nodal gradient is averaged with element-area weights, so the averaged field
     #    integrates exactly like the element fields: measured <= 1.3e-12, bound 1e-11. On
@@ -97,7 +96,7 @@ def test_flexure_stress_resultant(name, nu):
         fx, fy, torque = resultants(res, tau[..., 0], tau[..., 1])
         assert abs(fx - vx) < 1e-11 * V and abs(fy - vy) < 1e-11 * V
         assert abs(torque - (centre[0] * vy - centre[1] * vx)) < 1e-11 * V * size
-        nodal = shear_stress_at_nodes(mesh, res.geometric, res.shear, vx, vy)
+        nodal = nodal_shear(res, vx, vy)
         fx, fy, _ = resultants(res, interpolate(mesh, ev, nodal[:, 0]),
                                interpolate(mesh, ev, nodal[:, 1]))
         assert abs(fx - vx) < nodal_tol * V and abs(fy - vy) < nodal_tol * V
@@ -264,3 +263,9 @@ def test_rotated_symmetric_profile_keeps_centre_on_axis(angle_deg):
     centroid = np.array(res.geometric.centroid)
     for centre in (res.torsion.shear_centre, res.shear.shear_centre):
         assert abs((np.array(centre) - centroid) @ normal) < 1e-12 * profile.size
+
+
+def nodal_shear(res, vx, vy):
+    """Nodal (tau_zx, tau_zy) (n, 2) of the public stress recovery for Vx, Vy."""
+    s = shear_stress(res, 0.0, vx, vy)
+    return np.column_stack([s.tau_zx, s.tau_zy])

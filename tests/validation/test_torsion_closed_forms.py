@@ -16,7 +16,7 @@ import pytest
 
 from warpwise.geometry.shapes import ellipse, polygon, rectangle, round_bar, tube
 from warpwise.properties.analysis import analyse
-from warpwise.stress.recovery import torsion_stress
+from warpwise.stress import torsion_stress
 
 # Section titles below are those of Timoshenko & Goodier, Theory of Elasticity, 3rd ed.
 # (McGraw-Hill 1970), ch. 10 "Torsion"; cited from memory.

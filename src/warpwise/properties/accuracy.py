@@ -14,6 +14,7 @@ Examples
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field, replace
 
 import numpy as np
@@ -38,18 +39,33 @@ def refinement_for(accuracy: str) -> float:
         raise UsageError(f"unknown accuracy {accuracy!r} (use {', '.join(ACCURACY_LEVELS)})") from None
 
 
+#: The values whose error is estimated (the one list): key in ``SectionResult.errors`` -> (how
+#: to read the value off a result, the reported quantities it covers, whether it is a
+#: coordinate, judged relative to the profile's size).
+ESTIMATED: dict[str, tuple[Callable[[SectionResult], float], tuple[str, ...], bool]] = {
+    "J": (lambda r: r.torsion.J, ("J",), False),
+    "Cw": (lambda r: r.torsion.Cw, ("Cw",), False),
+    "xs": (lambda r: r.torsion.shear_centre[0], ("xs",), True),
+    "ys": (lambda r: r.torsion.shear_centre[1], ("ys",), True),
+    "Wel_x": (lambda r: r.geometric.Wel["x"], ("Wel_x_top", "Wel_x_bottom"), False),
+    "Wel_y": (lambda r: r.geometric.Wel["y"], ("Wel_y_right", "Wel_y_left"), False),
+    "Wel_1": (lambda r: r.geometric.Wel["1"], ("Wel_1_pos", "Wel_1_neg"), False),
+    "Wel_2": (lambda r: r.geometric.Wel["2"], ("Wel_2_pos", "Wel_2_neg"), False),
+    "As_x": (lambda r: r.shear.As_x, ("As_x",), False),
+    "As_y": (lambda r: r.shear.As_y, ("As_y",), False),
+}
+
+#: Keys of the error estimates, in reporting order.
+ERROR_KEYS: tuple[str, ...] = tuple(ESTIMATED)
+
+#: Reported quantity key -> the error estimate that covers it.
+ERROR_OF_QUANTITY: dict[str, str] = {q: k for k, (_, covered, _) in ESTIMATED.items()
+                                     for q in covered}
+
+
 def _quantities(r: SectionResult) -> dict[str, float]:
     """The values whose error is estimated."""
-    g, t, s = r.geometric, r.torsion, r.shear
-    return {
-        "J": t.J, "Cw": t.Cw, "xs": t.shear_centre[0], "ys": t.shear_centre[1],
-        "Wel_x": g.Wel["x"], "Wel_y": g.Wel["y"], "Wel_1": g.Wel["1"], "Wel_2": g.Wel["2"],
-        "As_x": s.As_x, "As_y": s.As_y,
-    }
-
-
-#: Quantities that are coordinates: their error is relative to the profile's size.
-COORDINATES = ("xs", "ys")
+    return {key: float(read(r)) for key, (read, _, _) in ESTIMATED.items()}
 
 
 @dataclass(frozen=True, eq=False)
@@ -111,7 +127,8 @@ def richardson(q1: float, q2: float, q3: float, ratio: float) -> tuple[float, fl
 
 
 def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine: float = 1.0,
-                    poisson: float = DEFAULT_POISSON, bounds: bool = False) -> ErrorEstimate:
+                    poisson: float = DEFAULT_POISSON, bounds: bool = False,
+                    solver: str = "auto") -> ErrorEstimate:
     """Analyse a profile at ``refine`` and estimate the error of its main values.
 
     Parameters
@@ -126,6 +143,8 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
         Poisson's ratio for the shear properties.
     bounds : bool
         Also compute the Prandtl lower bound on J for the first mesh.
+    solver : str
+        Linear solver (see :class:`warpwise.fem.solve.SPDFactor`).
 
     Returns
     -------
@@ -133,8 +152,9 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
         The result at ``refine`` and the estimated errors; costs about 7 analyses
         (meshes with 1, 2 and 4 times the elements).
     """
-    first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds)
-    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson) for k in (1, 2)]
+    first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds, solver=solver)
+    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson, solver=solver)
+            for k in (1, 2)]
     qs = [_quantities(r) for r in (first, *rest)]
     size = profile.size
     rel, rate, extra = {}, {}, {}
@@ -146,7 +166,7 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
             err = max(abs(q1 - q2), abs(q1 - q3))
         else:
             err = abs(q1 - value)
-        scale = size if key in COORDINATES else max(abs(value), 1e-300)
+        scale = size if ESTIMATED[key][2] else max(abs(value), 1e-300)
         if key == "Cw":
             # a warping constant near zero (closed and round sections) is judged against the
             # natural scale Ip * size^2 rather than against itself

@@ -26,7 +26,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..errors import UsageError
-from ..fem.p2 import interpolate, nodal_gradient
+from ..fem.p2 import gradient, interpolate, nodal_gradient
 from ..geometry.profile import Profile
 from ..mesh.core import build_mesh, refine_mesh
 from .analysis import SectionResult, analyse
@@ -62,14 +62,14 @@ def warping_indicator(result: SectionResult) -> np.ndarray:
     mesh, ev = result.mesh, result.basis
     psi = result.torsion.psi
     g = nodal_gradient(mesh, psi)
-    grad_h = np.einsum("mk,mqki->mqi", psi[mesh.elements], ev.grad)
+    grad_h = gradient(mesh, ev, psi)
     smooth = np.stack([interpolate(mesh, ev, g[:, 0]), interpolate(mesh, ev, g[:, 1])], axis=-1)
     diff = grad_h - smooth
     return np.einsum("mq,mqi,mqi->m", ev.dA, diff, diff)
 
 
 def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | None = None, *,
-                      poisson: float = DEFAULT_POISSON) -> AdaptiveRun:
+                      poisson: float = DEFAULT_POISSON, solver: str = "auto") -> AdaptiveRun:
     """Refine where the warping error is largest until J's estimated error meets ``tolerance``.
 
     Parameters
@@ -82,6 +82,8 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
         Largest element size of the starting mesh, drawing unit.
     poisson : float
         Poisson's ratio for the shear properties.
+    solver : str
+        Linear solver (see :class:`warpwise.fem.solve.SPDFactor`).
 
     Returns
     -------
@@ -92,7 +94,7 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
     mesh = build_mesh(profile, mesh_size)
     history = []
     for _ in range(MAX_STEPS):
-        result = analyse(profile, mesh=mesh, poisson=poisson, bounds=True)
+        result = analyse(profile, mesh=mesh, poisson=poisson, bounds=True, solver=solver)
         eta2 = warping_indicator(result)
         J, J_low = result.torsion.J, result.torsion.J_low
         estimate = float((J - J_low) / J_low)

@@ -14,16 +14,19 @@ Examples
 
 from __future__ import annotations
 
+import time
+import warnings
 from collections.abc import Sequence
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
 from ..errors import AnalysisError
 from ..fem.p2 import ElementValues, element_values, integrate, stiffness_matrix
 from ..fem.solve import PinnedSolver
+from ..geometry.corners import Corner, reentrant_corners
 from ..geometry.profile import Profile
-from ..materials import ElementMaterials, Material
+from ..materials import ElementMaterials, Material, check_poisson
 from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
 from .plastic import PlasticProperties, plastic_properties
@@ -56,11 +59,12 @@ class SectionResult:
         Torsion and warping properties.
     shear : ShearProperties
         Shear functions, shear areas and the elastic shear centre.
-    values : ElementValues
-        Basis values in centroidal coordinates (for stress recovery).
+    basis : ElementValues
+        Shape functions, gradients and quadrature points in centroidal coordinates (about the
+        modulus-weighted centroid for a composite section), for stress recovery.
     solver : PinnedSolver
         The factorised stiffness matrix (for further right-hand sides).
-    transformed : GeometricProperties
+    weighted : GeometricProperties
         Modulus-weighted (transformed-section) properties referred to the reference material,
         about the modulus-weighted centroid; the same object as ``geometric`` for one material.
         Torsion and shear results are referred to this centroid.
@@ -69,9 +73,15 @@ class SectionResult:
     plastic : PlasticProperties or None
         Plastic moduli, neutral axes and moments.
     errors : dict of str to float or None
-        Estimated relative errors of the main values (see :mod:`warpwise.properties.accuracy`), when an
-        estimate was asked for.
-
+        Estimated relative errors of the main values (see :mod:`warpwise.properties.accuracy`),
+        when an estimate was asked for.
+    corners : tuple of Corner
+        Sharp re-entrant corners of the outline with the radius left out of stress maxima.
+    region_areas : tuple of float
+        Meshed area of each region of ``profile.regions`` (curved edges included), L^2.
+    timings : dict of str to float
+        Wall time of each stage of the analysis, s (mesh, basis, assembly, factorise, warping,
+        bounds, shear, plastic).
     """
 
     profile: Profile
@@ -79,12 +89,15 @@ class SectionResult:
     geometric: GeometricProperties
     torsion: TorsionProperties
     shear: ShearProperties
-    values: ElementValues
+    basis: ElementValues
     solver: PinnedSolver
-    transformed: GeometricProperties
+    weighted: GeometricProperties
     materials: ElementMaterials
     plastic: PlasticProperties | None = None
     errors: dict[str, float] | None = None
+    corners: tuple[Corner, ...] = ()
+    region_areas: tuple[float, ...] = ()
+    timings: dict[str, float] = field(default_factory=dict)
 
     @property
     def composite(self) -> bool:
@@ -95,6 +108,81 @@ class SectionResult:
     def units(self) -> str:
         """Length unit of all results."""
         return self.profile.units
+
+    @property
+    def values(self) -> ElementValues:
+        """Deprecated name of :attr:`basis` (kept for one release)."""
+        warnings.warn("SectionResult.values is now SectionResult.basis", DeprecationWarning,
+                      stacklevel=2)
+        return self.basis
+
+    @property
+    def transformed(self) -> GeometricProperties:
+        """Deprecated name of :attr:`weighted` (kept for one release)."""
+        warnings.warn("SectionResult.transformed is now SectionResult.weighted",
+                      DeprecationWarning, stacklevel=2)
+        return self.weighted
+
+
+class _Clock:
+    """Wall time of named stages, s."""
+
+    def __init__(self) -> None:
+        self.times: dict[str, float] = {}
+        self._last = time.perf_counter()
+
+    def lap(self, stage: str) -> None:
+        now = time.perf_counter()
+        self.times[stage] = self.times.get(stage, 0.0) + now - self._last
+        self._last = now
+
+
+def element_materials(profile: Profile, mesh: Mesh, poisson: float,
+                      materials: Material | Sequence[Material] | None,
+                      reference: str | None) -> ElementMaterials:
+    """Material data per element: one material (or none) for all, or one per region.
+
+    Parameters
+    ----------
+    profile : Profile
+        The profile (its regions).
+    mesh : Mesh
+        The mesh (its element regions).
+    poisson : float
+        Poisson's ratio without a material (dimensionless).
+    materials : Material or sequence of Material, optional
+        One material for the whole profile, or one per region.
+    reference : str, optional
+        Reference material of a composite section.
+
+    Returns
+    -------
+    ElementMaterials
+    """
+    if materials is None or isinstance(materials, Material):
+        return ElementMaterials.single(mesh.n_elements, poisson, materials)
+    if len(materials) != len(profile.regions):
+        raise AnalysisError(f"{len(materials)} materials given for {len(profile.regions)} "
+                            "regions", file=profile.source)
+    return ElementMaterials.from_regions(mesh.region, list(materials), reference)
+
+
+def _region_strengths(profile: Profile, mats: ElementMaterials) -> list[float | None] | None:
+    """Yield strength of each region's material, MPa (None without materials)."""
+    if not mats.materials:
+        return None
+    region_mats = (list(mats.materials) if len(mats.materials) == len(profile.regions)
+                   else [mats.materials[0]] * len(profile.regions))
+    return [m.fy for m in region_mats]
+
+
+def _check_torsion(tor: TorsionProperties, polar: float, source: str) -> None:
+    """Refuse a warping solve that failed its residual or gives J outside (0, Ip]."""
+    if not tor.residual < MAX_RESIDUAL:
+        raise AnalysisError(f"warping solve residual {tor.residual:.2e} is too large", file=source)
+    if not 0 < tor.J <= polar * (1 + 1e-9):
+        raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
+                            file=source)
 
 
 def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | None = None,
@@ -134,60 +222,57 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
 
     Raises
     ------
+    UsageError
+        For a Poisson's ratio outside (-1, 0.5).
     AnalysisError
         When the solve fails its residual check or J falls outside (0, Ix + Iy].
 
     """
+    clock = _Clock()
+    check_poisson(poisson, file=profile.source)
     if mesh is None:
         mesh = build_mesh(profile, mesh_size, refine=refine)
+    clock.lap("mesh")
+    mats = element_materials(profile, mesh, poisson, materials, reference)
     x0, y0, x1, y1 = profile.bounds
     origin = np.array([0.5 * (x0 + x1), 0.5 * (y0 + y1)])
     try:
         ev = element_values(mesh, origin)
     except ValueError as exc:
         raise AnalysisError(str(exc), file=profile.source) from None
-    if not -1.0 < poisson < 0.5:
-        raise AnalysisError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}",
-                            file=profile.source)
-    if materials is None or isinstance(materials, Material):
-        mats = ElementMaterials.single(mesh.n_elements, poisson, materials)
-    else:
-        if len(materials) != len(profile.regions):
-            raise AnalysisError(f"{len(materials)} materials given for {len(profile.regions)} "
-                                "regions", file=profile.source)
-        mats = ElementMaterials.from_regions(mesh.region, list(materials), reference)
     geo, evc = geometric_properties(mesh, ev, origin)
     wE = wG = None
-    transformed = geo
+    weighted = geo
     if mats.composite:
         wE, wG = mats.E, mats.G
-        transformed, evc = geometric_properties(mesh, ev, origin, wE)
+        weighted, evc = geometric_properties(mesh, ev, origin, wE)
+    areas = np.bincount(mesh.region, weights=evc.dA.sum(axis=1), minlength=len(profile.regions))
+    clock.lap("basis")
     K = stiffness_matrix(mesh, evc, wG)
+    clock.lap("assembly")
     # pin the node nearest the centroid: any node works, this one keeps round-off small
-    pin = int(np.argmin(np.sum((mesh.nodes - np.array(transformed.centroid)) ** 2, axis=1)))
+    pin = int(np.argmin(np.sum((mesh.nodes - np.array(weighted.centroid)) ** 2, axis=1)))
     factor = PinnedSolver(K, pin, solver)
-    tor = torsion_properties(mesh, evc, transformed, factor, torsion_load(mesh, evc, wG), wE, wG)
-    if not tor.residual < MAX_RESIDUAL:
-        raise AnalysisError(f"warping solve residual {tor.residual:.2e} is too large",
-                            file=profile.source)
-    polar = integrate(evc, evc.xy[..., 0] ** 2 + evc.xy[..., 1] ** 2, wG)
-    if not 0 < tor.J <= polar * (1 + 1e-9):
-        raise AnalysisError(f"torsion constant J = {tor.J:.6g} is outside (0, Ix + Iy]",
-                            file=profile.source)
+    clock.lap("factorise")
+    tor = torsion_properties(mesh, evc, weighted, factor, torsion_load(mesh, evc, wG), wE, wG)
+    _check_torsion(tor, integrate(evc, evc.xy[..., 0] ** 2 + evc.xy[..., 1] ** 2, wG),
+                   profile.source)
+    clock.lap("warping")
     if bounds and not mats.composite:
         J_low, _ = prandtl_lower_bound(mesh, evc, K, solver)
         if not J_low <= tor.J * (1 + 1e-9):
             raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
                                 file=profile.source)
         tor = replace(tor, J_low=J_low)
-    shear = shear_properties(mesh, evc, transformed, factor, mats)
+        clock.lap("bounds")
+    shear = shear_properties(mesh, evc, weighted, factor, mats)
     if not shear.residual < MAX_RESIDUAL:
         raise AnalysisError(f"shear function solve residual {shear.residual:.2e} is too large",
                             file=profile.source)
-    fy = None
-    if mats.materials:
-        region_mats = (list(mats.materials) if len(mats.materials) == len(profile.regions)
-                       else [mats.materials[0]] * len(profile.regions))
-        fy = [m.fy for m in region_mats]
-    plastic = plastic_properties(profile, geo.alpha_deg, fy)
-    return SectionResult(profile, mesh, geo, tor, shear, evc, factor, transformed, mats, plastic)
+    clock.lap("shear")
+    plastic = plastic_properties(profile, geo.alpha_deg, _region_strengths(profile, mats))
+    corners = tuple(reentrant_corners(profile))
+    clock.lap("plastic")
+    return SectionResult(profile, mesh, geo, tor, shear, evc, factor, weighted, mats, plastic,
+                         corners=corners, region_areas=tuple(float(a) for a in areas),
+                         timings=clock.times)

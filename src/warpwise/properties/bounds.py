@@ -21,7 +21,7 @@ import scipy.sparse as sp
 from scipy.sparse.csgraph import connected_components
 
 from ..errors import AnalysisError
-from ..fem.p2 import ElementValues
+from ..fem.p2 import ElementValues, assemble_vector
 from ..fem.solve import SPDFactor
 from ..mesh.core import Mesh
 
@@ -110,7 +110,7 @@ def prandtl_lower_bound(mesh: Mesh, evc: ElementValues, stiffness: sp.csr_matrix
     P = sp.csr_matrix((np.ones(len(rows)), (rows, col[rows])), shape=(n, m))
     # load 2 int N_i dA, plus 2 A_k on each hole unknown
     local = 2.0 * np.einsum("mq,qk->mk", evc.dA, evc.N)
-    f = np.bincount(mesh.elements.ravel(), weights=local.ravel(), minlength=n)
+    f = assemble_vector(mesh, local)
     hole_area = _hole_areas(mesh, bnodes, which, n_holes)
     fr = P.T @ f
     fr[len(free):] += 2.0 * hole_area

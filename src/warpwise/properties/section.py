@@ -17,7 +17,7 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-from ..fem.p2 import ElementValues, integrate, interpolate
+from ..fem.p2 import ElementValues, assemble_vector, integrate, interpolate
 from ..fem.solve import PinnedSolver
 from ..mesh.core import Mesh
 
@@ -190,8 +190,7 @@ def torsion_load(mesh: Mesh, evc: ElementValues, weight: np.ndarray | None = Non
     x, y = evc.xy[..., 0], evc.xy[..., 1]
     local = np.einsum("mq,mqk->mk", w * y, evc.grad[..., 0]) - np.einsum(
         "mq,mqk->mk", w * x, evc.grad[..., 1])
-    idx = mesh.elements.ravel()
-    return np.bincount(idx, weights=local.ravel(), minlength=mesh.n_nodes)
+    return assemble_vector(mesh, local)
 
 
 def zero_mean(mesh: Mesh, evc: ElementValues, nodal: np.ndarray, area: float,

@@ -23,7 +23,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..fem.p2 import ElementValues, integrate, nodal_gradient
+from ..fem.p2 import ElementValues, assemble_vector, gradient, integrate
 from ..fem.solve import PinnedSolver
 from ..materials import ElementMaterials
 from ..mesh.core import Mesh
@@ -76,8 +76,11 @@ class ShearProperties:
     residual: float
 
 
-def _h_field(xy: np.ndarray, a: float, b: float, c: np.ndarray | float) -> np.ndarray:
-    """The field h of the shear-stress split at points (..., 2), centroidal coordinates.
+def split_field(xy: np.ndarray, a: float, b: float, c: np.ndarray | float) -> np.ndarray:
+    """The field h of the shear-stress split at points (..., 2), centroidal coordinates, L^2 a.
+
+    ``a``, ``b`` are the bending-stress gradient per unit length of bar (see
+    :func:`bending_gradients`), 1/L^3 per unit force.
 
     ``c`` is nu / (2 (1 + nu)) for one material, nu G_ref / E_ref per element (broadcast over the
     trailing point axis) for a composite section.
@@ -91,8 +94,8 @@ def _h_field(xy: np.ndarray, a: float, b: float, c: np.ndarray | float) -> np.nd
     return np.stack([hx, hy], axis=-1)
 
 
-def _unit_loads(geo: GeometricProperties) -> np.ndarray:
-    """Rows: (a, b) of the bending-stress gradient for a unit Vx and a unit Vy."""
+def bending_gradients(geo: GeometricProperties) -> np.ndarray:
+    """Rows: (a, b) of the bending-stress gradient for a unit Vx and a unit Vy, 1/L^4."""
     D = geo.Ix * geo.Iy - geo.Ixy**2
     return np.array([[geo.Ix, -geo.Ixy], [-geo.Ixy, geo.Iy]]) / D
 
@@ -116,44 +119,16 @@ def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     -----
     f_i = int (G grad N_i . h + E N_i (a x + b y)) dA with the ratios G, E of each element.
     """
-    idx = mesh.elements.ravel()
     wG = evc.dA * mats.G[:, None]
     wE = evc.dA * mats.E[:, None]
     out = []
-    for a, b in _unit_loads(geo):
-        h = _h_field(evc.xy, a, b, mats.c)
+    for a, b in bending_gradients(geo):
+        h = split_field(evc.xy, a, b, mats.c)
         lin = a * evc.xy[..., 0] + b * evc.xy[..., 1]
         local = np.einsum("mq,mqki,mqi->mk", wG, evc.grad, h) + np.einsum(
             "mq,qk->mk", wE * lin, evc.N)
-        out.append(np.bincount(idx, weights=local.ravel(), minlength=mesh.n_nodes))
+        out.append(assemble_vector(mesh, local))
     return np.column_stack(out)
-
-
-def shear_stress_at_nodes(mesh: Mesh, geo: GeometricProperties, shear: ShearProperties,
-                          vx: float, vy: float) -> np.ndarray:
-    """Shear stress (tau_zx, tau_zy) at the nodes (n, 2) for Vx, Vy through the shear centre.
-
-    Parameters
-    ----------
-    mesh : Mesh
-        The mesh.
-    geo : GeometricProperties
-        Geometric properties.
-    shear : ShearProperties
-        Solved shear functions.
-    vx, vy : float
-        Shear forces, force unit.
-
-    Returns
-    -------
-    numpy.ndarray
-        (n, 2) stresses, force / L^2.
-    """
-    local = mesh.nodes - np.array(geo.centroid)
-    theta = vx * shear.theta_x + vy * shear.theta_y
-    ab = vx * _unit_loads(geo)[0] + vy * _unit_loads(geo)[1]
-    c = shear.poisson / (2.0 * (1.0 + shear.poisson))
-    return nodal_gradient(mesh, theta) - _h_field(local, ab[0], ab[1], c)
 
 
 def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
@@ -181,9 +156,9 @@ def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     theta = solver.solve(loads)
     residual = max(solver.residual(theta[:, k], loads[:, k]) for k in range(2))
     stresses = []
-    for k, (a, b) in enumerate(_unit_loads(geo)):
-        grad = np.einsum("mk,mqki->mqi", theta[:, k][mesh.elements], evc.grad)
-        stresses.append(mats.G[:, None, None] * (grad - _h_field(evc.xy, a, b, mats.c)))
+    for k, (a, b) in enumerate(bending_gradients(geo)):
+        grad = gradient(mesh, evc, theta[:, k])
+        stresses.append(mats.G[:, None, None] * (grad - split_field(evc.xy, a, b, mats.c)))
     inv_g = 1.0 / mats.G
     C = np.array([[integrate(evc, np.einsum("mqi,mqi->mq", si, sj), inv_g) for sj in stresses]
                   for si in stresses])

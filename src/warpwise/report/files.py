@@ -15,12 +15,12 @@ from pathlib import Path
 from typing import Any
 
 from ..errors import UsageError
+from ..properties.accuracy import ERROR_KEYS
 from ..properties.analysis import SectionResult
 from .quantities import FORCE_UNITS, QUANTITIES, unit_of
 from .records import Record, record_of
 
 #: Columns of estimated relative errors, in this order, when any result has an estimate.
-ERROR_KEYS = ("J", "Cw", "xs", "ys", "Wel_x", "Wel_y", "Wel_1", "Wel_2", "As_x", "As_y")
 
 
 def atomic_write(path: str | Path, data: str | bytes) -> None:

@@ -32,8 +32,7 @@ import numpy as np
 from .. import __version__
 from ..geometry.corners import reentrant_corners
 from ..properties.analysis import SectionResult
-from ..stress.combined import Loads, combined_stress
-from ..stress.recovery import torsion_stress
+from ..stress import Loads, combined_stress, torsion_stress
 from .files import atomic_write
 from .plots import figure_outline, figure_torsion, figure_warping, profile_name, svg_text
 from .quantities import FORCE_UNITS, QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values

@@ -39,8 +39,7 @@ from matplotlib.tri import Triangulation
 from ..errors import UsageError
 from ..geometry.corners import exclusion_radius, reentrant_corners
 from ..properties.analysis import SectionResult
-from ..stress.combined import Loads, combined_stress
-from ..stress.recovery import torsion_stress
+from ..stress import Loads, combined_stress, torsion_stress
 from .files import atomic_write
 from .quantities import FORCE_UNITS
 

@@ -9,8 +9,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
-import numpy as np
-
+from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
 
 
@@ -241,8 +240,7 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     mats = list(m.materials) if len(m.materials) == len(regions) else [m.materials[0]] * len(regions)
     if all(x.density is not None for x in mats):
         # areas of the meshed regions (curved edges included), not of the polygons
-        ev = result.basis
-        area = np.bincount(result.mesh.region, weights=ev.dA.sum(axis=1), minlength=len(regions))
+        area = result.region_areas
         mass = float(sum(x.density * a * metre**2 for x, a in zip(mats, area, strict=True)))
     else:
         mass = nan
@@ -255,15 +253,8 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     }
 
 
-#: Quantities with an error estimate: key in QUANTITIES -> key in SectionResult.errors.
-ESTIMATED = {"J": "J", "Cw": "Cw", "xs": "xs", "ys": "ys", "As_x": "As_x", "As_y": "As_y",
-             "Wel_x_top": "Wel_x", "Wel_x_bottom": "Wel_x", "Wel_y_right": "Wel_y",
-             "Wel_y_left": "Wel_y", "Wel_1_pos": "Wel_1", "Wel_1_neg": "Wel_1",
-             "Wel_2_pos": "Wel_2", "Wel_2_neg": "Wel_2"}
-
-
 def error_of(result: SectionResult, key: str) -> float | None:
     """Estimated relative error of a quantity, or None when not estimated."""
-    if result.errors is None or key not in ESTIMATED:
+    if result.errors is None or key not in ERROR_OF_QUANTITY:
         return None
-    return result.errors.get(ESTIMATED[key])
+    return result.errors.get(ERROR_OF_QUANTITY[key])

@@ -1,5 +1,15 @@
-"""Stresses under loads, recovered from the solved section (one recovery for every load)."""
+"""Stresses under loads, recovered from the solved section (one recovery for every load).
 
-from .recovery import ShearStress, TorsionStress, shear_modulus, shear_stress, torsion_stress
+:mod:`.loads` (section forces, shear modulus), :mod:`.recovery` (the nodal stresses of each
+material and their maxima away from sharp corners), :mod:`.shear` (torque and shear forces),
+:mod:`.combined` (all six section forces with von Mises).
+"""
 
-__all__ = ["ShearStress", "TorsionStress", "shear_modulus", "shear_stress", "torsion_stress"]
+from .combined import CombinedStress, MaterialStress, combined_stress
+from .loads import Loads, shear_modulus
+from .recovery import MaterialField, recover
+from .shear import CornerStress, ShearStress, TorsionStress, shear_stress, torsion_stress
+
+__all__ = ["CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialStress",
+           "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
+           "shear_stress", "torsion_stress"]

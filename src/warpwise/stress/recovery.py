@@ -1,8 +1,19 @@
-"""Stress recovery: torsion shear stresses and twist for a torque.
+"""Stress recovery: the one place where solved fields become stresses at the nodes.
 
-With the warping function psi about the centroid (x, y centroidal), Saint-Venant torsion gives
-tau_zx = G theta (dpsi/dx - y), tau_zy = G theta (dpsi/dy + x) and T = G J theta, so the
-stresses are (T / J)(dpsi/dx - y, dpsi/dy + x) whatever G is, and theta = T / (G J).
+For loads (N, Mx, My, Vx, Vy, T, see :mod:`.loads`) the stresses of each material are
+recovered at the nodes of that material's elements, so that a stress that jumps at a material
+interface is not averaged across it:
+
+- normal stress (Navier, transformed section, E_ref): sigma_z = (E / E_ref) (N / A* + a x + b y)
+  with a = (My Ix* - Mx Ixy*) / D*, b = (Mx Iy* - My Ixy*) / D*, D* = Ix* Iy* - Ixy*^2 about the
+  modulus-weighted centroid;
+- torsion shear (Saint-Venant): (G / G_ref) (T / J) (dpsi/dx - y, dpsi/dy + x), whatever G_ref
+  is; the twist rate is T / (G_ref J);
+- shear-force shear: (G / G_ref) (grad Theta - h) with the shear functions Theta and the split
+  field h of :mod:`warpwise.properties.shear`, each material with its own coefficient.
+
+Maxima leave out the singular neighbourhood of sharp re-entrant corners (the radius of each
+corner found by the analysis, :attr:`SectionResult.corners`).
 """
 
 from __future__ import annotations
@@ -11,285 +22,158 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..errors import UsageError
 from ..fem.p2 import nodal_gradient
-from ..geometry.corners import Corner, exclusion_radius, reentrant_corners
 from ..properties.analysis import SectionResult
+from ..properties.shear import bending_gradients, split_field
+from .loads import Loads
 
 
 @dataclass(frozen=True, eq=False)
-class TorsionStress:
-    """Shear stresses from a torque, at every node.
+class MaterialField:
+    """Stresses in one material, at the nodes of its elements (force unit F, length unit L).
 
     Attributes
     ----------
-    torque : float
-        Applied torque T, force x L.
-    shear_modulus : float
-        G, force / L^2.
-    twist_rate : float
-        theta = T / (G J), radians per L.
-    tau_zx, tau_zy, tau : numpy.ndarray
-        Stress components and resultant magnitude at the nodes (n,), force / L^2.
-    tau_max : float
-        Largest resultant away from sharp re-entrant corners, force / L^2.
-    tau_max_at : tuple of float
-        Node where it occurs, drawing coordinates, L.
-    corners : list of CornerStress
-        Sharp re-entrant corners: location and the (mesh-dependent) stress there.
+    material : str
+        Material name ("" for a geometry-only section).
+    group : int
+        Index of the material in ``result.materials.names``.
+    nodes : numpy.ndarray
+        Node indices (k,) of this material's elements.
+    sigma : numpy.ndarray
+        Normal stress sigma_z (k,), tension positive, F/L^2.
+    tau_zx, tau_zy : numpy.ndarray
+        Shear stress components (k,), F/L^2.
     """
 
-    torque: float
-    shear_modulus: float
-    twist_rate: float
+    material: str
+    group: int
+    nodes: np.ndarray
+    sigma: np.ndarray
     tau_zx: np.ndarray
     tau_zy: np.ndarray
-    tau: np.ndarray
-    tau_max: float
-    tau_max_at: tuple[float, float]
-    corners: list[CornerStress]
+
+    @property
+    def tau(self) -> np.ndarray:
+        """Resultant shear stress (k,), F/L^2."""
+        return np.hypot(self.tau_zx, self.tau_zy)
+
+    @property
+    def von_mises(self) -> np.ndarray:
+        """Von Mises stress sqrt(sigma^2 + 3 tau^2) (k,), F/L^2."""
+        return np.sqrt(self.sigma**2 + 3.0 * (self.tau_zx**2 + self.tau_zy**2))
 
 
-@dataclass(frozen=True)
-class CornerStress:
-    """Stress found at a sharp re-entrant corner, where the exact stress is unbounded.
+def _normal_stress(result: SectionResult, loads: Loads, local: np.ndarray) -> np.ndarray:
+    """sigma_z of the reference material at points ``local`` (centroidal), F/L^2."""
+    tr = result.weighted
+    if not (loads.N or loads.Mx or loads.My):
+        return np.zeros(len(local))
+    D = tr.Ix * tr.Iy - tr.Ixy**2
+    a = (loads.My * tr.Ix - loads.Mx * tr.Ixy) / D
+    b = (loads.Mx * tr.Iy - loads.My * tr.Ixy) / D
+    return loads.N / tr.A + a * local[:, 0] + b * local[:, 1]
 
-    Attributes
+
+def _shear_vector(result: SectionResult, loads: Loads, mask: np.ndarray, nodes: np.ndarray,
+                  local: np.ndarray, c: float) -> np.ndarray:
+    """(tau_zx, tau_zy) (k, 2) of the reference material from T, Vx, Vy at ``nodes``, F/L^2."""
+    mesh = result.mesh
+    out = np.zeros((len(nodes), 2))
+    if loads.T:
+        g = nodal_gradient(mesh, result.torsion.psi, mask)[nodes]
+        out += (loads.T / result.torsion.J) * np.column_stack([g[:, 0] - local[:, 1],
+                                                               g[:, 1] + local[:, 0]])
+    if loads.Vx or loads.Vy:
+        theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
+        a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
+        out += nodal_gradient(mesh, theta, mask)[nodes] - split_field(local, a, b, c)
+    return out
+
+
+def recover(result: SectionResult, loads: Loads) -> list[MaterialField]:
+    """Nodal stresses of every material for section forces ``loads``.
+
+    Parameters
     ----------
-    corner : Corner
-        The corner (location, interior angle).
-    tau_at_corner : float
-        Resultant shear stress at the corner node on this mesh, force / L^2; it grows without
-        limit under refinement (as h^exponent). A fillet radius is needed for a real value.
-    excluded_radius : float
-        Radius around the corner left out of ``tau_max``, L.
+    result : SectionResult
+        An analysed section.
+    loads : Loads
+        Section forces (checked: finite, not all zero).
+
+    Returns
+    -------
+    list of MaterialField
+        One per material, in the order of ``result.materials.names``.
     """
+    loads.check()
+    mesh, mats = result.mesh, result.materials
+    local_all = mesh.nodes - np.array(result.weighted.centroid)
+    out = []
+    for gi, name in enumerate(mats.names):
+        mask = mats.group == gi
+        nodes = np.unique(mesh.elements[mask])
+        local = local_all[nodes]
+        first = int(np.flatnonzero(mask)[0])
+        wE, wG, c = float(mats.E[first]), float(mats.G[first]), float(mats.c[first])
+        tau = wG * _shear_vector(result, loads, mask, nodes, local, c)
+        out.append(MaterialField(name, gi, nodes, wE * _normal_stress(result, loads, local),
+                                 tau[:, 0], tau[:, 1]))
+    return out
 
-    corner: Corner
-    tau_at_corner: float
-    excluded_radius: float
+
+def envelope(fields: list[MaterialField], n_nodes: int) -> tuple[np.ndarray, np.ndarray]:
+    """Nodal shear components (n,) over all materials; at a shared node the larger |tau| wins."""
+    tzx, tzy = np.zeros(n_nodes), np.zeros(n_nodes)
+    for f in fields:
+        bigger = f.tau > np.hypot(tzx[f.nodes], tzy[f.nodes])
+        tzx[f.nodes[bigger]] = f.tau_zx[bigger]
+        tzy[f.nodes[bigger]] = f.tau_zy[bigger]
+    return tzx, tzy
 
 
-def peak_stress(result: SectionResult, tau: np.ndarray) -> tuple[float, tuple[float, float],
-                                                                  list[CornerStress]]:
-    """Largest nodal stress away from sharp re-entrant corners, where, and the corner values.
+def away_from_corners(result: SectionResult, nodes: np.ndarray | None = None) -> np.ndarray:
+    """Mask of ``nodes`` (default all) outside every sharp corner's excluded disc.
+
+    When no node is outside (a tiny section), all are kept.
+    """
+    xy = result.mesh.nodes if nodes is None else result.mesh.nodes[nodes]
+    keep = np.ones(len(xy), bool)
+    for c in result.corners:
+        keep &= np.hypot(xy[:, 0] - c.x, xy[:, 1] - c.y) > c.radius
+    return keep if keep.any() else np.ones(len(xy), bool)
+
+
+def peak(result: SectionResult, values: np.ndarray, nodes: np.ndarray | None = None, *,
+         keep: np.ndarray | None = None) -> tuple[float, tuple[float, float]]:
+    """Largest of nodal ``values`` away from sharp corners, and the node where it is.
 
     Parameters
     ----------
     result : SectionResult
         The analysed section.
-    tau : numpy.ndarray
-        Nodal stress resultant (n,), force / L^2.
+    values : numpy.ndarray
+        Values at ``nodes`` (or at every node), any unit.
+    nodes : numpy.ndarray, optional
+        Node indices the values belong to (default all nodes).
+    keep : numpy.ndarray, optional
+        Precomputed :func:`away_from_corners` mask of ``nodes``.
 
     Returns
     -------
-    tau_max : float
-        Largest value outside the corners' exclusion radii.
-    at : (float, float)
-        Its node, L.
-    corners : list of CornerStress
-        One entry per sharp re-entrant corner.
+    (float, (float, float))
+        The largest value and its node's coordinates, L.
     """
-    nodes = result.mesh.nodes
-    keep = np.ones(len(nodes), bool)
-    found = []
-    for c in reentrant_corners(result.profile):
-        r = exclusion_radius(result.profile, c)
-        dist = np.hypot(nodes[:, 0] - c.x, nodes[:, 1] - c.y)
-        keep &= dist > r
-        found.append(CornerStress(c, float(tau[int(np.argmin(dist))]), r))
-    if not keep.any():
-        keep[:] = True
-    idx = np.flatnonzero(keep)
-    k = int(idx[np.argmax(tau[idx])])
-    return float(tau[k]), (float(nodes[k, 0]), float(nodes[k, 1])), found
+    keep = away_from_corners(result, nodes) if keep is None else keep
+    k = int(np.flatnonzero(keep)[np.argmax(values[keep])])
+    node = k if nodes is None else int(nodes[k])
+    x, y = result.mesh.nodes[node]
+    return float(values[k]), (float(x), float(y))
 
 
-def shear_modulus(
-    shear_modulus: float | None = None, youngs_modulus: float | None = None,
-    poisson: float | None = None,
-) -> float:
-    """Shear modulus G, given directly or as E / (2 (1 + nu)).
+def reference_shear_modulus(result: SectionResult, G: float | None = None) -> float | None:
+    """The shear modulus that turns a torque into a twist: ``G`` if given, else G_ref.
 
-    Parameters
-    ----------
-    shear_modulus : float, optional
-        G, force / L^2 (MPa with mm and N).
-    youngs_modulus : float, optional
-        E, same unit as G.
-    poisson : float, optional
-        Poisson's ratio nu, in (-1, 0.5).
-
-    Returns
-    -------
-    float
-        G.
-
-    Examples
-    --------
-    >>> shear_modulus(youngs_modulus=70000.0, poisson=0.33)  # doctest: +ELLIPSIS
-    26315.78...
-    >>> shear_modulus()
-    Traceback (most recent call last):
-    ...
-    warpwise.errors.UsageError: a torque needs a material: give the shear modulus G, or E with Poisson's ratio
-
+    Returns None when neither is known (geometry only): stresses need no modulus, a twist does.
     """
-    if shear_modulus is not None:
-        if youngs_modulus is not None:
-            raise UsageError("give either G or E with Poisson's ratio, not both")
-        if not (np.isfinite(shear_modulus) and shear_modulus > 0):
-            raise UsageError(f"shear modulus must be positive, got {shear_modulus}")
-        return float(shear_modulus)
-    if youngs_modulus is None or poisson is None:
-        raise UsageError(
-            "a torque needs a material: give the shear modulus G, or E with Poisson's ratio")
-    if not (np.isfinite(youngs_modulus) and youngs_modulus > 0):
-        raise UsageError(f"Young's modulus must be positive, got {youngs_modulus}")
-    if not -1.0 < poisson < 0.5:
-        raise UsageError(f"Poisson's ratio must lie in (-1, 0.5), got {poisson}")
-    return float(youngs_modulus) / (2.0 * (1.0 + float(poisson)))
-
-
-@dataclass(frozen=True, eq=False)
-class ShearStress:
-    """Shear stresses from a torque and shear forces through the shear centre, at every node.
-
-    Attributes
-    ----------
-    torque, vx, vy : float
-        Loads: torque (force x L) and shear forces (force).
-    tau_zx, tau_zy, tau : numpy.ndarray
-        Combined stress components and resultant at the nodes (n,), force / L^2.
-    tau_max : float
-        Largest resultant, force / L^2.
-    tau_max_at : tuple of float
-        Node where it occurs, L.
-    tau_max_torsion, tau_max_shear : float
-        Largest resultant of the torsion part alone and of the shear-force part alone (both
-        away from sharp re-entrant corners).
-    corners : list of CornerStress
-        Sharp re-entrant corners and the combined stress found there.
-    twist_rate : float or None
-        T / (G J), radians per L; None when no shear modulus was given.
-    """
-
-    torque: float
-    vx: float
-    vy: float
-    tau_zx: np.ndarray
-    tau_zy: np.ndarray
-    tau: np.ndarray
-    tau_max: float
-    tau_max_at: tuple[float, float]
-    tau_max_torsion: float
-    tau_max_shear: float
-    twist_rate: float | None
-    corners: list[CornerStress]
-
-
-def torsion_stress(result: SectionResult, torque: float, G: float) -> TorsionStress:
-    """Shear stresses and twist rate for a torque.
-
-    Parameters
-    ----------
-    result : SectionResult
-        An analysed section.
-    torque : float
-        Torque T, force x L (N*mm with mm).
-    G : float
-        Shear modulus, force / L^2 (MPa with mm); for a composite section that of the
-        reference material.
-
-    Returns
-    -------
-    TorsionStress
-
-    """
-    if not np.isfinite(torque):
-        raise UsageError(f"torque must be a finite number, got {torque}")
-    mesh, tor, geo = result.mesh, result.torsion, result.weighted
-    local = mesh.nodes - np.array(geo.centroid)
-    scale = torque / tor.J
-    mats = result.materials
-    if not mats.composite:
-        g = nodal_gradient(mesh, tor.psi)
-        tzx = scale * (g[:, 0] - local[:, 1])
-        tzy = scale * (g[:, 1] + local[:, 0])
-    else:
-        # each material's stress from its own elements (the stress jumps at an interface);
-        # at a node shared by two materials the larger magnitude is kept
-        tzx = np.zeros(mesh.n_nodes)
-        tzy = np.zeros(mesh.n_nodes)
-        for gi in range(len(mats.names)):
-            mask = mats.group == gi
-            nodes = np.unique(mesh.elements[mask])
-            g = nodal_gradient(mesh, tor.psi, mask)[nodes]
-            w = scale * float(mats.G[mask][0])
-            zx = w * (g[:, 0] - local[nodes, 1])
-            zy = w * (g[:, 1] + local[nodes, 0])
-            bigger = np.hypot(zx, zy) > np.hypot(tzx[nodes], tzy[nodes])
-            tzx[nodes[bigger]] = zx[bigger]
-            tzy[nodes[bigger]] = zy[bigger]
-    tau = np.hypot(tzx, tzy)
-    top, at, corners = peak_stress(result, tau)
-    return TorsionStress(
-        torque=float(torque), shear_modulus=float(G), twist_rate=float(torque / (G * tor.J)),
-        tau_zx=tzx, tau_zy=tzy, tau=tau, tau_max=top, tau_max_at=at, corners=corners,
-    )
-
-
-def shear_stress(result: SectionResult, torque: float = 0.0, vx: float = 0.0, vy: float = 0.0,
-                 G: float | None = None) -> ShearStress:
-    """Combined shear stresses from a torque and shear forces acting through the shear centre.
-
-    Shear forces acting elsewhere add a torque V times their lever arm about the elastic shear
-    centre (``result.shear.shear_centre``); include it in ``torque``.
-
-    Parameters
-    ----------
-    result : SectionResult
-        An analysed section.
-    torque : float
-        Torque T, force x L.
-    vx, vy : float
-        Shear forces along x and y, force unit.
-    G : float, optional
-        Shear modulus, force / L^2; needed for a non-zero torque (twist rate).
-
-    Returns
-    -------
-    ShearStress
-
-    Raises
-    ------
-    UsageError
-        A torque without a shear modulus, or non-finite loads.
-    """
-    from ..properties.shear import shear_stress_at_nodes
-
-    for name, v in (("torque", torque), ("shear force x", vx), ("shear force y", vy)):
-        if not np.isfinite(v):
-            raise UsageError(f"{name} must be a finite number, got {v}")
-    n = result.mesh.n_nodes
-    t_zx, t_zy = np.zeros(n), np.zeros(n)
-    tau_t = 0.0
-    twist = None
-    if torque != 0.0:
-        if G is None:
-            raise UsageError("a torque needs a material: give the shear modulus G, or E with "
-                             "Poisson's ratio")
-        ts = torsion_stress(result, torque, G)
-        t_zx, t_zy, tau_t, twist = ts.tau_zx, ts.tau_zy, ts.tau_max, ts.twist_rate
-    elif G is not None:
-        twist = 0.0
-    v = shear_stress_at_nodes(result.mesh, result.weighted, result.shear, vx, vy)
-    tau_v = peak_stress(result, np.hypot(v[:, 0], v[:, 1]))[0]
-    zx, zy = t_zx + v[:, 0], t_zy + v[:, 1]
-    tau = np.hypot(zx, zy)
-    top, at, corners = peak_stress(result, tau)
-    return ShearStress(
-        torque=float(torque), vx=float(vx), vy=float(vy), tau_zx=zx, tau_zy=zy, tau=tau,
-        tau_max=top, tau_max_at=at, tau_max_torsion=float(tau_t), tau_max_shear=tau_v,
-        twist_rate=twist, corners=corners,
-    )
+    return G if G is not None else result.materials.G_ref

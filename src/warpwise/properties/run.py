@@ -1,0 +1,134 @@
+"""Analysis options to a result: the one entry every command, the catalogue and the scripts use.
+
+:class:`AnalysisOptions` holds what a user chooses about the analysis (accuracy, mesh size,
+materials, reference material, solver, bounds, error estimates, adaptive target) and
+:func:`run_analysis` turns a profile and those options into a :class:`SectionResult`:
+materials are resolved from the profile's own region names, a user table and a default
+material; a profile without material names gets its one material for the whole section; the
+error estimate or the adaptive refinement runs when asked for.
+
+Examples
+--------
+>>> from warpwise.geometry.shapes import rectangle
+>>> res = run_analysis(rectangle(40.0, 20.0), AnalysisOptions(material="steel-S235"))
+>>> res.materials.names
+('steel-S235',)
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field, replace
+
+from ..errors import WarpwiseError
+from ..geometry.profile import Profile
+from ..materials import Material, check_poisson, resolve
+from .accuracy import estimate_errors, refinement_for
+from .adapt import refine_adaptively
+from .analysis import SectionResult, analyse
+from .shear import DEFAULT_POISSON
+
+
+@dataclass(frozen=True)
+class AnalysisOptions:
+    """How a profile is analysed.
+
+    Attributes
+    ----------
+    mesh_size : float or None
+        Largest element size, drawing unit (None: chosen from the profile).
+    accuracy : str
+        ``draft``, ``normal`` or ``fine`` (see :data:`~warpwise.properties.accuracy.ACCURACY_LEVELS`).
+    poisson : float or None
+        Poisson's ratio without a material (None: :data:`DEFAULT_POISSON`).
+    material : str or None
+        Material of regions without one (built-in name or a name of ``materials``).
+    materials : mapping of str to Material
+        The user's materials table.
+    reference : str or None
+        Reference material of a composite section.
+    solver : str
+        Linear solver (``auto``, ``superlu``, ``pardiso``, ``amg``).
+    bounds : bool
+        Also compute the guaranteed lower bound on J.
+    estimate_errors : bool
+        Estimate the errors of the main values (about 7 times the work).
+    target_error : float or None
+        Refine adaptively until J is certainly within this relative error.
+    """
+
+    mesh_size: float | None = None
+    accuracy: str = "normal"
+    poisson: float | None = None
+    material: str | None = None
+    materials: Mapping[str, Material] = field(default_factory=dict)
+    reference: str | None = None
+    solver: str = "auto"
+    bounds: bool = True
+    estimate_errors: bool = False
+    target_error: float | None = None
+
+    @property
+    def nu(self) -> float:
+        """Poisson's ratio without a material, checked (dimensionless)."""
+        return check_poisson(DEFAULT_POISSON if self.poisson is None else self.poisson)
+
+    @property
+    def refine(self) -> float:
+        """Mesh refinement factor of the accuracy setting."""
+        return refinement_for(self.accuracy)
+
+
+def profile_materials(profile: Profile, options: AnalysisOptions) -> Material | list[Material] | None:
+    """The materials of a profile under ``options``: None, one for all, or one per region.
+
+    A profile whose regions carry no material name gets the one default material (or none);
+    named regions get theirs from the user table or the built-in one.
+    """
+    mats = resolve([r.material for r in profile.regions], options.materials, options.material,
+                   source=profile.source)
+    if mats is not None and not any(r.material for r in profile.regions):
+        return mats[0]
+    return mats
+
+
+def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> SectionResult:
+    """Analyse a profile with the given options.
+
+    Parameters
+    ----------
+    profile : Profile
+        A validated profile.
+    options : AnalysisOptions, optional
+        The analysis options (default: :class:`AnalysisOptions` ()).
+
+    Returns
+    -------
+    SectionResult
+        With ``errors`` set when an estimate was asked for.
+
+    Raises
+    ------
+    WarpwiseError
+        Any defect, with the profile's source as the file.
+    """
+    options = options or AnalysisOptions()
+    try:
+        nu, refine = options.nu, options.refine
+        mats = profile_materials(profile, options)
+        kwargs = {"poisson": nu, "materials": mats, "reference": options.reference,
+                  "solver": options.solver, "bounds": options.bounds}
+        if options.target_error:
+            run = refine_adaptively(profile, options.target_error, options.mesh_size, poisson=nu,
+                                    solver=options.solver)
+            return analyse(profile, mesh=run.result.mesh, **kwargs)
+        if options.estimate_errors:
+            est = estimate_errors(profile, options.mesh_size, refine=refine, poisson=nu,
+                                  bounds=options.bounds, solver=options.solver)
+            if mats is None:
+                return est.result
+            res = analyse(profile, options.mesh_size, refine=refine, **kwargs)
+            return replace(res, errors=est.relative_error)
+        return analyse(profile, options.mesh_size, refine=refine, **kwargs)
+    except WarpwiseError as exc:
+        raise exc.with_file(profile.source) from None
