@@ -8,8 +8,15 @@ material and their maxima away from sharp corners), :mod:`.shear` (torque and sh
 from .combined import CombinedStress, MaterialStress, combined_stress
 from .loads import Loads, shear_modulus
 from .recovery import MaterialField, recover
-from .shear import CornerStress, ShearStress, TorsionStress, shear_stress, torsion_stress
+from .shear import (
+    CornerStress,
+    MaterialPeak,
+    ShearStress,
+    TorsionStress,
+    shear_stress,
+    torsion_stress,
+)
 
-__all__ = ["CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialStress",
+__all__ = ["CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak", "MaterialStress",
            "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
            "shear_stress", "torsion_stress"]

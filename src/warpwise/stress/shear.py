@@ -39,6 +39,25 @@ class CornerStress:
     excluded_radius: float
 
 
+@dataclass(frozen=True)
+class MaterialPeak:
+    """The largest shear stress of one material, away from sharp re-entrant corners.
+
+    Attributes
+    ----------
+    material : str
+        Material name ("" for a geometry-only section).
+    tau_max : float
+        Largest resultant shear stress in that material, force / L^2.
+    at : tuple of float
+        Node where it occurs, drawing coordinates, L.
+    """
+
+    material: str
+    tau_max: float
+    at: tuple[float, float]
+
+
 @dataclass(frozen=True, eq=False)
 class TorsionStress:
     """Shear stresses from a torque, at every node.
@@ -62,6 +81,8 @@ class TorsionStress:
         Sharp re-entrant corners: location and the (mesh-dependent) stress there.
     by_material : list of MaterialField
         The stresses of each material at its own nodes.
+    peaks : list of MaterialPeak
+        The largest stress of each material (one entry for a single material).
     """
 
     torque: float
@@ -74,6 +95,7 @@ class TorsionStress:
     tau_max_at: tuple[float, float]
     corners: list[CornerStress]
     by_material: list[MaterialField]
+    peaks: list[MaterialPeak]
 
 
 @dataclass(frozen=True, eq=False)
@@ -132,6 +154,11 @@ def _corner_values(result: SectionResult, tau: np.ndarray) -> list[CornerStress]
             for c in result.corners]
 
 
+def _peaks(result: SectionResult, fields: list[MaterialField]) -> list[MaterialPeak]:
+    """The largest resultant shear stress of each material."""
+    return [MaterialPeak(f.material, *peak(result, f.tau, f.nodes)) for f in fields]
+
+
 def _twist(result: SectionResult, torque: float, G: float | None) -> float | None:
     """T / (G J), radians per L, or None without a shear modulus."""
     return None if G is None else float(torque / (G * result.torsion.J))
@@ -163,6 +190,7 @@ def torsion_stress(result: SectionResult, torque: float, G: float | None = None)
         torque=float(torque), shear_modulus=None if G is None else float(G),
         twist_rate=_twist(result, torque, G), tau_zx=tzx, tau_zy=tzy, tau=tau, tau_max=top,
         tau_max_at=at, corners=_corner_values(result, tau), by_material=fields,
+        peaks=_peaks(result, fields),
     )
 
 
