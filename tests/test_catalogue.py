@@ -69,7 +69,7 @@ def test_dask_local_cluster():
 def test_exception_mid_run_leaves_no_output(tmp_path, monkeypatch):
     # an interruption (here: an exception from the progress callback, as Ctrl-C would raise)
     # must not leave a partial CSV behind
-    from warpwise import cli as cli_module
+    from warpwise.cli import commands as cli_module
 
     out = tmp_path / "never.csv"
 

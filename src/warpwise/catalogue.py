@@ -22,6 +22,8 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from .errors import UsageError, WarpwiseError
+from .io.options import ReadOptions
+from .properties.run import AnalysisOptions
 
 #: File endings taken from a folder: DXF drawings and coordinate outlines.
 PROFILE_ENDINGS = (".dxf", ".txt", ".xy", ".csv", ".dat")
@@ -29,47 +31,20 @@ PROFILE_ENDINGS = (".dxf", ".txt", ".xy", ".csv", ".dat")
 
 @dataclass(frozen=True)
 class RunOptions:
-    """How each profile of a catalogue is read and analysed (see ``warpwise props``).
+    """How each profile of a catalogue is read and analysed (the options of ``warpwise props``).
 
     Attributes
     ----------
-    units : str or None
-        Length unit of the inputs (None: from each file, else mm).
-    mesh_size : float or None
-        Largest element size, drawing unit.
-    refine : float
-        Mesh refinement factor (accuracy setting).
-    estimate : bool
-        Estimate errors by Richardson extrapolation (about 7 times the work).
-    bounds : bool
-        Compute the guaranteed lower bound on J.
-    poisson : float
-        Poisson's ratio without a material.
-    material : str or None
-        Material of regions without one (built-in name or from ``materials``).
-    materials : dict
-        User materials table (name -> Material).
-    reference : str or None
-        Reference material of composite sections.
-    layers : tuple of str
-        DXF layers to read (empty: every layer with closed geometry).
-    all_parts : bool
-        Take every part of a drawing as one section.
+    read : ReadOptions
+        How each file is read (units, DXF layers, parts).
+    analysis : AnalysisOptions
+        How each profile is analysed (accuracy, materials, solver, estimates).
     datasheet_dir : str or None
         Folder for an HTML datasheet per profile (written by the worker).
     """
 
-    units: str | None = None
-    mesh_size: float | None = None
-    refine: float = 1.0
-    estimate: bool = False
-    bounds: bool = True
-    poisson: float = 0.3
-    material: str | None = None
-    materials: dict = field(default_factory=dict)
-    reference: str | None = None
-    layers: tuple[str, ...] = ()
-    all_parts: bool = False
+    read: ReadOptions = field(default_factory=ReadOptions)
+    analysis: AnalysisOptions = field(default_factory=AnalysisOptions)
     datasheet_dir: str | None = None
 
 
@@ -135,27 +110,12 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
 
     This is the worker function of a catalogue (picklable, top level).
     """
-    from .io import load_profile
-    from .materials import resolve
-    from .properties.accuracy import estimate_errors
-    from .properties.analysis import analyse
+    from .properties.run import run_analysis
     from .report.records import record_of
 
     start = time.perf_counter()
     try:
-        profile = load_profile(path, options.units, layers=options.layers or None,
-                               all_parts=options.all_parts, mesh_size=options.mesh_size)
-        mats = resolve([r.material for r in profile.regions], options.materials,
-                       options.material, source=path)
-        kwargs = {"poisson": options.poisson, "bounds": options.bounds,
-                  "materials": mats, "reference": options.reference}
-        if options.estimate:
-            result = estimate_errors(profile, options.mesh_size, refine=options.refine,
-                                     poisson=options.poisson, bounds=options.bounds).result
-            if mats is not None:
-                result = analyse(profile, options.mesh_size, refine=options.refine, **kwargs)
-        else:
-            result = analyse(profile, options.mesh_size, refine=options.refine, **kwargs)
+        result = run_analysis(options.read.load(path), options.analysis)
         sheet = thumb = None
         if options.datasheet_dir:
             from .report.html import thumbnail_svg, write_datasheet

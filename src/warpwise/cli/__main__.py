@@ -1,0 +1,7 @@
+"""``python -m warpwise.cli``: the ``warpwise`` command."""
+
+import sys
+
+from .commands import main
+
+sys.exit(main())

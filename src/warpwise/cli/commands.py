@@ -1,0 +1,207 @@
+"""The commands of ``warpwise``: each turns parsed options into library calls and output."""
+
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+import time
+from collections.abc import Sequence
+from dataclasses import replace
+from pathlib import Path
+
+from ..catalogue import Outcome, RunOptions, collect_files, run_catalogue
+from ..errors import UsageError, WarpwiseError
+from ..geometry.shapes import describe_shapes, shape_from_spec
+from ..io.check import check_file, format_report
+from ..properties.analysis import SectionResult
+from ..properties.run import run_analysis
+from ..report.files import atomic_write, csv_text, json_text
+from ..report.table import property_table
+from ..stress import Loads, combined_stress, shear_modulus, shear_stress
+from .options import analysis_options, build_parser, read_options
+from .stress_output import combined_json, combined_text, shear_json, shear_text
+
+EXIT_INPUT = 1
+EXIT_USAGE = 2
+EXIT_INTERNAL = 3
+
+
+def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -> SectionResult:
+    """Read one file and analyse it with the command's options."""
+    return run_analysis(read_options(args).load(path), analysis_options(args, bounds=bounds))
+
+
+def _loads(args: argparse.Namespace) -> Loads:
+    return Loads(N=args.axial, Mx=args.moment_x, My=args.moment_y, Vx=args.shear_x,
+                 Vy=args.shear_y, T=args.torque)
+
+
+def run_props(args: argparse.Namespace) -> int:
+    """``warpwise props``: table or JSON on stdout, optional CSV file."""
+    if not args.files and not args.shape:
+        raise UsageError("give a FILE or a --shape")
+    reading, options = read_options(args), analysis_options(args)
+    profiles = [reading.load(f) for f in args.files]
+    profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
+    results = [run_analysis(p, options) for p in profiles]
+    if args.csv:
+        atomic_write(args.csv, csv_text(results))
+    if args.json:
+        sys.stdout.write(json_text(results))
+    else:
+        sys.stdout.write("\n".join(property_table(r) for r in results))
+    return 0
+
+
+def run_stress(args: argparse.Namespace) -> int:
+    """``warpwise stress``: stresses for a torque, shear forces, axial force and moments."""
+    loads = _loads(args)
+    if not any((loads.T, loads.Vx, loads.Vy, loads.N, loads.Mx, loads.My)):
+        raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
+                         "and/or --moment-y")
+    G = None
+    if args.shear_modulus is not None or args.youngs_modulus is not None:
+        G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
+    result = _analyse_file(args.file, args, bounds=False)
+    if G is None and result.materials.G_ref is not None:
+        G = result.materials.G_ref
+    if loads.T != 0 and G is None:
+        raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
+                         "or E with Poisson's ratio")
+    if result.composite or loads.N or loads.Mx or loads.My:
+        c = combined_stress(result, loads, G)
+        text = combined_json(args.file, result, c, G) if args.json else \
+            combined_text(args.file, result, c)
+    else:
+        s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
+        text = shear_json(args.file, result, s, G) if args.json else \
+            shear_text(args.file, result, s, G)
+    sys.stdout.write(text)
+    return 0
+
+
+def run_check(args: argparse.Namespace) -> int:
+    """``warpwise check``: the report on stdout; exit code 1 when not analysable."""
+    o = read_options(args)
+    report = check_file(args.file, units=o.units, layers=args.layer, part=o.part,
+                        all_parts=o.all_parts, chord_tolerance=o.chord_tolerance,
+                        mesh_size=o.mesh_size)
+    if args.plot:
+        from ..io.check import plot_report
+
+        plot_report(report, args.plot)
+    sys.stdout.write(format_report(report))
+    if not report.ok:
+        print(f"warpwise: error: {report.verdict}", file=sys.stderr)
+        return EXIT_INPUT
+    return 0
+
+
+class _Progress:
+    """Progress on stderr: a bar on a terminal, plain lines otherwise."""
+
+    def __init__(self, total: int) -> None:
+        self.total = total
+        self.tty = sys.stderr.isatty()
+        self.start = time.perf_counter()
+
+    def __call__(self, out: Outcome, done: int, total: int) -> None:
+        state = "ok" if out.ok else "failed"
+        if self.tty:
+            width = 30
+            fill = int(width * done / max(total, 1))
+            sys.stderr.write(f"\r[{'#' * fill}{'.' * (width - fill)}] {done}/{total} "
+                             f"{Path(out.path).name[:40]:<40}")
+            if done == total:
+                sys.stderr.write("\n")
+        else:
+            sys.stderr.write(f"{done}/{total} {out.path}: {state} ({out.seconds:.2f} s)\n")
+        sys.stderr.flush()
+
+
+def run_catalogue_command(args: argparse.Namespace) -> int:
+    """``warpwise catalogue``: every profile analysed; good rows written; failures listed."""
+    if not (args.csv or args.json or args.html):
+        raise UsageError("say where the results go: --csv OUT, --json OUT and/or --html DIR")
+    files = collect_files(args.items)
+    options = RunOptions(read=read_options(args), analysis=analysis_options(args))
+    if args.html:
+        Path(args.html).mkdir(parents=True, exist_ok=True)
+        options = replace(options, datasheet_dir=args.html)
+    outcomes = run_catalogue(files, options, jobs=args.jobs, on_done=_Progress(len(files)))
+    good = [o for o in outcomes if o.ok]
+    bad = [o for o in outcomes if not o.ok]
+    if good and args.csv:
+        atomic_write(args.csv, csv_text([o.record for o in good], units=args.table_units))
+    if good and args.json:
+        atomic_write(args.json, json_text([o.record.in_units(args.table_units) for o in good]))
+    if args.html:
+        from ..report.html import write_catalogue_index
+
+        write_catalogue_index(outcomes, args.html)
+    seconds = sum(o.seconds for o in outcomes)
+    print(f"{len(good)} of {len(outcomes)} profiles analysed ({seconds:.1f} s of analysis)",
+          file=sys.stderr)
+    for o in bad:
+        print(f"warpwise: error: {o.error}", file=sys.stderr)
+    return EXIT_INPUT if bad else 0
+
+
+def run_plot(args: argparse.Namespace) -> int:
+    """``warpwise plot``: one picture of a profile."""
+    from ..report.plots import (
+        figure_combined,
+        figure_outline,
+        figure_torsion,
+        figure_warping,
+        save_figure,
+    )
+
+    result = _analyse_file(args.file, args, bounds=False)
+    G = args.shear_modulus or result.materials.G_ref or 1.0
+    if args.show == "mesh":
+        fig = figure_outline(result, show_mesh=True)
+    elif args.show == "warping":
+        fig = figure_warping(result)
+    elif args.show == "torsion":
+        fig = figure_torsion(result, args.torque or 1.0, G)
+    else:
+        fig = figure_combined(result, _loads(args), G)
+    save_figure(fig, args.output)
+    return 0
+
+
+def run_shapes(args: argparse.Namespace) -> int:
+    """``warpwise shapes``: the parametric profiles and their parameters."""
+    sys.stdout.write(describe_shapes() + "\n")
+    return 0
+
+
+COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
+            "catalogue": run_catalogue_command, "plot": run_plot, "shapes": run_shapes}
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Entry point of the ``warpwise`` command; returns the exit code."""
+    parser = build_parser()
+    try:
+        args = parser.parse_args(argv)
+        return COMMANDS[args.command](args)
+    except UsageError as exc:
+        print(f"warpwise: error: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    except WarpwiseError as exc:
+        print(f"warpwise: error: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+    except KeyboardInterrupt:
+        print("warpwise: interrupted; no output written", file=sys.stderr)
+        return 130
+    except BrokenPipeError:
+        return 0
+    except Exception as exc:  # a bug: one line unless debugging
+        if os.environ.get("WARPWISE_DEBUG"):
+            raise
+        print(f"warpwise: internal error: {type(exc).__name__}: {exc} "
+              "(set WARPWISE_DEBUG=1 for details)", file=sys.stderr)
+        return EXIT_INTERNAL

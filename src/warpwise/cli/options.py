@@ -1,0 +1,224 @@
+"""The argument parser of the ``warpwise`` command and the options it hands to the library.
+
+Each group of options is declared once and added to the commands that take it; the parsed
+options become :class:`ReadOptions` (how files are read) and :class:`AnalysisOptions` (how
+profiles are analysed) in one place each (:func:`read_options`, :func:`analysis_options`).
+"""
+
+from __future__ import annotations
+
+import argparse
+
+from ..errors import UsageError
+from ..fem.solve import METHODS
+from ..geometry.profile import LENGTH_UNITS
+from ..io.options import ReadOptions
+from ..materials import BUILTIN, read_materials
+from ..properties.accuracy import ACCURACY_LEVELS
+from ..properties.run import AnalysisOptions
+from ..properties.shear import DEFAULT_POISSON
+from ..report.table import CAUTION
+
+
+class _Parser(argparse.ArgumentParser):
+    """Argument parser whose errors are one line and a UsageError."""
+
+    def error(self, message: str) -> None:  # noqa: D102
+        raise UsageError(f"{self.prog}: {message} (see --help)")
+
+
+def finite_float(text: str) -> float:
+    """A finite number from the command line."""
+    try:
+        v = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a number: {text!r}") from None
+    if v != v or abs(v) == float("inf"):
+        raise argparse.ArgumentTypeError(f"must be a finite number, got {text}")
+    return v
+
+
+def positive_float(text: str) -> float:
+    """A finite positive number from the command line."""
+    v = finite_float(text)
+    if not v > 0:
+        raise argparse.ArgumentTypeError(f"must be a positive number, got {text}")
+    return v
+
+
+def positive_int(text: str) -> int:
+    """A whole number of at least 1 from the command line."""
+    try:
+        v = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"not a whole number: {text!r}") from None
+    if v < 1:
+        raise argparse.ArgumentTypeError(f"must be 1 or more, got {text}")
+    return v
+
+
+def _input_options(p: argparse.ArgumentParser, *, one_part: bool = True) -> None:
+    """Mesh size, input unit and what of a DXF drawing is the profile."""
+    p.add_argument("--mesh-size", type=positive_float, metavar="H",
+                   help="largest element size in the drawing unit (default: chosen from the profile)")
+    p.add_argument("--units", choices=sorted(LENGTH_UNITS),
+                   help="length unit of the input coordinates (default: from the file, else mm)")
+    p.add_argument("--layer", action="append", metavar="NAME",
+                   help="DXF: take the profile from this layer (repeat for several; default: every "
+                        "layer with closed geometry)")
+    which = p.add_mutually_exclusive_group()
+    if one_part:
+        which.add_argument("--part", type=positive_int, metavar="N",
+                           help="DXF: analyse only part N of a drawing with several (numbers as "
+                                "listed by 'warpwise check', largest area first)")
+    which.add_argument("--all-parts", action="store_true",
+                       help="DXF: analyse all separate parts together as one section")
+    p.add_argument("--chord-tolerance", type=positive_float, metavar="S",
+                   help="DXF: largest distance between a curve and its chords, drawing unit "
+                        "(default: tied to the mesh size)")
+
+
+def _load_options(p: argparse.ArgumentParser) -> None:
+    """Section forces, in consistent units (N and N*mm with mm)."""
+    for flag, meta, text in (
+            ("--torque", "T", "torque about the shear centre, force x length (N*mm with mm)"),
+            ("--shear-x", "VX", "shear force along x through the shear centre (N with mm)"),
+            ("--shear-y", "VY", "shear force along y through the shear centre (N with mm)"),
+            ("--axial", "N", "axial force through the (modulus-weighted) centroid, tension positive"),
+            ("--moment-x", "MX", "bending moment about the x axis, positive when it puts +y in tension"),
+            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension")):
+        p.add_argument(flag, type=finite_float, default=0.0, metavar=meta, help=text)
+
+
+def _analysis_options(p: argparse.ArgumentParser, *, estimate: bool = False) -> None:
+    """Options of the analysis itself: accuracy, materials, solver, Poisson's ratio."""
+    p.add_argument("--accuracy", choices=list(ACCURACY_LEVELS), default="normal",
+                   help="mesh fineness: draft (half the elements' density), normal, fine (double)")
+    p.add_argument("--material", metavar="NAME",
+                   help=f"material of the profile (or of regions without one); built in: "
+                        f"{', '.join(BUILTIN)}")
+    p.add_argument("--materials", metavar="FILE.toml",
+                   help="table of your own materials ([materials.NAME] with E, nu or G, fy, density)")
+    p.add_argument("--reference", metavar="NAME",
+                   help="reference material of a composite section's transformed properties "
+                        "(default: that of the first region)")
+    p.add_argument("--solver", choices=list(METHODS), default="auto",
+                   help="linear solver (default: chosen by size)")
+    p.add_argument("--poisson", type=finite_float, default=None, metavar="NU",
+                   help=f"Poisson's ratio for the shear properties without a material "
+                        f"(default {DEFAULT_POISSON})")
+    if estimate:
+        p.add_argument("--estimate-errors", action="store_true",
+                       help="estimate the error of J, Cw, shear centre, moduli and shear areas from "
+                            "two finer meshes (Richardson extrapolation; about 7 times the work)")
+
+
+def _moduli_options(p: argparse.ArgumentParser, *, youngs: bool = True) -> None:
+    """The shear modulus (or E with Poisson's ratio) of a section without a material."""
+    p.add_argument("--shear-modulus", type=positive_float, metavar="G",
+                   help="shear modulus, force/length^2 (MPa with mm)")
+    if youngs:
+        p.add_argument("--youngs-modulus", type=positive_float, metavar="E",
+                       help="Young's modulus (with --poisson), force/length^2")
+
+
+def _add_props(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser("props", help="geometric, torsion and warping properties",
+                       description="Print the property table of each profile.")
+    p.add_argument("files", nargs="*", metavar="FILE", help="DXF drawing(s) or outline file(s)")
+    p.add_argument("--shape", action="append", metavar="SPEC",
+                   help="a parametric profile instead of a file (repeatable; 'warpwise shapes' "
+                        "lists them with their parameters)")
+    p.add_argument("--json", action="store_true", help="print JSON instead of the table")
+    p.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")
+    p.add_argument("--target-error", type=positive_float, metavar="TOL",
+                   help="refine the mesh adaptively until J is certainly within TOL (relative)")
+    _input_options(p)
+    _analysis_options(p, estimate=True)
+
+
+def _add_stress(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser(
+        "stress", help="shear stress and twist under a torque and shear forces",
+        description="Stresses from a torque, shear forces (through the shear centre), an axial "
+                    "force and bending moments, and the twist rate.")
+    p.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
+    _load_options(p)
+    _moduli_options(p)
+    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    _input_options(p)
+    _analysis_options(p)
+
+
+def _add_catalogue(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser(
+        "catalogue", help="a folder of profiles to one property table and datasheets",
+        description="Analyse every profile (folders: their .dxf, .txt, .xy, .csv, .dat files) and "
+                    "write one row per profile. A profile that fails is listed at the end and "
+                    "does not stop the run; the exit code is then 1.")
+    p.add_argument("items", nargs="+", metavar="DIR_OR_FILE")
+    p.add_argument("--csv", metavar="OUT", help="property table, one row per profile")
+    p.add_argument("--json", metavar="OUT", help="the same as a JSON list")
+    p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
+    p.add_argument("--jobs", type=positive_int, metavar="N",
+                   help="worker processes (default: the number of CPUs; 1 runs in this process)")
+    p.add_argument("--table-units", choices=sorted(LENGTH_UNITS), default="mm",
+                   help="length unit of the table (profiles in other units are converted; "
+                        "default mm)")
+    _input_options(p, one_part=False)
+    _analysis_options(p, estimate=True)
+
+
+def _add_plot(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser("plot", help="draw the mesh, warping or stresses of a profile",
+                       description="Draw a profile: its mesh and axes, the warping function, "
+                                   "the torsion shear stress or the stresses of combined loads.")
+    p.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
+    p.add_argument("--show", choices=("mesh", "warping", "torsion", "combined"), default="mesh")
+    p.add_argument("-o", "--output", required=True, metavar="OUT.png|OUT.svg")
+    _load_options(p)
+    _moduli_options(p, youngs=False)
+    _input_options(p)
+    _analysis_options(p)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    """The argument parser of the ``warpwise`` command."""
+    parser = _Parser(prog="warpwise", description=(
+        "Section properties of bar and extrusion profiles by six-node finite elements. "
+        + CAUTION))
+    sub = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
+    _add_props(sub)
+    _add_stress(sub)
+    _add_catalogue(sub)
+    _add_plot(sub)
+    sub.add_parser("shapes", help="list the parametric profiles for --shape",
+                   description="List the parametric profiles and their parameters.")
+    check = sub.add_parser(
+        "check", help="what a drawing holds and everything wrong with it",
+        description="List what was found in a drawing (entities, layers, loops, holes, parts, "
+                    "units) and every defect with its coordinates. Exit code 0 only when the "
+                    "profile can be analysed with the same options.")
+    check.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
+    check.add_argument("--plot", metavar="OUT.png",
+                       help="also draw the outline with every defect marked (.png, .pdf or .svg)")
+    _input_options(check)
+    return parser
+
+
+def read_options(args: argparse.Namespace) -> ReadOptions:
+    """How the command's files are read."""
+    return ReadOptions(units=args.units, layers=tuple(args.layer or ()),
+                       part=getattr(args, "part", None), all_parts=args.all_parts,
+                       chord_tolerance=args.chord_tolerance, mesh_size=args.mesh_size)
+
+
+def analysis_options(args: argparse.Namespace, *, bounds: bool = True) -> AnalysisOptions:
+    """How the command's profiles are analysed (every command with analysis options)."""
+    return AnalysisOptions(
+        mesh_size=args.mesh_size, accuracy=args.accuracy, poisson=args.poisson,
+        material=args.material,
+        materials=read_materials(args.materials) if args.materials else {},
+        reference=args.reference, solver=args.solver, bounds=bounds,
+        estimate_errors=getattr(args, "estimate_errors", False),
+        target_error=getattr(args, "target_error", None))
