@@ -20,7 +20,10 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 
-from ..errors import WarpwiseError
+import numpy as np
+
+from ..errors import UsageError, WarpwiseError
+from ..fem.solve import METHODS
 from ..geometry.profile import Profile
 from ..materials import Material, check_poisson, resolve
 from .accuracy import estimate_errors, refinement_for
@@ -67,6 +70,17 @@ class AnalysisOptions:
     bounds: bool = True
     estimate_errors: bool = False
     target_error: float | None = None
+
+    def __post_init__(self) -> None:
+        """Refuse options that cannot be right before any work is done."""
+        self.nu  # noqa: B018 (checks Poisson's ratio)
+        self.refine  # noqa: B018 (checks the accuracy name)
+        if self.solver not in METHODS:
+            raise UsageError(f"unknown solver {self.solver!r} (use {', '.join(METHODS)})")
+        if self.target_error is not None and not 0 < self.target_error < 1:
+            raise UsageError(f"target error must lie in (0, 1), got {self.target_error}")
+        if self.mesh_size is not None and not (np.isfinite(self.mesh_size) and self.mesh_size > 0):
+            raise UsageError(f"mesh size must be a positive number, got {self.mesh_size}")
 
     @property
     def nu(self) -> float:
