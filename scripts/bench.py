@@ -30,7 +30,8 @@ def one(size: float) -> dict:
     from warpwise.fem.solve import PinnedSolver
     from warpwise.geometry.shapes import rectangle
     from warpwise.mesh.core import build_mesh
-    from warpwise.properties.section import geometric_properties, torsion_load, torsion_properties
+    from warpwise.properties.geometric import geometric_properties
+    from warpwise.properties.torsion import torsion_load, torsion_properties
 
     prof = rectangle(100.0, 100.0)
     t0 = time.perf_counter()

@@ -40,7 +40,8 @@ from warpwise.fem.solve import PinnedSolver
 from warpwise.geometry.shapes import rectangle, tube
 from warpwise.mesh.core import build_mesh
 from warpwise.properties.analysis import analyse
-from warpwise.properties.section import geometric_properties, torsion_load
+from warpwise.properties.geometric import geometric_properties
+from warpwise.properties.torsion import torsion_load
 
 #: Mesh sizes giving about 300k nodes for each shape.
 SHAPES = {

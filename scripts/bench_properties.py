@@ -17,7 +17,8 @@ from warpwise.fem.solve import PinnedSolver
 from warpwise.io import load_profile
 from warpwise.mesh.core import build_mesh
 from warpwise.properties.analysis import analyse
-from warpwise.properties.section import geometric_properties, torsion_load, torsion_properties
+from warpwise.properties.geometric import geometric_properties
+from warpwise.properties.torsion import torsion_load, torsion_properties
 
 ROOT = Path(__file__).resolve().parents[1]
 

@@ -21,7 +21,7 @@ MOVED: dict[str, tuple[str, ...]] = {
     "warpwise.symmetry": ("warpwise.geometry.symmetry",),
     "warpwise.check": ("warpwise.io.check",),
     "warpwise.solve": ("warpwise.fem.solve",),
-    "warpwise.section": ("warpwise.properties.section",),
+    "warpwise.section": ("warpwise.properties.geometric", "warpwise.properties.torsion"),
     "warpwise.shear": ("warpwise.properties.shear",),
     "warpwise.bounds": ("warpwise.properties.bounds",),
     "warpwise.plastic": ("warpwise.properties.plastic",),

@@ -15,7 +15,8 @@ from warpwise.fem.p2 import element_values, stiffness_matrix
 from warpwise.fem.solve import PinnedSolver, _pardiso_available
 from warpwise.geometry.shapes import rectangle
 from warpwise.mesh.core import build_mesh
-from warpwise.properties.section import geometric_properties, torsion_load
+from warpwise.properties.geometric import geometric_properties
+from warpwise.properties.torsion import torsion_load
 
 
 @pytest.fixture(scope="module")

@@ -47,7 +47,7 @@ from warpwise.geometry.shapes import (
     zed,
 )
 from warpwise.mesh.core import build_mesh
-from warpwise.properties.section import geometric_properties
+from warpwise.properties.geometric import geometric_properties
 
 PI = math.pi
 

@@ -25,7 +25,7 @@ from warpwise.geometry.profile import profile_from_loops
 from warpwise.geometry.shapes import rectangle, tube
 from warpwise.mesh.core import Mesh, build_mesh
 from warpwise.properties.analysis import analyse
-from warpwise.properties.section import torsion_load
+from warpwise.properties.torsion import torsion_load
 
 # Tolerances (relative unless stated), with the reason for each. Measured agreement on these
 # meshes (500-1200 nodes): matrices 2e-14, areas 4e-15, psi 6e-14, shear centre 1e-13,

@@ -29,15 +29,10 @@ from ..geometry.profile import Profile
 from ..materials import ElementMaterials, Material, check_poisson
 from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
+from .geometric import GeometricProperties, geometric_properties
 from .plastic import PlasticProperties, plastic_properties
-from .section import (
-    GeometricProperties,
-    TorsionProperties,
-    geometric_properties,
-    torsion_load,
-    torsion_properties,
-)
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
+from .torsion import TorsionProperties, torsion_load, torsion_properties
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
 MAX_RESIDUAL = 1e-8

@@ -27,7 +27,7 @@ from ..fem.p2 import ElementValues, assemble_vector, gradient, integrate
 from ..fem.solve import PinnedSolver
 from ..materials import ElementMaterials
 from ..mesh.core import Mesh
-from .section import GeometricProperties
+from .geometric import GeometricProperties
 
 #: Poisson's ratio used for shear properties when no material is given (steel and aluminium
 #: alloys lie at 0.30 and 0.33; common practice, no source).

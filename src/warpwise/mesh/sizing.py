@@ -1,0 +1,205 @@
+"""Boundary sizing: where the boundary points go before Triangle fills the interior.
+
+Every boundary segment is split to a length tied to the local wall thickness measured across
+the material (:func:`wall_thickness`), so a thin wall gets at least two elements through its
+thickness; near sharp re-entrant corners the points are graded towards the corner.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import shapely
+
+from ..errors import ProfileError
+from ..geometry.profile import Profile, default_element_size
+
+#: Elements through the local wall thickness at the boundary (at least two).
+ELEMENTS_ACROSS_WALL = 2.5
+#: Element size at a sharp re-entrant corner, as a fraction of the local size there.
+CORNER_SIZE_FACTOR = 0.05
+#: Growth of the element size with distance from a sharp re-entrant corner.
+CORNER_GRADING = 0.3
+#: Smallest element size asked for at a boundary, as a fraction of the largest size h.
+MIN_SIZE_FRACTION = 1e-3
+#: Largest number of boundary points before meshing is refused.
+MAX_BOUNDARY_POINTS = 400_000
+
+
+def default_size(profile: Profile) -> float:
+    """Default target element size for a profile: a fraction of sqrt(A), drawing unit."""
+    return default_element_size(profile.area)
+
+
+def planar_graph(profile: Profile) -> tuple[np.ndarray, np.ndarray]:
+    """Unique vertices and unique segments of all loops of all regions."""
+    loops = [loop for r in profile.regions for loop in r.loops()]
+    pts = np.vstack(loops)
+    tol = 1e-9 * max(profile.size, 1e-300)
+    key = np.round(pts / tol).astype(np.int64)
+    _, first, inverse = np.unique(key, axis=0, return_index=True, return_inverse=True)
+    inverse = inverse.reshape(-1)
+    vertices = pts[first]
+    segs = []
+    start = 0
+    for loop in loops:
+        idx = inverse[start:start + len(loop)]
+        segs.append(np.column_stack([idx, np.roll(idx, -1)]))
+        start += len(loop)
+    seg = np.sort(np.vstack(segs), axis=1)
+    seg = seg[seg[:, 0] != seg[:, 1]]
+    seg = np.unique(seg, axis=0)
+    if len(profile.regions) > 1:
+        seg = _split_at_t_junctions(vertices, seg, tol)
+    return vertices, seg
+
+
+def _split_at_t_junctions(p: np.ndarray, seg: np.ndarray, tol: float) -> np.ndarray:
+    """Split segments at vertices lying inside them (regions meeting along part of an edge)."""
+    for _ in range(50):
+        lines = shapely.linestrings(np.stack([p[seg[:, 0]], p[seg[:, 1]]], axis=1))
+        tree = shapely.STRtree(lines)
+        vi, si = tree.query(shapely.points(p), predicate="dwithin", distance=tol)
+        inner = (seg[si, 0] != vi) & (seg[si, 1] != vi)
+        vi, si = vi[inner], si[inner]
+        if len(si) == 0:
+            break
+        # one split per segment per pass: the vertex nearest the segment's first end
+        d = np.linalg.norm(p[vi] - p[seg[si, 0]], axis=1)
+        order = np.lexsort((d, si))
+        si, vi = si[order], vi[order]
+        first = np.r_[True, si[1:] != si[:-1]]
+        si, vi = si[first], vi[first]
+        keep = np.ones(len(seg), bool)
+        keep[si] = False
+        seg = np.vstack([seg[keep], np.column_stack([seg[si, 0], vi]),
+                         np.column_stack([vi, seg[si, 1]])])
+        seg = np.unique(np.sort(seg, axis=1), axis=0)
+    return seg
+
+
+def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.ndarray,
+                   seg_b: np.ndarray) -> np.ndarray:
+    """Local material thickness seen from the midpoints of segments (a, b).
+
+    A ray leaves each midpoint along each normal that points into the material and stops at
+    the first boundary segment it meets; the shortest such distance is the local thickness.
+
+    Parameters
+    ----------
+    profile : Profile
+        The profile (its union decides which side is material).
+    a, b : numpy.ndarray
+        End points (k, 2) of the segments to measure from, drawing unit.
+    seg_a, seg_b : numpy.ndarray
+        End points (M, 2) of all boundary segments, drawing unit.
+
+    Returns
+    -------
+    numpy.ndarray
+        Thickness (k,), drawing unit; the profile size where no wall is found.
+
+    """
+    size = profile.size
+    mid = 0.5 * (a + b)
+    d = b - a
+    length = np.linalg.norm(d, axis=1)
+    normal = np.column_stack([-d[:, 1], d[:, 0]]) / np.maximum(length, 1e-300)[:, None]
+    union = profile.geometry()
+    shapely.prepare(union)
+    thickness = np.full(len(a), 2.0 * size)
+    eps = 1e-7 * size
+    seg_lines = shapely.linestrings(np.stack([seg_a, seg_b], axis=1))
+    tree = shapely.STRtree(seg_lines)
+    reach = 2.0 * size
+    for sign in (1.0, -1.0):
+        nvec = sign * normal
+        inside = shapely.contains_xy(union, mid[:, 0] + eps * nvec[:, 0], mid[:, 1] + eps * nvec[:, 1])
+        rays = np.flatnonzero(inside)
+        if rays.size == 0:
+            continue
+        start = mid[rays] + eps * nvec[rays]
+        end = mid[rays] + reach * nvec[rays]
+        lines = shapely.linestrings(np.stack([start, end], axis=1))
+        ray_i, seg_j = tree.query(lines, predicate="intersects")
+        r = rays[ray_i]
+        # ray p + t n against segment q + s e: solve the 2x2 system for t
+        p, n = mid[r], nvec[r]
+        q, e = seg_a[seg_j], seg_b[seg_j] - seg_a[seg_j]
+        det = n[:, 0] * (-e[:, 1]) + e[:, 0] * n[:, 1]
+        ok = np.abs(det) > 1e-300
+        w = q - p
+        t = np.where(ok, (w[:, 0] * (-e[:, 1]) + e[:, 0] * w[:, 1]) / np.where(ok, det, 1.0), np.inf)
+        t = np.where(t > 2 * eps, t, np.inf)
+        best = np.full(len(a), np.inf)
+        np.minimum.at(best, r, t)
+        thickness = np.minimum(thickness, best)
+    return thickness
+
+
+def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Split each segment into ceil(length/target) equal pieces; return points and segments."""
+    a, b = p[seg[:, 0]], p[seg[:, 1]]
+    length = np.linalg.norm(b - a, axis=1)
+    pieces = np.maximum(1, np.ceil(length / target - 1e-9)).astype(np.int64)
+    n_new = pieces - 1
+    owner = np.repeat(np.arange(len(seg)), n_new)
+    offset = np.arange(n_new.sum()) - np.repeat(np.cumsum(n_new) - n_new, n_new)
+    frac = (offset + 1) / pieces[owner]
+    new_pts = a[owner] + frac[:, None] * (b - a)[owner]
+    # chain of point indices per segment: a, new points..., b
+    start = np.cumsum(pieces + 1) - (pieces + 1)
+    chain = np.empty(int((pieces + 1).sum()), dtype=np.int64)
+    chain[start] = seg[:, 0]
+    chain[start + pieces] = seg[:, 1]
+    chain[np.repeat(start, n_new) + 1 + offset] = len(p) + np.arange(len(new_pts))
+    last = np.zeros(len(chain), bool)
+    last[start + pieces] = True
+    t = np.flatnonzero(~last)
+    return np.vstack([p, new_pts]), np.column_stack([chain[t], chain[t + 1]])
+
+
+def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_corner: np.ndarray,
+                      grade: float) -> tuple[np.ndarray, np.ndarray]:
+    """Bisect boundary segments until each is shorter than h_c + grade * (distance to corner).
+
+    Parameters
+    ----------
+    pts, sub : numpy.ndarray
+        Boundary points (p, 2) and segments (s, 2).
+    corners : numpy.ndarray
+        Corner points (k, 2).
+    h_corner : numpy.ndarray
+        Element size wanted at each corner (k,).
+    grade : float
+        Growth of the size with distance from a corner.
+    """
+    if len(corners) == 0:
+        return pts, sub
+    for _ in range(60):
+        a, b = pts[sub[:, 0]], pts[sub[:, 1]]
+        mid = 0.5 * (a + b)
+        d = np.linalg.norm(mid[:, None, :] - corners[None, :, :], axis=2)  # (s, k), k is small
+        target = (h_corner[None, :] + grade * d).min(axis=1)
+        split = np.linalg.norm(b - a, axis=1) > target
+        if not split.any():
+            break
+        new = len(pts) + np.arange(int(split.sum()))
+        pts = np.vstack([pts, mid[split]])
+        s = sub[split]
+        sub = np.vstack([sub[~split], np.column_stack([s[:, 0], new]), np.column_stack([new, s[:, 1]])])
+    return pts, sub
+
+
+def check_boundary_budget(pts: np.ndarray, seg: np.ndarray, target: np.ndarray,
+                           full: Profile) -> None:
+    """Refuse a boundary that would need more than MAX_BOUNDARY_POINTS points (a sliver)."""
+    lengths = np.linalg.norm(pts[seg[:, 1]] - pts[seg[:, 0]], axis=1)
+    needed = int(np.sum(np.ceil(lengths / target)))
+    if needed > MAX_BOUNDARY_POINTS:
+        thin = int(np.argmin(target))
+        where = tuple(0.5 * (pts[seg[thin, 0]] + pts[seg[thin, 1]]))
+        raise ProfileError(f"a wall thins to almost nothing (the mesh would need {needed:,} "
+                           "boundary points); is the outline a sliver?", file=full.source,
+                           where=where)
+
+

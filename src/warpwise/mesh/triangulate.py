@@ -1,0 +1,113 @@
+"""Triangle (through meshpy): the three-node mesh of a profile part, and its six-node form."""
+
+from __future__ import annotations
+
+import numpy as np
+import shapely
+from meshpy import triangle
+
+from ..errors import ProfileError, UsageError
+from ..geometry.corners import reentrant_corners
+from ..geometry.profile import Profile
+from .edges import mesh_edges
+from .sizing import (
+    CORNER_GRADING,
+    CORNER_SIZE_FACTOR,
+    MAX_BOUNDARY_POINTS,
+    MIN_SIZE_FRACTION,
+    check_boundary_budget,
+    grade_to_corners,
+    planar_graph,
+    split_segments,
+    wall_thickness,
+)
+
+
+def to_quadratic(nodes: np.ndarray, tris: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Add mid-side nodes to three-node triangles, vectorised over unique edges."""
+    edges = mesh_edges(tris)
+    a, b = edges.nodes[:, 0], edges.nodes[:, 1]
+    mids = 0.5 * (nodes[a] + nodes[b])
+    mid_idx = len(nodes) + edges.of_element
+    return np.vstack([nodes, mids]), np.hstack([tris, mid_idx]).astype(np.int64)
+
+
+def hole_seeds(part: Profile) -> list[np.ndarray]:
+    """One point inside each hole that no other region fills (Triangle's hole markers)."""
+    union = part.geometry()
+    holes = []
+    for reg in part.regions:
+        for hole in reg.holes:
+            empty = shapely.Polygon(hole).difference(union)
+            if not empty.is_empty and empty.area > 0:
+                holes.append(np.asarray(empty.representative_point().coords[0]))
+    return holes
+
+
+def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
+                 refine_level: float = 1.0) -> tuple[
+        np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
+    vertices, seg = planar_graph(part)
+    fv, fseg = planar_graph(full)
+    seg_a, seg_b = fv[fseg[:, 0]], fv[fseg[:, 1]]
+    # two passes: split by the thickness at segment midpoints, then measure again on the pieces;
+    # no element is asked to be smaller than MIN_SIZE_FRACTION of h (a wall thinning to nothing
+    # would otherwise ask for endless boundary points)
+    floor = MIN_SIZE_FRACTION * h
+    t1 = np.maximum(wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b),
+                    floor * across)
+    check_boundary_budget(vertices, seg, np.minimum(h, t1 / across), full)
+    pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across))
+    t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b),
+                    floor * across)
+    check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)
+    pts, sub = split_segments(pts, sub, np.minimum(h, t2 / across))
+    corners = reentrant_corners(full, measure=False)
+    if corners:
+        cxy = np.array([(c.x, c.y) for c in corners])
+        # size at the corner: a fraction of the local size there (wall thickness or h)
+        near = np.argmin(np.linalg.norm(pts[sub[:, 0]][:, None] - cxy[None], axis=2), axis=0)
+        local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
+        # the corner size shrinks faster than h under refinement (as h^2), which keeps the
+        # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
+        pts, sub = grade_to_corners(pts, sub, cxy, CORNER_SIZE_FACTOR * local / refine_level,
+                                     CORNER_GRADING)
+    if len(pts) > MAX_BOUNDARY_POINTS:
+        raise UsageError(f"the boundary needs {len(pts):,} points after grading towards sharp "
+                         f"corners, more than the limit of {MAX_BOUNDARY_POINTS:,}",
+                         file=full.source)
+    info = triangle.MeshInfo()
+    info.set_points(pts)
+    info.set_facets(sub)
+    holes = hole_seeds(part)
+    if holes:
+        info.set_holes(holes)
+    info.regions.resize(len(part.regions))
+    for k, reg in enumerate(part.regions):
+        x, y = np.asarray(reg.polygon.representative_point().coords[0])
+        info.regions[k] = [float(x), float(y), float(k), 0.0]
+    max_area = h * h * np.sqrt(3.0) / 4.0
+    try:
+        out = triangle.build(info, attributes=True, max_volume=max_area, min_angle=min_angle,
+                             generate_neighbor_lists=False)
+    except RuntimeError as exc:  # Triangle refuses degenerate input
+        raise ProfileError(f"meshing failed ({exc})", file=full.source) from None
+    nodes = np.asarray(out.points, dtype=float)
+    tris = np.asarray(out.elements, dtype=np.int64)
+    if tris.size == 0:
+        raise ProfileError("meshing produced no elements", file=full.source)
+    region = np.asarray(out.element_attributes, dtype=float).reshape(-1).round().astype(np.int64)
+    p = nodes[tris]
+    cross = (p[:, 1, 0] - p[:, 0, 0]) * (p[:, 2, 1] - p[:, 0, 1]) - (
+        p[:, 1, 1] - p[:, 0, 1]) * (p[:, 2, 0] - p[:, 0, 0])
+    flip = cross < 0
+    tris[flip] = tris[flip][:, [0, 2, 1]]
+    # drop nodes Triangle left unused (duplicates it merged)
+    used = np.zeros(len(nodes), bool)
+    used[tris.ravel()] = True
+    renumber = np.cumsum(used) - 1
+    segs = np.asarray(out.facets, dtype=np.int64).reshape(-1, 2)
+    return nodes[used], renumber[tris], renumber[segs], region
+
+
