@@ -25,32 +25,18 @@ ROOT = HERE.parent
 
 
 def one(size: float) -> dict:
-    """Time mesh / assembly / solve / post of the torsion set for one mesh size (this process)."""
-    from warpwise.fem.p2 import element_values, stiffness_matrix
-    from warpwise.fem.solve import PinnedSolver
+    """Stage times of the torsion set for one mesh size (this process), from the analysis itself."""
     from warpwise.geometry.shapes import rectangle
-    from warpwise.mesh.core import build_mesh
-    from warpwise.properties.geometric import geometric_properties
-    from warpwise.properties.torsion import torsion_load, torsion_properties
+    from warpwise.properties.analysis import analyse
 
-    prof = rectangle(100.0, 100.0)
-    t0 = time.perf_counter()
-    mesh = build_mesh(prof, size)
-    t1 = time.perf_counter()
-    ev = element_values(mesh, np.zeros(2))
-    geo, evc = geometric_properties(mesh, ev, np.zeros(2))
-    K = stiffness_matrix(mesh, evc)
-    f = torsion_load(mesh, evc)
-    t2 = time.perf_counter()
-    solver = PinnedSolver(K, 0)
-    t3 = time.perf_counter()
-    tor = torsion_properties(mesh, evc, geo, solver, f)
-    t4 = time.perf_counter()
+    res = analyse(rectangle(100.0, 100.0), size)
+    t = res.timings
     peak_mb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
-    return {"nodes": mesh.n_nodes, "elements": mesh.n_elements, "mesh": t1 - t0,
-            "assembly": t2 - t1, "factorise": t3 - t2, "solve_post": t4 - t3,
-            "total": t4 - t0, "peak_mb": peak_mb, "solver": solver.method, "J": tor.J,
-            "shear_centre": list(tor.shear_centre), "Cw": tor.Cw}
+    return {"nodes": res.mesh.n_nodes, "elements": res.mesh.n_elements, "mesh": t["mesh"],
+            "assembly": t["basis"] + t["assembly"], "factorise": t["factorise"],
+            "solve_post": t["warping"], "total": sum(t.values()), "peak_mb": peak_mb,
+            "solver": res.solver.method, "J": res.torsion.J,
+            "shear_centre": list(res.torsion.shear_centre), "Cw": res.torsion.Cw}
 
 
 def compare(size: float) -> None:
