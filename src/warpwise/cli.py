@@ -136,7 +136,7 @@ def build_parser() -> argparse.ArgumentParser:
     props.add_argument("files", nargs="*", metavar="FILE", help="DXF drawing(s) or outline file(s)")
     props.add_argument("--shape", action="append", metavar="SPEC",
                        help="a parametric profile instead of a file, e.g. "
-                            "'i_section:h=200,b=100,tw=5.6,tf=8.5,r=12' (repeatable; "
+                            "'i_beam:h=200,b=100,tw=5.6,tf=8.5,r=12' (repeatable; "
                             "'warpwise shapes' lists them)")
     props.add_argument("--json", action="store_true", help="print JSON instead of the table")
     props.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")

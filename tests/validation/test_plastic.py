@@ -13,7 +13,7 @@ round-off of the polygon clipping, which grows with the number of vertices: the 
 the 4096-gon and the tubes).
 
 Circles and tubes are polygons here: :mod:`warpwise.plastic` uses the loops, not the recorded
-arcs (measured on ``round_bar(d)`` with 256 segments: Wpl 1.5e-4 below d^3/6 while the curved
+arcs (measured on ``circle(d)`` with 256 segments: Wpl 1.5e-4 below d^3/6 while the curved
 mesh gives A to 7.6e-10 and Wel to 1.5e-9 of the circle). For the N-gon inscribed in a circle
 of diameter d, with N a multiple of 4 and a vertex on +x (as
 :func:`warpwise.shapes.ellipse_points` places them), each half is a fan of N/2 triangles from
@@ -29,7 +29,7 @@ import numpy as np
 import pytest
 
 from warpwise.geometry.profile import profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle
 from warpwise.materials import builtin_material, make_material
 from warpwise.properties.analysis import analyse
 from warpwise.properties.plastic import plastic_properties
@@ -177,7 +177,7 @@ def test_shape_factor_circle():
     # (the circle, measured 1.5e-9 off with 256 segments: the curved edges' own geometric
     # error), Wpl from the polygon, so the ratio is 16 / (3 pi) cos^2(pi / N) to 1e-8.
     n = 256
-    v = values(analyse(round_bar(20.0, segments=n)))
+    v = values(analyse(circle(20.0, segments=n)))
     exact = 16 / (3 * math.pi)
     assert rel(v["shape_x"], exact * ngon_factor(n)) < 1e-8
     assert rel(v["shape_y"], exact * ngon_factor(n)) < 1e-8

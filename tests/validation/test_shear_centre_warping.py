@@ -17,7 +17,7 @@ import numpy as np
 import pytest
 
 from warpwise.geometry.profile import profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar, tube
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle, tube
 from warpwise.mesh.core import boundary_edges
 from warpwise.properties.analysis import analyse
 
@@ -90,7 +90,7 @@ DOUBLY_SYMMETRIC = {
     "rectangle": lambda: rectangle(40.0, 20.0),
     "I-section": lambda: i_section(100.0, 200.0, 10.0, 6.0),
     "box": lambda: box(100.0, 60.0, 5.0),
-    "circle": lambda: round_bar(20.0),
+    "circle": lambda: circle(20.0),
     "ellipse": lambda: solid(ellipse_points(20.0, 10.0, 256)),
 }
 
@@ -117,7 +117,7 @@ def test_doubly_symmetric_centre_at_centroid(name, shift):
     assert res.geometric.Ixy == 0.0
 
 
-@pytest.mark.parametrize("profile", [round_bar(20.0), tube(100.0, 96.0)], ids=["circle", "tube"])
+@pytest.mark.parametrize("profile", [circle(20.0), tube(100.0, 96.0)], ids=["circle", "tube"])
 def test_circle_and_tube_do_not_warp(profile):
     # Timoshenko & Goodier, Theory of Elasticity, ch. 10 (circular shaft; from memory): plane
     # sections of a circular bar or a concentric tube stay plane, psi = 0, so omega = 0 and

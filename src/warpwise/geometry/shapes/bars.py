@@ -1,4 +1,4 @@
-"""Solid bars and the circular tube: rectangle, polygon, ellipse, round bar, tube, hexagon, keyed shaft."""
+"""Solid bars and the circular tube: rectangle, polygon, ellipse, circle, tube, hexagon, shaft with keyway."""
 
 from __future__ import annotations
 
@@ -111,8 +111,8 @@ def _circles(diameters: Sequence[float], segments: int, curved: bool
     return loops, arcs
 
 
-def round_bar(d: float, *, segments: int = 256, units: str = "mm", curved: bool = True) -> Profile:
-    """Solid round bar of diameter d centred on the origin.
+def circle(d: float, *, segments: int = 256, units: str = "mm", curved: bool = True) -> Profile:
+    """Solid circle of diameter d centred on the origin.
 
     With ``curved`` the mesh's boundary nodes lie on the true circle (curved element edges);
     otherwise the section is the inscribed polygon of ``segments`` sides.
@@ -136,12 +136,12 @@ def round_bar(d: float, *, segments: int = 256, units: str = "mm", curved: bool 
     """
     check_positive(d=d)
     loops, arcs = _circles([d], segments, curved)
-    return shape_profile("round bar", loops, arcs, units, d=d)
+    return shape_profile("circle", loops, arcs, units, d=d)
 
 
 def tube(d_outer: float, d_inner: float, *, segments: int = 256, units: str = "mm",
          curved: bool = True) -> Profile:
-    """Circular tube with outer and inner diameters, centred on the origin (see round_bar).
+    """Circular tube with outer and inner diameters, centred on the origin (see circle).
 
     Parameters
     ----------
@@ -200,7 +200,7 @@ def hexagon(s: float, *, units: str = "mm") -> Profile:
     return shape_profile(label, [pts], [], units, s=s)
 
 
-def keyed_shaft(d: float, w: float, k: float, *, units: str = "mm") -> Profile:
+def shaft_with_keyway(d: float, w: float, k: float, *, units: str = "mm") -> Profile:
     """Round shaft with a flat-bottomed keyway cut at the top.
 
     Parameters
@@ -225,12 +225,12 @@ def keyed_shaft(d: float, w: float, k: float, *, units: str = "mm") -> Profile:
 
     Examples
     --------
-    >>> p = keyed_shaft(40.0, 12.0, 5.0)
+    >>> p = shaft_with_keyway(40.0, 12.0, 5.0)
     >>> round(float(p.bounds[3]), 6), len(p.arcs)  # top corners at sqrt(d^2 - w^2) / 2
     (19.078784, 1)
 
     """
-    label = "keyed shaft"
+    label = "shaft with keyway"
     d, w, k = check_sizes(label, dict(d=d, w=w, k=k))
     R = d / 2
     require(w < d, label, f"keyway width w={w:g} must be less than the diameter d={d:g}")

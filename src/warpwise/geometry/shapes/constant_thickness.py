@@ -1,6 +1,6 @@
-"""Sections of one wall thickness: the rectangular hollow section, the zed and the lipped channel.
+"""Sections of one wall thickness: the hollow rectangle, the Z-shape and the channel with lips.
 
-Hollow sections have an outer and an inner corner radius; the bent (cold-formed) sections have
+The hollow rectangle has an outer and an inner corner radius; the bent (cold-formed) sections have
 bends of inside radius r and outside radius r + t about one centre. Every corner radius is a
 recorded arc.
 """
@@ -12,9 +12,9 @@ from .dimensions import check_sizes, require
 from .outline import rounded_loop, rounded_profile, shape_profile
 
 
-def rhs(h: float, b: float, t: float, ro: float = 0.0, ri: float | None = None, *,
-        units: str = "mm") -> Profile:
-    """Rectangular (or square) hollow section with rounded corners.
+def hollow_rectangle(h: float, b: float, t: float, ro: float = 0.0, ri: float | None = None, *,
+                     units: str = "mm") -> Profile:
+    """Hollow rectangle (or square), a rectangular tube, with rounded corners.
 
     Parameters
     ----------
@@ -40,12 +40,12 @@ def rhs(h: float, b: float, t: float, ro: float = 0.0, ri: float | None = None, 
 
     Examples
     --------
-    >>> p = rhs(100.0, 50.0, 4.0, ro=8.0)
+    >>> p = hollow_rectangle(100.0, 50.0, 4.0, ro=8.0)
     >>> [round(a.r, 9) for a in p.arcs][:2], len(p.arcs)
     ([8.0, 8.0], 8)
 
     """
-    label = "RHS"
+    label = "hollow rectangle"
     h, b, t, ro = check_sizes(label, dict(h=h, b=b, t=t), dict(ro=ro))
     given = ri is not None
     ri = max(ro - t, 0.0) if ri is None else check_sizes(label, {}, dict(ri=ri))[0]
@@ -66,8 +66,8 @@ def rhs(h: float, b: float, t: float, ro: float = 0.0, ri: float | None = None, 
                          ri=ri if given else None)
 
 
-def zed(h: float, b: float, t: float, r: float = 0.0, *, units: str = "mm") -> Profile:
-    """Zed section of constant thickness with equal flanges, cold-formed (bent) or plain.
+def z_shape(h: float, b: float, t: float, r: float = 0.0, *, units: str = "mm") -> Profile:
+    """Z-shape of constant thickness with equal flanges, cold-formed (bent) or plain.
 
     Parameters
     ----------
@@ -79,7 +79,7 @@ def zed(h: float, b: float, t: float, r: float = 0.0, *, units: str = "mm") -> P
         Thickness, drawing unit.
     r : float
         Inside bend radius, drawing unit; the outside radius is ``r + t`` (concentric).
-        0 gives a plain zed with sharp corners inside and out. ``r + t <= b`` and
+        0 gives a plain Z-shape with sharp corners inside and out. ``r + t <= b`` and
         ``2 (r + t) <= h``.
     units : str
         Length unit.
@@ -91,7 +91,7 @@ def zed(h: float, b: float, t: float, r: float = 0.0, *, units: str = "mm") -> P
         flange towards +x, bottom flange towards -x.
 
     """
-    label = "zed"
+    label = "Z-shape"
     h, b, t, r = check_sizes(label, dict(h=h, b=b, t=t), dict(r=r))
     require(t < b, label, f"thickness t={t:g} must be less than the flange width b={b:g}")
     require(2 * t < h, label, f"two flanges of t={t:g} do not fit in the depth h={h:g}")
@@ -107,9 +107,9 @@ def zed(h: float, b: float, t: float, r: float = 0.0, *, units: str = "mm") -> P
     return rounded_profile(label, corners, radii, max(b, h), units, h=h, b=b, t=t, r=r)
 
 
-def lipped_channel(h: float, b: float, c: float, t: float, r: float = 0.0, *,
-                   units: str = "mm") -> Profile:
-    """Cold-formed lipped channel (C section) of constant thickness.
+def channel_with_lips(h: float, b: float, c: float, t: float, r: float = 0.0, *,
+                      units: str = "mm") -> Profile:
+    """Cold-formed channel of constant thickness with lips turned in at the flange tips.
 
     Parameters
     ----------
@@ -135,7 +135,7 @@ def lipped_channel(h: float, b: float, c: float, t: float, r: float = 0.0, *,
         +x, lips turned in towards y = 0.
 
     """
-    label = "lipped channel"
+    label = "channel with lips"
     h, b, c, t, r = check_sizes(label, dict(h=h, b=b, c=c, t=t), dict(r=r))
     o = r + t
     require(2 * c < h, label, f"lip length c={c:g} must be less than half the depth h={h:g} "

@@ -20,7 +20,7 @@ from ..profile import Arc, Profile, profile_from_loops
 #: outline (and so the mesh along it) resolves the curve: the quadratic element edges through
 #: three points of the circle miss a sliver of about r^2 a^5 / 30 per edge of half-angle a, in
 #: total about (sweep) s^2 / 15 for a sagitta s whatever the radius: at most 1.4e-7 relative in
-#: the area properties of the shapes tested (zed), 5e-8 for hot-rolled sections.
+#: the area properties of the shapes tested (Z-shape), 5e-8 for hot-rolled sections.
 ARC_SAGITTA = 1.0e-4
 
 #: Largest angle one chord of an arc may span, degrees. A concave fillet's tangent points then

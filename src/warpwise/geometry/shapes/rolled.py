@@ -1,7 +1,7 @@
 """Rolled and welded open sections: a web (or stem) and flanges of their own thicknesses.
 
-I or H sections, channels, angles and tees, with root fillets where web and flange meet (and
-toe radii on angles). Straight edges are exact; every fillet is a recorded arc.
+I-beams (H when the flanges are wide), channels, angles and tees, with root fillets where web
+and flange meet (and toe radii on angles). Straight edges are exact; every fillet is a recorded arc.
 """
 
 from __future__ import annotations
@@ -61,9 +61,9 @@ def _web_and_flanges(label: str, h: object, b: object, tw: object, tf: object, r
     return h, b, tw, tf, r
 
 
-def i_section(h: float, b: float, tw: float, tf: float, r: float = 0.0, *,
-              units: str = "mm") -> Profile:
-    """I or H section with parallel flanges and root fillets.
+def i_beam(h: float, b: float, tw: float, tf: float, r: float = 0.0, *,
+           units: str = "mm") -> Profile:
+    """I-beam (an H when the flanges are wide) with parallel flanges and root fillets.
 
     Parameters
     ----------
@@ -88,12 +88,12 @@ def i_section(h: float, b: float, tw: float, tf: float, r: float = 0.0, *,
 
     Examples
     --------
-    >>> p = i_section(200.0, 100.0, 5.6, 8.5, 12.0)
+    >>> p = i_beam(200.0, 100.0, 5.6, 8.5, 12.0)
     >>> round(p.area, 1)  # of the polygon; the arcs give 2 b tf + (h - 2 tf) tw + (4 - pi) r^2
     2849.4
 
     """
-    label = "I-section"
+    label = "I-beam"
     h, b, tw, tf, r = _web_and_flanges(label, h, b, tw, tf, r, flanges=2, outstands=2)
     x, y, u, v = b / 2, h / 2, tw / 2, h / 2 - tf
     corners = [(-x, -y), (x, -y), (x, -v), (u, -v), (u, v), (x, v), (x, y), (-x, y), (-x, v),

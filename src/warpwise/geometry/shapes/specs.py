@@ -9,9 +9,9 @@ from dataclasses import dataclass
 
 from ...errors import UsageError
 from ..profile import Profile
-from .bars import hexagon, keyed_shaft, rectangle, round_bar, tube
-from .constant_thickness import lipped_channel, rhs, zed
-from .rolled import angle, channel, i_section, tee
+from .bars import circle, hexagon, rectangle, shaft_with_keyway, tube
+from .constant_thickness import channel_with_lips, hollow_rectangle, z_shape
+from .rolled import angle, channel, i_beam, tee
 
 
 @dataclass(frozen=True)
@@ -93,7 +93,8 @@ class ShapeParameter:
         What it is, in plain words.
     default : float or None
         Default value (a length in the drawing unit), or None when it must be given; for
-        ``rhs`` ``ri`` the default is computed (see :func:`rhs`).
+        ``ri`` of ``hollow_rectangle`` the default is computed (see
+        :func:`~warpwise.geometry.shapes.hollow_rectangle`).
     required : bool
         True when the spec must give it.
     """
@@ -115,16 +116,17 @@ _kind = ShapeKind.from_function
 _KINDS: tuple[ShapeKind, ...] = (
     _kind("rectangle", rectangle, "solid rectangle", "centroid at the origin", "rectangle:b=40,h=20",
           b="width along x", h="height along y"),
-    _kind("round_bar", round_bar, "solid round bar", "centre at the origin", "round_bar:d=30",
+    _kind("circle", circle, "solid circle", "centre at the origin", "circle:d=30",
           d="diameter"),
     _kind("tube", tube, "circular tube", "centre at the origin", "tube:d_outer=60,d_inner=50",
           d_outer="outer diameter", d_inner="inner diameter"),
-    _kind("rhs", rhs, "rectangular hollow section with rounded corners", "centroid at the origin",
-          "rhs:h=100,b=50,t=4,ro=8", h="overall depth along y", b="overall width along x",
-          t="wall thickness", ro="outer corner radius",
+    _kind("hollow_rectangle", hollow_rectangle, "hollow rectangle with rounded corners",
+          "centroid at the origin", "hollow_rectangle:h=100,b=50,t=4,ro=8",
+          h="overall depth along y", b="overall width along x", t="wall thickness",
+          ro="outer corner radius",
           ri="inner corner radius (default max(ro - t, 0))"),
-    _kind("i_section", i_section, "I or H section with root fillets", "centroid at the origin",
-          "i_section:h=200,b=100,tw=5.6,tf=8.5,r=12",
+    _kind("i_beam", i_beam, "I-beam (or H) with root fillets", "centroid at the origin",
+          "i_beam:h=200,b=100,tw=5.6,tf=8.5,r=12",
           b="flange width", tw="web thickness", **_WEB_AND_FLANGES),
     _kind("channel", channel, "channel with parallel flanges and root fillets", _BACK_OF_WEB,
           "channel:h=160,b=65,tw=7.5,tf=10.5,r=10.5",
@@ -136,16 +138,16 @@ _KINDS: tuple[ShapeKind, ...] = (
           "axis on x = 0, foot of the stem on y = 0, flange on top",
           "tee:h=100,b=100,tw=11,tf=11,r=11",
           b="flange width", tw="stem thickness", **_WEB_AND_FLANGES),
-    _kind("zed", zed, "zed of constant thickness, bent (r > 0) or plain",
-          "centroid at the origin, top flange towards +x", "zed:h=200,b=75,t=2,r=3",
+    _kind("z_shape", z_shape, "Z-shape of constant thickness, bent (r > 0) or plain",
+          "centroid at the origin, top flange towards +x", "z_shape:h=200,b=75,t=2,r=3",
           h="overall depth", b="overall flange width", t="thickness", r="inside bend radius"),
-    _kind("lipped_channel", lipped_channel, "cold-formed lipped channel", _BACK_OF_WEB,
-          "lipped_channel:h=150,b=60,c=18,t=2,r=3", h="overall depth", b="overall flange width",
+    _kind("channel_with_lips", channel_with_lips, "cold-formed channel with lips", _BACK_OF_WEB,
+          "channel_with_lips:h=150,b=60,c=18,t=2,r=3", h="overall depth", b="overall flange width",
           c="overall lip length", t="thickness", r="inside bend radius"),
     _kind("hexagon", hexagon, "regular hexagon bar", "centre at the origin, flats parallel to x",
           "hexagon:s=24", s="size across flats"),
-    _kind("keyed_shaft", keyed_shaft, "round shaft with a keyway",
-          "shaft centre at the origin, keyway at +y", "keyed_shaft:d=40,w=12,k=5",
+    _kind("shaft_with_keyway", shaft_with_keyway, "round shaft with a keyway",
+          "shaft centre at the origin, keyway at +y", "shaft_with_keyway:d=40,w=12,k=5",
           d="shaft diameter", w="keyway width", k="keyway depth from the circle on the centreline"),
 )
 
@@ -213,16 +215,16 @@ def shape_from_spec(spec: str, units: str = "mm") -> Profile:
 
     Examples
     --------
-    >>> shape_from_spec("rhs: h=100, b=50, t=4, ro=8").source
-    'RHS h=100 b=50 t=4 ro=8'
-    >>> shape_from_spec("i_section:h=200,b=100,tw=5.6")
+    >>> shape_from_spec("hollow rectangle: h=100, b=50, t=4, ro=8").source
+    'hollow rectangle h=100 b=50 t=4 ro=8'
+    >>> shape_from_spec("i_beam:h=200,b=100,tw=5.6")
     Traceback (most recent call last):
     ...
-    warpwise.errors.UsageError: shape i_section: missing parameter tf (flange thickness)
+    warpwise.errors.UsageError: shape i_beam: missing parameter tf (flange thickness)
     >>> shape_from_spec("box:h=1")  # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
-    warpwise.errors.UsageError: unknown shape 'box' (shapes: rectangle, round_bar, tube, rhs, ...)
+    warpwise.errors.UsageError: unknown shape 'box' (shapes: rectangle, circle, tube, hollow_rectangle, ...)
 
     """
     if not isinstance(spec, str) or not spec.strip():
