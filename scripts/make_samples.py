@@ -557,7 +557,7 @@ def heat_sink():
                          "entities in shuffled order, about half the lines drawn end to start"])
 
 
-def keyed_shaft():
+def hollow_shaft_with_keyway():
     """Hollow shaft 40 with a 12 x 5 keyway (CIRCLE bore, ARC rim, LINE/ARC keyway)."""
     R, b, depth, rk, rbore = 20.0, 12.0, 5.0, 0.6, 8.0
     y_side = math.sqrt(R**2 - (b / 2) ** 2)
@@ -735,8 +735,8 @@ def grip_ellipse():
                   notes=["full ELLIPSE outside; bore = half ELLIPSE (parameters 0 to pi) + LINE"])
 
 
-SAMPLES = (mullion, heat_sink, keyed_shaft, handrail, purlin, solar_rail, thick_angle, box_inches,
-           strut_spline, grip_ellipse)
+SAMPLES = (mullion, heat_sink, hollow_shaft_with_keyway, handrail, purlin, solar_rail, thick_angle,
+           box_inches, strut_spline, grip_ellipse)
 
 
 def samples() -> list[Sample]:

@@ -116,7 +116,7 @@ def test_plot_and_shapes_commands(cli, tmp_path):
     assert code == 0, err
     assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
     code, out, _ = cli("shapes")
-    assert code == 0 and "i_section" in out
+    assert code == 0 and "i_beam" in out
 
 
 def test_props_shape_and_material(cli):

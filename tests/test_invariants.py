@@ -52,8 +52,8 @@ FAST = settings(max_examples=int(_LONG) if _LONG else 30, deadline=None, derando
 #: Round-off bounds, relative. Geometric integrals are plain quadrature sums (measured worst
 #: 2e-13). Values from the warping solve carry its round-off, eps times the condition number of
 #: K, which is 1e6 or more for thin walls with many elements (measured worst 1.2e-11, Cw of a
-#: zed of t = 1.4 mm rotated by 1 degree); J = Ip - f.psi (section.py) also
-#: loses digits to cancellation when J << Ip (J/Ip is 1e-4 for the zed), so J's round-off is
+#: Z-shape of t = 1.4 mm rotated by 1 degree); J = Ip - f.psi (section.py) also
+#: loses digits to cancellation when J << Ip (J/Ip is 1e-4 for the Z-shape), so J's round-off is
 #: taken relative to Ip.
 ROUND_OFF = 1e-12
 SOLVE_ROUND_OFF = 1e-9

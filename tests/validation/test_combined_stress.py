@@ -21,7 +21,7 @@ import pytest
 
 from warpwise.fem.p2 import integrate, interpolate
 from warpwise.geometry.profile import Arc, profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle
 from warpwise.materials import builtin_material, make_material
 from warpwise.properties.analysis import analyse
 from warpwise.stress import Loads, combined_stress, shear_stress, torsion_stress
@@ -159,12 +159,12 @@ def test_von_mises_identity_all_loads(angle_result):
     assert cs.twist_rate == pytest.approx(ss.twist_rate, rel=RTOL)
 
 
-def test_round_bar_axial_force_and_torque():
+def test_circle_axial_force_and_torque():
     # sigma = N / A everywhere; tau = T r / J; at the surface vm = sqrt((N/A)^2 + 3 (T R / J)^2);
     # utilisation = vm / fy. The curved mesh is off the circle by 1.5e-9 (A 7.6e-10), hence 5e-9.
     d = 30.0
     steel = builtin_material("steel-S355")
-    res = analyse(round_bar(d), materials=steel)
+    res = analyse(circle(d), materials=steel)
     L = Loads(N=80e3, T=400e3)
     cs = combined_stress(res, L)
     ms, = cs.by_material

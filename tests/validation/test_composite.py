@@ -21,7 +21,7 @@ import pytest
 
 from warpwise.errors import InputFileError, ProfileError, UsageError, WarpwiseError
 from warpwise.geometry.profile import Arc, profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle
 from warpwise.materials import BUILTIN, builtin_material, make_material, read_materials
 from warpwise.properties.analysis import analyse
 from warpwise.report.quantities import values
@@ -314,6 +314,6 @@ def test_mass_per_metre_two_materials():
 
 def test_mass_of_round_bar_matches_its_area():
     steel = builtin_material("steel-S355")
-    v = values(analyse(round_bar(20.0), materials=steel))
+    v = values(analyse(circle(20.0), materials=steel))
     assert v["A"] == pytest.approx(math.pi * 100, rel=1e-8)  # the circle (measured 7.6e-10)
     assert v["mass"] == pytest.approx(7850 * v["A"] * 1e-6, rel=1e-8)

@@ -18,7 +18,7 @@ whose quadratic form e^T M e is the second moment about an axis through the cent
 import numpy as np
 import pytest
 
-from warpwise.geometry.shapes import polygon, rectangle, round_bar
+from warpwise.geometry.shapes import circle, polygon, rectangle
 from warpwise.properties.analysis import analyse
 
 RTOL = 1e-13
@@ -189,7 +189,7 @@ def test_unequal_angle(mesh_size):
 
 
 @pytest.mark.parametrize("curved", [True, False])
-def test_round_bar(curved):
+def test_circle(curved):
     # circle of diameter d (common practice): A = pi d^2 / 4, Ix = Iy = pi d^4 / 64,
     # W = pi d^3 / 32, r = d / 4. The mesh boundary has N = 512 vertices on the circle, with
     # N / 4 whole, so nodes sit at (0, +-R) and (+-R, 0) and the extreme fibres are exactly R.
@@ -204,7 +204,7 @@ def test_round_bar(curved):
     # Measured: A, Ix against the meshed domain's values to 7e-15 (curved), 3e-15 (straight).
     d, N = 20.0, 512
     R = d / 2
-    res = analyse(round_bar(d, segments=N, curved=curved))
+    res = analyse(circle(d, segments=N, curved=curved))
     g = res.geometric
     if curved:
         a = np.pi / N

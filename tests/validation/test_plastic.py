@@ -13,7 +13,7 @@ round-off of the polygon clipping, which grows with the number of vertices: the 
 the 4096-gon and the tubes).
 
 Circles and tubes are polygons here: :mod:`warpwise.plastic` uses the loops, not the recorded
-arcs (measured on ``round_bar(d)`` with 256 segments: Wpl 1.5e-4 below d^3/6 while the curved
+arcs (measured on ``circle(d)`` with 256 segments: Wpl 1.5e-4 below d^3/6 while the curved
 mesh gives A to 7.6e-10 and Wel to 1.5e-9 of the circle). For the N-gon inscribed in a circle
 of diameter d, with N a multiple of 4 and a vertex on +x (as
 :func:`warpwise.shapes.ellipse_points` places them), each half is a fan of N/2 triangles from
@@ -29,7 +29,7 @@ import numpy as np
 import pytest
 
 from warpwise.geometry.profile import profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle
 from warpwise.materials import builtin_material, make_material
 from warpwise.properties.analysis import analyse
 from warpwise.properties.plastic import plastic_properties
@@ -48,7 +48,7 @@ def ngon_factor(segments: int) -> float:
     return math.cos(math.pi / segments) ** 2
 
 
-def i_section_loop(h: float, b: float, tw: float, tf: float) -> np.ndarray:
+def i_beam_loop(h: float, b: float, tw: float, tf: float) -> np.ndarray:
     """Doubly symmetric I-section without root fillets, centred on the origin."""
     y0, y1 = -h / 2, h / 2
     return np.array([
@@ -124,7 +124,7 @@ def test_doubly_symmetric_i_section():
     h, b, tw, tf = 200.0, 100.0, 5.6, 8.5
     wx = b * tf * (h - tf) + tw * (h - 2 * tf) ** 2 / 4
     wy = 2 * tf * b**2 / 4 + (h - 2 * tf) * tw**2 / 4
-    prof = profile_from_loops([i_section_loop(h, b, tw, tf)])
+    prof = profile_from_loops([i_beam_loop(h, b, tw, tf)])
     p = plastic_properties(prof)
     assert rel(p.Wpl_x, wx) < RTOL and rel(p.Wpl_y, wy) < RTOL
     assert rel(p.Wpl_1, wx) < RTOL and rel(p.Wpl_2, wy) < RTOL  # alpha = 0
@@ -177,7 +177,7 @@ def test_shape_factor_circle():
     # (the circle, measured 1.5e-9 off with 256 segments: the curved edges' own geometric
     # error), Wpl from the polygon, so the ratio is 16 / (3 pi) cos^2(pi / N) to 1e-8.
     n = 256
-    v = values(analyse(round_bar(20.0, segments=n)))
+    v = values(analyse(circle(20.0, segments=n)))
     exact = 16 / (3 * math.pi)
     assert rel(v["shape_x"], exact * ngon_factor(n)) < 1e-8
     assert rel(v["shape_y"], exact * ngon_factor(n)) < 1e-8

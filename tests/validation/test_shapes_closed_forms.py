@@ -4,7 +4,7 @@ Each shape's exact area properties (the true curved outline, not its polygon) ar
 from primitives whose integrals are exact (common practice, no source; any calculus text):
 rectangles, annular circular sectors, fillet spandrels (a square minus a quarter disc) and
 polygons (Green's theorem). The composition of hot-rolled sections, e.g.
-A = 2 b tf + (h - 2 tf) tw + (4 - pi) r^2 for an I-section, follows the steel design
+A = 2 b tf + (h - 2 tf) tw + (4 - pi) r^2 for an I-beam, follows the steel design
 handbooks, exact geometry; cold-formed sections are straight pieces plus quarter annuli
 (bend of inside radius r, outside r + t, concentric).
 
@@ -17,7 +17,7 @@ whatever the radii), plus the quadrature of curved elements (the degree-4 rule i
 them; measured negligible). The tests bound each error by that sliver, computed exactly for
 every chord of the profile (chord_deficits), instead of by a fixed tolerance: the bound is
 reached (ratio 1.0000 on the area) where the mesher keeps the polygon's chords as element
-edges. Measured relative errors at the default mesh: 1.4e-7 at most (zed), see TARGET.
+edges. Measured relative errors at the default mesh: 1.4e-7 at most (Z-shape), see TARGET.
 The straight polygon itself is off by up to 3e-4 relative (the chords' sagitta): the tests
 also check that the mesh is far closer to the curved closed form than the polygon is.
 """
@@ -35,16 +35,16 @@ from warpwise.geometry.profile import Arc, profile_from_loops
 from warpwise.geometry.shapes import (
     angle,
     channel,
+    channel_with_lips,
+    circle,
     hexagon,
-    i_section,
-    keyed_shaft,
-    lipped_channel,
+    hollow_rectangle,
+    i_beam,
     rectangle,
-    rhs,
-    round_bar,
+    shaft_with_keyway,
     tee,
     tube,
-    zed,
+    z_shape,
 )
 from warpwise.mesh.core import build_mesh
 from warpwise.properties.geometric import geometric_properties
@@ -137,7 +137,7 @@ def polygon_moments(pts: np.ndarray) -> Moments:
 # --------------------------------------------------------------------------- exact shapes
 
 
-def exact_i_section(h, b, tw, tf, r):
+def exact_i_beam(h, b, tw, tf, r):
     # steel design handbooks, exact geometry: two flanges, the web between them, four root
     # fillets (spandrels) in the corners between web and flanges
     v = h / 2 - tf
@@ -174,13 +174,13 @@ def rounded_rectangle(x, y, r):
         *[spandrel(sx * x, sy * y, r, -sx, -sy) for sx in (1, -1) for sy in (1, -1)])
 
 
-def exact_rhs(h, b, t, ro, ri):
+def exact_hollow_rectangle(h, b, t, ro, ri):
     # steel design handbooks, exact geometry: outer rounded rectangle less the inner one
     return rounded_rectangle(b / 2, h / 2, ro) - rounded_rectangle(b / 2 - t, h / 2 - t, ri)
 
 
-def exact_zed(h, b, t, r):
-    # cold-formed zed: flat pieces and two 90 degree bends (quarter annuli r .. r + t about
+def exact_z_shape(h, b, t, r):
+    # cold-formed Z-shape: flat pieces and two 90 degree bends (quarter annuli r .. r + t about
     # centres concentric with both faces); centre of the web at the origin. Plain (r = 0):
     # three rectangles with sharp corners
     u, y, f = t / 2, h / 2, b - t / 2
@@ -192,8 +192,8 @@ def exact_zed(h, b, t, r):
                  sector(u + r, y - o, r, o, PI / 2, PI))
 
 
-def exact_lipped_channel(h, b, c, t, r):
-    # cold-formed lipped channel: web, two flanges, two lips and four 90 degree bends
+def exact_channel_with_lips(h, b, c, t, r):
+    # cold-formed channel with lips: web, two flanges, two lips and four 90 degree bends
     # (quarter annuli r .. r + t); back of the web on x = 0, mid-depth on y = 0
     o, y = r + t, h / 2
     half = total(rect(o, b - o, -y, -y + t), rect(b - t, b, -y + o, -y + c),
@@ -203,7 +203,7 @@ def exact_lipped_channel(h, b, c, t, r):
     return total(half, top, rect(0, t, -y + o, y - o))
 
 
-def exact_keyed_shaft(d, w, k):
+def exact_shaft_with_keyway(d, w, k):
     # the disc less the keyway: the rectangle below the chord at the keyway's edges and the
     # circular segment above it (a sector less the triangle on the centre)
     R = d / 2
@@ -224,33 +224,36 @@ def exact_hexagon(s):
 # (id, profile factory, exact moments). Dimensions are invented, of ordinary proportions.
 CASES = [
     ("rectangle", lambda: rectangle(40.0, 20.0), lambda: rect(-20, 20, -10, 10)),
-    ("round_bar", lambda: round_bar(30.0), lambda: sector(0, 0, 0, 15.0, 0, 2 * PI)),
+    ("circle", lambda: circle(30.0), lambda: sector(0, 0, 0, 15.0, 0, 2 * PI)),
     ("tube", lambda: tube(60.0, 50.0), lambda: sector(0, 0, 25.0, 30.0, 0, 2 * PI)),
-    ("rhs_cold", lambda: rhs(100.0, 50.0, 4.0, 8.0), lambda: exact_rhs(100, 50, 4, 8, 4)),
-    ("rhs_hot", lambda: rhs(120.0, 80.0, 6.0, 9.0, 6.0), lambda: exact_rhs(120, 80, 6, 9, 6)),
-    ("i_section", lambda: i_section(200.0, 100.0, 5.6, 8.5, 12.0),
-     lambda: exact_i_section(200, 100, 5.6, 8.5, 12)),
-    ("h_section", lambda: i_section(160.0, 160.0, 8.0, 13.0, 15.0),
-     lambda: exact_i_section(160, 160, 8, 13, 15)),
+    ("hollow_rectangle_cold", lambda: hollow_rectangle(100.0, 50.0, 4.0, 8.0),
+     lambda: exact_hollow_rectangle(100, 50, 4, 8, 4)),
+    ("hollow_rectangle_hot", lambda: hollow_rectangle(120.0, 80.0, 6.0, 9.0, 6.0),
+     lambda: exact_hollow_rectangle(120, 80, 6, 9, 6)),
+    ("i_beam", lambda: i_beam(200.0, 100.0, 5.6, 8.5, 12.0),
+     lambda: exact_i_beam(200, 100, 5.6, 8.5, 12)),
+    ("i_beam_wide", lambda: i_beam(160.0, 160.0, 8.0, 13.0, 15.0),
+     lambda: exact_i_beam(160, 160, 8, 13, 15)),
     ("channel", lambda: channel(160.0, 65.0, 7.5, 10.5, 10.5),
      lambda: exact_channel(160, 65, 7.5, 10.5, 10.5)),
     ("angle", lambda: angle(80.0, 60.0, 8.0, 8.0, 4.0), lambda: exact_angle(80, 60, 8, 8, 4)),
     ("equal_angle", lambda: angle(50.0, 50.0, 5.0, 7.0, 3.5), lambda: exact_angle(50, 50, 5, 7, 3.5)),
     ("tee", lambda: tee(100.0, 100.0, 11.0, 11.0, 11.0), lambda: exact_tee(100, 100, 11, 11, 11)),
-    ("zed", lambda: zed(200.0, 75.0, 2.0, 3.0), lambda: exact_zed(200, 75, 2, 3)),
-    ("zed_plain", lambda: zed(150.0, 60.0, 5.0), lambda: exact_zed(150, 60, 5, 0)),
-    ("lipped_channel", lambda: lipped_channel(150.0, 60.0, 18.0, 2.0, 3.0),
-     lambda: exact_lipped_channel(150, 60, 18, 2, 3)),
+    ("z_shape", lambda: z_shape(200.0, 75.0, 2.0, 3.0), lambda: exact_z_shape(200, 75, 2, 3)),
+    ("z_shape_plain", lambda: z_shape(150.0, 60.0, 5.0), lambda: exact_z_shape(150, 60, 5, 0)),
+    ("channel_with_lips", lambda: channel_with_lips(150.0, 60.0, 18.0, 2.0, 3.0),
+     lambda: exact_channel_with_lips(150, 60, 18, 2, 3)),
     ("hexagon", lambda: hexagon(24.0), lambda: exact_hexagon(24)),
-    ("keyed_shaft", lambda: keyed_shaft(40.0, 12.0, 5.0), lambda: exact_keyed_shaft(40, 12, 5)),
+    ("shaft_with_keyway", lambda: shaft_with_keyway(40.0, 12.0, 5.0),
+     lambda: exact_shaft_with_keyway(40, 12, 5)),
 ]
 
 #: Round-off allowance, relative to A, the profile size and Ix + Iy (measured on the polygon-only
-#: shapes, rectangle, hexagon and plain zed: at most 2e-15).
+#: shapes, rectangle, hexagon and plain Z-shape: at most 2e-15).
 ROUND_OFF = 1e-13
 
 #: Accuracy asked of the shapes at the default mesh, relative. Measured errors: at most 1.4e-7
-#: (zed: many bends in a thin section), 5e-8 for the hot-rolled shapes, 8e-10 for circles.
+#: (Z-shape: many bends in a thin section), 5e-8 for the hot-rolled shapes, 8e-10 for circles.
 TARGET = 1e-6
 
 
@@ -275,7 +278,7 @@ def chord_deficits(profile, centre):
     several if the mesher splits the chord) are quadratics through three points of the circle;
     for one edge the area between arc and quadratic is exactly
     r^2 (a - sin(a) (1 + (1 - cos a) / 3)) (the sector r^2 a less the curved-edge area, see
-    test_round_bar in test_geometric_closed_forms; about r^2 a^5 / 30), and splitting only
+    test_circle in test_geometric_closed_forms; about r^2 a^5 / 30), and splitting only
     makes it smaller. The sliver lies within rho = |midpoint of the arc - centre| + half the
     chord of the centre, so it moves the centroid by at most delta rho / A and any second moment
     by at most delta rho^2.
@@ -308,8 +311,8 @@ def test_area_properties_match_curved_closed_forms(name, make, exact):
     size, scale = profile.size, ex["Ix"] + ex["Iy"]
     dA, dS, dI = chord_deficits(profile, (ex["cx"], ex["cy"]))
     # measured: |A error| / dA = 1.0000 where the mesher keeps the polygon's chords (I, H,
-    # channel, tee, round bar), 0.01-0.5 where it splits them or convex and concave arcs
-    # cancel; centroid errors at most 0.8, moment errors at most 0.98 of their bounds (I-section)
+    # channel, tee, circle), 0.01-0.5 where it splits them or convex and concave arcs
+    # cancel; centroid errors at most 0.8, moment errors at most 0.98 of their bounds (I-beam)
     assert abs(geo.A - ex["A"]) <= 1.001 * dA + ROUND_OFF * ex["A"]
     assert abs(geo.centroid[0] - ex["cx"]) <= 1.001 * dS / ex["A"] + ROUND_OFF * size
     assert abs(geo.centroid[1] - ex["cy"]) <= 1.001 * dS / ex["A"] + ROUND_OFF * size
@@ -320,7 +323,7 @@ def test_area_properties_match_curved_closed_forms(name, make, exact):
     if profile.arcs:
         # the straight polygon is far off the curved outline: following the arcs matters
         # (measured: at least 99 times the bound on A, equal angle, where convex toes and the
-        # concave root nearly cancel; at least 510 times on Ix or Iy, lipped channel)
+        # concave root nearly cancel; at least 510 times on Ix or Iy, channel with lips)
         poly = polygon_of(profile)
         assert abs(poly["A"] - ex["A"]) > 50 * dA
         assert max(abs(poly[k] - ex[k]) for k in ("Ix", "Iy")) > 100 * dI

@@ -17,7 +17,7 @@ import numpy as np
 import pytest
 
 from warpwise.geometry.profile import profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, rectangle, round_bar, tube
+from warpwise.geometry.shapes import circle, ellipse_points, rectangle, tube
 from warpwise.mesh.core import boundary_edges
 from warpwise.properties.analysis import analyse
 
@@ -33,7 +33,7 @@ def solid(*loops):
     return profile_from_loops([np.asarray(loop, dtype=float) for loop in loops])
 
 
-def i_section(b, h, tf, tw):
+def i_beam_outline(b, h, tf, tw):
     """Doubly symmetric I: flange width b, flange mid-lines at y = +-h/2, web mid-line x = 0."""
     yb, yt = -h / 2 - tf / 2, h / 2 + tf / 2
     return solid([(-b / 2, yb), (b / 2, yb), (b / 2, yb + tf), (tw / 2, yb + tf),
@@ -88,9 +88,9 @@ def check_approach(t_over_b, diffs, min_slope, final):
 
 DOUBLY_SYMMETRIC = {
     "rectangle": lambda: rectangle(40.0, 20.0),
-    "I-section": lambda: i_section(100.0, 200.0, 10.0, 6.0),
+    "I-beam": lambda: i_beam_outline(100.0, 200.0, 10.0, 6.0),
     "box": lambda: box(100.0, 60.0, 5.0),
-    "circle": lambda: round_bar(20.0),
+    "circle": lambda: circle(20.0),
     "ellipse": lambda: solid(ellipse_points(20.0, 10.0, 256)),
 }
 
@@ -117,7 +117,7 @@ def test_doubly_symmetric_centre_at_centroid(name, shift):
     assert res.geometric.Ixy == 0.0
 
 
-@pytest.mark.parametrize("profile", [round_bar(20.0), tube(100.0, 96.0)], ids=["circle", "tube"])
+@pytest.mark.parametrize("profile", [circle(20.0), tube(100.0, 96.0)], ids=["circle", "tube"])
 def test_circle_and_tube_do_not_warp(profile):
     # Timoshenko & Goodier, Theory of Elasticity, ch. 10 (circular shaft; from memory): plane
     # sections of a circular bar or a concentric tube stay plane, psi = 0, so omega = 0 and
@@ -216,7 +216,7 @@ def test_channel_thin_walled_limit():
     check_approach(T_OVER_B, cw, 1.8, 5.5e-4)
 
 
-def test_i_section_thin_walled_Cw():
+def test_i_beam_thin_walled_Cw():
     # AISC Design Guide 9: Cw = Iy h^2 / 4 for a doubly symmetric I, h between flange
     # mid-lines; Iy is the section's own minor-axis second moment (the web's share, of order
     # (tw / b)^2, vanishes in the thin limit). Measured Cw / (Iy h^2 / 4) - 1 for t/b = 0.2,
@@ -226,7 +226,7 @@ def test_i_section_thin_walled_Cw():
     diffs = []
     for tb in T_OVER_B:
         tf = tb * b
-        res = run(i_section(b, h, tf, 0.6 * tf))
+        res = run(i_beam_outline(b, h, tf, 0.6 * tf))
         diffs.append(res.torsion.Cw / (res.geometric.Iy * h * h / 4.0) - 1.0)
     check_approach(T_OVER_B, diffs, 1.8, 2.5e-4)
 

@@ -14,7 +14,7 @@ import numpy as np
 import pytest
 
 from warpwise.fem.p2 import gradient, interpolate
-from warpwise.geometry.shapes import rectangle, round_bar
+from warpwise.geometry.shapes import circle, rectangle
 from warpwise.properties.analysis import analyse
 from warpwise.stress import shear_stress
 
@@ -77,7 +77,7 @@ def test_cowper_circle_nu0():
     # Cowper (1966), J. Appl. Mech. 33: k = 6 (1 + nu) / (7 + 6 nu) for the solid circle (from
     # memory), 6/7 at nu = 0. Measured at the default mesh (curved boundary edges, 2865 nodes):
     # 6.4e-6 and 7.1e-6 relative. Bound 2e-5 (same h^4 reasoning as the rectangle).
-    res = analyse(round_bar(2 * R), poisson=0.0)
+    res = analyse(circle(2 * R), poisson=0.0)
     s = res.shear
     for kappa in (s.kappa_x, s.kappa_y, s.kappa_1, s.kappa_2):
         assert rel(kappa, 6.0 / 7.0) == pytest.approx(0.0, abs=2e-5)
@@ -170,7 +170,7 @@ def test_circle_kappa_with_poisson(nu):
     # and e = Theta_h - Theta, Galerkin orthogonality gives C - C_h = int |grad e|^2 dA
     # + 2 int grad(e) . h dA, which is asserted with the exact field: measured to 7.6e-10 of C,
     # the area error of the curved-edge mesh (1 - A_h / (pi R^2)); bound 2e-9 C.
-    res = analyse(round_bar(2 * R), poisson=nu)
+    res = analyse(circle(2 * R), poisson=nu)
     s = res.shear
     for kappa in (s.kappa_x, s.kappa_y, s.kappa_1, s.kappa_2):
         assert rel(kappa, circle_kappa(nu)) == pytest.approx(0.0, abs=2e-5)
@@ -196,7 +196,7 @@ def test_circle_flexure_stress_field(nu):
     # (nu = 0), 2.0e-3 (0.3), 5.3e-3 (-0.5, where tau_zy = 0); with tau_zy of the wrong sign the
     # error would be 0.41 (nu = 0) and 0.50 (0.3). Bound 1.5 x measured (P2 stresses at this
     # mesh; the nodal averaging adds to the quadrature-point error).
-    res = analyse(round_bar(2 * R), poisson=nu)
+    res = analyse(circle(2 * R), poisson=nu)
     mesh, ev = res.mesh, res.basis
     nodal = nodal_shear(res, 1.0, 0.0)
     zx, zy = interpolate(mesh, ev, nodal[:, 0]), interpolate(mesh, ev, nodal[:, 1])

@@ -14,7 +14,7 @@ integrated exactly (Galerkin minimum-energy argument; common practice, no source
 import numpy as np
 import pytest
 
-from warpwise.geometry.shapes import ellipse, polygon, rectangle, round_bar, tube
+from warpwise.geometry.shapes import circle, ellipse, polygon, rectangle, tube
 from warpwise.properties.analysis import analyse
 from warpwise.stress import torsion_stress
 
@@ -98,11 +98,11 @@ def boundary_edge_count(res) -> int:
     return int(np.sum(counts == 1))
 
 
-def test_round_bar_torsion():
+def test_circle_torsion():
     # Timoshenko & Goodier, 3rd ed., ch. 10, "Elliptic Cross Section" with a = b (the circular
     # shaft): psi = 0 and J = Ip = pi d^4 / 32; also Roark's torsion table, solid circle.
     d, segments = 20.0, 512
-    res = analyse(round_bar(d, segments=segments))  # curved element edges (the default)
+    res = analyse(circle(d, segments=segments))  # curved element edges (the default)
     exact = np.pi * d**4 / 32.0
     # the boundary is the 512 vertices, each chord one curved element edge (no chord split)
     assert boundary_edge_count(res) == segments
@@ -121,10 +121,10 @@ def test_round_bar_torsion():
     assert np.abs(res.torsion.psi).max() / r**2 < 1e-12
 
 
-def test_round_bar_polygon_torsion():
-    # Same reference as test_round_bar_torsion, on the straight-sided inscribed polygon.
+def test_circle_polygon_torsion():
+    # Same reference as test_circle_torsion, on the straight-sided inscribed polygon.
     d, segments = 20.0, 512
-    res = analyse(round_bar(d, segments=segments, curved=False))
+    res = analyse(circle(d, segments=segments, curved=False))
     exact = np.pi * d**4 / 32.0
     assert boundary_edge_count(res) == segments
     err = rel(res.torsion.J, exact)
