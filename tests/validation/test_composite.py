@@ -312,7 +312,7 @@ def test_mass_per_metre_two_materials():
     assert values(res)["mass"] == pytest.approx((7850 + 2700) * 480 * 1e-6, rel=1e-13)
 
 
-def test_mass_of_round_bar_matches_its_area():
+def test_mass_of_circle_matches_its_area():
     steel = builtin_material("steel-S355")
     v = values(analyse(circle(20.0), materials=steel))
     assert v["A"] == pytest.approx(math.pi * 100, rel=1e-8)  # the circle (measured 7.6e-10)

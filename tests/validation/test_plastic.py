@@ -118,7 +118,7 @@ def test_tube(D, d):
     assert p.Wpl_x / thin - 1 <= (t / dm) ** 2 / 3 + RTOL
 
 
-def test_doubly_symmetric_i_section():
+def test_doubly_symmetric_i_beam():
     # exact geometry for the polygon without root fillets:
     # Wpl_x = b tf (h - tf) + tw (h - 2 tf)^2 / 4, Wpl_y = tf b^2 / 2 + (h - 2 tf) tw^2 / 4
     h, b, tw, tf = 200.0, 100.0, 5.6, 8.5
