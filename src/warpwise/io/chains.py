@@ -35,7 +35,6 @@ Examples
 from __future__ import annotations
 
 import math
-import re
 from collections import Counter
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
@@ -45,13 +44,10 @@ import shapely
 from scipy.sparse import coo_matrix
 from scipy.sparse.csgraph import connected_components
 from scipy.spatial import cKDTree
-from shapely.geometry import LinearRing, Point, Polygon
-from shapely.validation import explain_validity
+from shapely.geometry import LinearRing, Polygon
 
-from ..geometry.loops import signed_area
+from ..geometry.loops import crossing_point, even_odd_nesting, meeting_pairs, meeting_point, signed_area
 from ..geometry.profile import Arc
-
-_POINT_IN_TEXT = re.compile(r"\[\s*([-+0-9.eE]+)[\s,]+([-+0-9.eE]+)\s*\]")
 
 #: Largest angle an arc chord may span, radians (at least 48 chords in a full circle), so that
 #: an outline keeps its shape where the chord tolerance alone would allow long chords.
@@ -509,11 +505,8 @@ def loop_defects(loops: Sequence[np.ndarray], labels: Sequence[str], layers: Seq
         ring = LinearRing(pts) if len(pts) >= 3 else None
         rings.append(ring)
         if ring is not None and not ring.is_simple:
-            text = explain_validity(Polygon(pts))
-            where = _point_in(text)
-            if where is None:
-                where = tuple(np.asarray(shapely.intersection(ring, ring).representative_point().coords[0]))
-            defects.append(Defect("self-crossing", f"{name} crosses itself", (where,), ERROR, layer,
+            defects.append(Defect("self-crossing", f"{name} crosses itself", (crossing_point(ring),),
+                                  ERROR, layer,
                                   anchor=True))
         elif ring is None or abs(signed_area(pts)) <= 1e-12 * max(np.ptp(pts, axis=0).max(), 1e-300) ** 2:
             defects.append(Defect("no area", f"{name} encloses no area", (tuple(pts[0]),),
@@ -521,23 +514,14 @@ def loop_defects(loops: Sequence[np.ndarray], labels: Sequence[str], layers: Seq
             rings[-1] = None
     good = [k for k, r in enumerate(rings) if r is not None]
     if len(good) > 1:
-        tree = shapely.STRtree([rings[k] for k in good])
-        left, right = tree.query([rings[k] for k in good], predicate="intersects")
-        for u, v in zip(left, right, strict=True):
-            if u < v:
-                i, j = good[u], good[v]
-                meet = rings[i].intersection(rings[j])
-                where = tuple(np.asarray(meet.representative_point().coords[0]))
-                how = "overlap" if meet.length > 0 else "cross or touch"
-                defects.append(Defect("crossing loops", f"{labels[i]} and {labels[j]} {how}",
-                                      (where,), ERROR, layers[i], anchor=True,
-                                      layers=(layers[i], layers[j])))
+        for u, v in meeting_pairs([rings[k] for k in good]):
+            i, j = good[u], good[v]
+            where, meet = meeting_point(rings[i], rings[j])
+            how = "overlap" if meet.length > 0 else "cross or touch"
+            defects.append(Defect("crossing loops", f"{labels[i]} and {labels[j]} {how}",
+                                  (where,), ERROR, layers[i], anchor=True,
+                                  layers=(layers[i], layers[j])))
     return defects
-
-
-def _point_in(text: str) -> tuple[float, float] | None:
-    m = _POINT_IN_TEXT.search(text)
-    return (float(m.group(1)), float(m.group(2))) if m else None
 
 
 @dataclass(frozen=True)
@@ -585,20 +569,9 @@ def nest_loops(loops: Sequence[np.ndarray], materials: Sequence[str | None] | No
     n = len(loops)
     mats = [None] * n if materials is None else list(materials)
     polys = [Polygon(p) for p in loops]
-    depth = np.zeros(n, dtype=np.int64)
-    parent = np.full(n, -1)
+    depth, parent = even_odd_nesting(polys, mats)
     if n == 0:
         return depth, []
-    tree = shapely.STRtree(polys)
-    probes = [Point(p[0]) for p in loops]
-    inner, outer = tree.query(probes, predicate="within")
-    same = np.array([mats[i] == mats[j] for i, j in zip(inner, outer, strict=True)], bool)
-    if len(same):
-        inner, outer = inner[same], outer[same]
-    np.add.at(depth, inner, 1)
-    for i, j in zip(inner, outer, strict=True):
-        if depth[j] == depth[i] - 1:
-            parent[i] = j
     solids = []
     for i in np.flatnonzero(depth % 2 == 0):
         holes = [int(h) for h in np.flatnonzero(parent == i)]
