@@ -2,7 +2,8 @@
 
 :func:`loop_defects` lists loops that enclose no area, cross themselves, or cross or touch
 another loop (all of them, each with its point, where the profile builder stops at the first);
-:func:`nest_loops` groups loops by even-odd nesting into parts (solid regions with their holes).
+:func:`nest_loops` groups loops by even-odd nesting into parts (solid regions with their holes)
+and :func:`describe_part` puts a part in words for messages.
 Both build on the loop checks of :mod:`warpwise.geometry.loops`.
 """
 
@@ -16,7 +17,7 @@ import shapely
 from shapely.geometry import LinearRing, Polygon
 
 from ..geometry.loops import crossing_point, even_odd_nesting, meeting_pairs, meeting_point, signed_area
-from .defects import ERROR, Defect
+from .defects import ERROR, Defect, fmt, fmt_point
 
 
 def loop_defects(loops: Sequence[np.ndarray], labels: Sequence[str], layers: Sequence[str]) -> list[Defect]:
@@ -82,6 +83,20 @@ class Part:
     area: float
     bounds: tuple[float, float, float, float]
     holes: int
+
+
+def describe_part(number: int, bounds: Sequence[float], area: float, unit: str) -> str:
+    """A part in words: its number, size, lower-left corner and area.
+
+    Examples
+    --------
+    >>> describe_part(2, (10.0, 0.0, 30.0, 5.0), 100.0, "mm")
+    'part 2: 20 x 5 mm at (10, 0), area 100 mm2'
+
+    """
+    x0, y0, x1, y1 = bounds
+    return (f"part {number}: {fmt(x1 - x0)} x {fmt(y1 - y0)} {unit} at {fmt_point((x0, y0))}, "
+            f"area {fmt(area)} {unit}2")
 
 
 def nest_loops(loops: Sequence[np.ndarray], materials: Sequence[str | None] | None = None) -> tuple[
