@@ -22,12 +22,13 @@ from .fem.solve import METHODS
 from .geometry.profile import LENGTH_UNITS, Profile
 from .geometry.shapes import describe_shapes, shape_from_spec
 from .io import load_profile
-from .io.check import check_file, format_report, plot_report
+from .io.check import check_file, format_report
 from .materials import BUILTIN, read_materials, resolve
 from .properties.accuracy import ACCURACY_LEVELS, estimate_errors, refinement_for
 from .properties.adapt import refine_adaptively
 from .properties.analysis import SectionResult, analyse
 from .properties.shear import DEFAULT_POISSON
+from .report.check_plot import plot_report
 from .report.files import atomic_write, csv_text, json_text
 from .report.table import CAUTION, format_value, property_table
 from .stress.combined import Loads, combined_stress
