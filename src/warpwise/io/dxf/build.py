@@ -147,7 +147,7 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     Parameters
     ----------
     layout : Layout
-        From :func:`lay_out`.
+        From :func:`~warpwise.io.dxf.layout.lay_out`.
     part : int, optional
         Analyse only this part (1-based, largest area first).
     all_parts : bool

@@ -168,7 +168,7 @@ def lay_out(drawing: Drawing, layers: Sequence[str] | None = None, tolerance: fl
     Parameters
     ----------
     drawing : Drawing
-        A drawing from :func:`read_drawing`.
+        A drawing from :func:`~warpwise.io.dxf.drawing.read_drawing`.
     layers : sequence of str, optional
         Layers to use (names are not case-sensitive). Default: every layer that holds closed
         geometry; open chains on layers without any closed loop are left out.
