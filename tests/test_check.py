@@ -8,7 +8,8 @@ import numpy as np
 import pytest
 
 from warpwise.errors import InputFileError
-from warpwise.io.check import check_file, format_report, plot_report
+from warpwise.io.check import check_file, format_report
+from warpwise.report.check_plot import plot_report
 
 PNG_MAGIC = b"\x89PNG\r\n\x1a\n"
 

@@ -19,7 +19,7 @@ MOVED: dict[str, tuple[str, ...]] = {
     "warpwise.shapes": ("warpwise.geometry.shapes",),
     "warpwise.corners": ("warpwise.geometry.corners",),
     "warpwise.symmetry": ("warpwise.geometry.symmetry",),
-    "warpwise.check": ("warpwise.io.check",),
+    "warpwise.check": ("warpwise.io.check", "warpwise.report.check_plot"),
     "warpwise.solve": ("warpwise.fem.solve",),
     "warpwise.section": ("warpwise.properties.geometric", "warpwise.properties.torsion"),
     "warpwise.shear": ("warpwise.properties.shear",),

@@ -88,7 +88,7 @@ def run_check(args: argparse.Namespace) -> int:
                         all_parts=o.all_parts, chord_tolerance=o.chord_tolerance,
                         mesh_size=o.mesh_size)
     if args.plot:
-        from ..io.check import plot_report
+        from ..report.check_plot import plot_report
 
         plot_report(report, args.plot)
     sys.stdout.write(format_report(report))

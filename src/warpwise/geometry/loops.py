@@ -4,8 +4,11 @@ A loop is a closed polygon given by its vertices (drawing unit, no closing repea
 :func:`clean_loop` checks one loop (finite, at least three distinct points, some area, no
 spike, no self-contact or crossing); :func:`check_no_crossings` checks that the loops of one
 material neither cross nor touch; :func:`even_odd_solids` nests them even-odd (a loop inside
-one other is a hole, inside a hole a new island). The profile builder and the DXF chain
-joiner both use these functions.
+one other is a hole, inside a hole a new island). The profile builder uses these functions;
+the DXF reader, which lists every defect instead of stopping at the first, builds on the same
+parts: :func:`crossing_point` (where a loop crosses itself), :func:`meeting_pairs` and
+:func:`meeting_point` (loops that cross or touch, and where) and :func:`even_odd_nesting`
+(depth and parent of each loop).
 """
 
 from __future__ import annotations
@@ -108,6 +111,73 @@ def where_from_shapely(text: str) -> tuple[float, float] | None:
     return (float(m.group(1)), float(m.group(2))) if m else None
 
 
+def crossing_point(ring: LinearRing) -> tuple[float, float]:
+    """A point where a ring that is not simple crosses or touches itself.
+
+    Parameters
+    ----------
+    ring : shapely.LinearRing
+        A closed ring for which ``ring.is_simple`` is False.
+
+    Returns
+    -------
+    (float, float)
+        The point shapely's validity explanation names, else a point of the ring's
+        self-intersection.
+
+    Examples
+    --------
+    >>> crossing_point(LinearRing([(0, 0), (2, 2), (2, 0), (0, 2)]))
+    (1.0, 1.0)
+
+    """
+    where = where_from_shapely(explain_validity(Polygon(ring)))
+    if where is None:
+        crossing = shapely.intersection(ring, ring)
+        where = tuple(np.asarray(crossing.representative_point().coords[0]))
+    return where
+
+
+def meeting_pairs(rings: Sequence[LinearRing], distance: float | None = None) -> list[tuple[int, int]]:
+    """Pairs of rings that meet, each pair once (first index smaller), in index order.
+
+    Parameters
+    ----------
+    rings : sequence of shapely.LinearRing
+        Loop boundaries.
+    distance : float, optional
+        Rings closer than this count as meeting; default: only rings that intersect.
+
+    Returns
+    -------
+    list of (int, int)
+
+    """
+    tree = shapely.STRtree(rings)
+    if distance is None:
+        left, right = tree.query(rings, predicate="intersects")
+    else:
+        left, right = tree.query(rings, predicate="dwithin", distance=distance)
+    return [(int(i), int(j)) for i, j in zip(left, right, strict=True) if i < j]
+
+
+def meeting_point(a: LinearRing, b: LinearRing) -> tuple[tuple[float, float], shapely.Geometry]:
+    """Where two rings meet (or come closest), and what they share.
+
+    Returns
+    -------
+    where : (float, float)
+        A point of their intersection, or of the shortest line between them when they do not
+        intersect.
+    meet : shapely.Geometry
+        Their intersection (empty when they only come close).
+
+    """
+    meet = a.intersection(b)
+    line = meet if not meet.is_empty else shapely.shortest_line(a, b)
+    return tuple(np.asarray(line.representative_point().coords[0])), meet
+
+
 def clean_loop(points: object, index: int, *, file: str | None = None, scale: float = 1.0) -> np.ndarray:
     """Check one loop and return it without repeated or closing points.
 
@@ -174,22 +244,58 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
         raise ProfileError(f"loop {index} touches itself (a vertex lies on another of its edges)",
                            file=file, where=(float(arr[k, 0]), float(arr[k, 1])))
     if not ring.is_simple:
-        where = where_from_shapely(explain_validity(Polygon(arr)))
-        if where is None:
-            crossing = shapely.intersection(ring, ring)
-            where = tuple(np.asarray(crossing.representative_point().coords[0]))
-        raise ProfileError(f"loop {index} crosses itself", file=file, where=where)
+        raise ProfileError(f"loop {index} crosses itself", file=file, where=crossing_point(ring))
     return arr
+
+
+def even_odd_nesting(polys: Sequence[Polygon], materials: Sequence[str | None] | None = None) -> tuple[
+        np.ndarray, np.ndarray]:
+    """Even-odd nesting depth of each loop and the loop it lies in directly.
+
+    Parameters
+    ----------
+    polys : sequence of shapely.Polygon
+        Loops that neither cross nor touch (see :func:`check_no_crossings`).
+    materials : sequence of (str or None), optional
+        Material of each loop; only loops of one material nest in each other.
+
+    Returns
+    -------
+    depth : numpy.ndarray of int
+        How many loops of its material contain each loop (even: solid boundary, odd: hole).
+    parent : numpy.ndarray of int
+        The loop one level up that contains each loop, -1 for none.
+
+    Examples
+    --------
+    >>> sq = lambda a, b: Polygon([(a, a), (b, a), (b, b), (a, b)])
+    >>> depth, parent = even_odd_nesting([sq(0, 10), sq(2, 8), sq(4, 6)])
+    >>> depth.tolist(), parent.tolist()
+    ([0, 1, 2], [-1, 0, 1])
+
+    """
+    n = len(polys)
+    mats = [None] * n if materials is None else list(materials)
+    depth = np.zeros(n, dtype=np.int64)
+    parent = np.full(n, -1)
+    if n == 0:
+        return depth, parent
+    # loops never cross or touch (checked before), so one vertex tells inside from outside
+    probes = [Point(p.exterior.coords[0]) for p in polys]
+    inner, outer = shapely.STRtree(polys).query(probes, predicate="within")
+    same = np.array([mats[i] == mats[j] for i, j in zip(inner, outer, strict=True)], bool)
+    if len(same):
+        inner, outer = inner[same], outer[same]
+    np.add.at(depth, inner, 1)
+    for i, j in zip(inner, outer, strict=True):
+        if depth[j] == depth[i] - 1:
+            parent[i] = j
+    return depth, parent
 
 
 def nest_depths(polys: list[Polygon]) -> list[int]:
     """Return the nesting depth of each polygon (how many others contain it)."""
-    # loops never cross or touch (checked before), so one vertex tells inside from outside
-    probes = [Point(p.exterior.coords[0]) for p in polys]
-    return [
-        sum(1 for j, pj in enumerate(polys) if j != i and pj.contains(probes[i]))
-        for i in range(len(polys))
-    ]
+    return [int(d) for d in even_odd_nesting(polys)[0]]
 
 
 def check_no_crossings(polys: list[Polygon], labels: list[int], file: str | None,
@@ -201,21 +307,13 @@ def check_no_crossings(polys: list[Polygon], labels: list[int], file: str | None
     """
     rings = [p.exterior for p in polys]
     size = max(max(np.ptp(np.asarray(r.coords), axis=0)) for r in rings)
-    tol = POINT_TOLERANCE * size
-    tree = shapely.STRtree(rings)
     # closer than the point tolerance counts as touching (the mesher cannot separate them)
-    left, right = tree.query(rings, predicate="dwithin", distance=tol)
-    for i, j in zip(left, right, strict=True):
-        if i < j and materials[i] == materials[j]:
-            meet = polys[i].exterior.intersection(polys[j].exterior)
-            if meet.is_empty:  # not touching, only closer than the tolerance
-                meet = shapely.shortest_line(polys[i].exterior, polys[j].exterior)
-            where = tuple(np.asarray(meet.representative_point().coords[0]))
+    for i, j in meeting_pairs(rings, POINT_TOLERANCE * size):
+        if materials[i] == materials[j]:
+            where, _ = meeting_point(rings[i], rings[j])
             raise ProfileError(
                 f"loops {labels[i]} and {labels[j]} cross or touch", file=file, where=where
             )
-
-
 
 
 def even_odd_solids(polys: Sequence[Polygon]) -> list[tuple[int, list[int]]]:
@@ -238,13 +336,6 @@ def even_odd_solids(polys: Sequence[Polygon]) -> list[tuple[int, list[int]]]:
     >>> even_odd_solids([sq(0, 10), sq(2, 8), sq(4, 6)])
     [(0, [1]), (2, [])]
     """
-    polys = list(polys)
-    depth = nest_depths(polys)
-    out = []
-    for a, pa in enumerate(polys):
-        if depth[a] % 2:
-            continue
-        holes = [b for b in range(len(polys))
-                 if depth[b] == depth[a] + 1 and pa.contains(Point(polys[b].exterior.coords[0]))]
-        out.append((a, holes))
-    return out
+    depth, parent = even_odd_nesting(polys)
+    return [(int(a), [int(b) for b in np.flatnonzero(parent == a)])
+            for a in np.flatnonzero(depth % 2 == 0)]

@@ -1,24 +1,66 @@
 """Readers that turn files into validated profiles.
 
-:func:`load_profile` chooses the reader by the file's ending: ``.dxf`` (any case) is a DXF
-drawing (:mod:`warpwise.io.dxf`), anything else a coordinate outline
-(:mod:`warpwise.io.outline`).
+:func:`load_profile` chooses the reader by the file's ending with one look-up in
+:data:`READERS`: ``.dxf`` (any case) is a DXF drawing (:mod:`warpwise.io.dxf`), anything else a
+coordinate outline (:mod:`warpwise.io.outline`, :data:`DEFAULT_READER`). Every reader takes the
+same arguments; the outline reader refuses the options that apply to drawings only.
 """
 
 from __future__ import annotations
 
 from collections.abc import Sequence
 from pathlib import Path
+from typing import Protocol
 
-from ..errors import UsageError
 from ..geometry.profile import Profile
 from .dxf import import_dxf, read_drawing, read_dxf
-from .outline import parse_outline, read_outline
+from .outline import parse_outline, read_outline, refuse_dxf_options
+
+
+class ProfileReader(Protocol):
+    """What a reader of one kind of file takes and gives (the arguments of :func:`load_profile`)."""
+
+    def __call__(self, path: str | Path, units: str | None, *, layers: Sequence[str] | None,
+                 part: int | None, all_parts: bool, chord_tolerance: float | None,
+                 mesh_size: float | None) -> Profile:
+        """Read the file at ``path`` into a validated profile."""
+
+
+def _dxf_reader(path: str | Path, units: str | None, *, layers: Sequence[str] | None,
+                part: int | None, all_parts: bool, chord_tolerance: float | None,
+                mesh_size: float | None) -> Profile:
+    return read_dxf(path, units, layers=layers, part=part, all_parts=all_parts,
+                    chord_tolerance=chord_tolerance, mesh_size=mesh_size)
+
+
+def _outline_reader(path: str | Path, units: str | None, *, layers: Sequence[str] | None,
+                    part: int | None, all_parts: bool, chord_tolerance: float | None,
+                    mesh_size: float | None) -> Profile:
+    refuse_dxf_options(path, layers=layers, part=part, chord_tolerance=chord_tolerance)
+    return read_outline(path, units)  # an outline file is always taken whole
+
+
+#: File ending (lower case) -> the reader of such files.
+READERS: dict[str, ProfileReader] = {".dxf": _dxf_reader}
+#: The reader of a file whose ending is not in :data:`READERS`: a coordinate outline.
+DEFAULT_READER: ProfileReader = _outline_reader
+
+
+def reader_for(path: str | Path) -> ProfileReader:
+    """The reader for a file, by its ending (not case-sensitive).
+
+    Examples
+    --------
+    >>> reader_for("plate.DXF") is READERS[".dxf"], reader_for("bar.txt") is DEFAULT_READER
+    (True, True)
+
+    """
+    return READERS.get(Path(path).suffix.lower(), DEFAULT_READER)
 
 
 def is_dxf(path: str | Path) -> bool:
     """True when the file's ending says it is a DXF drawing."""
-    return Path(path).suffix.lower() == ".dxf"
+    return reader_for(path) is _dxf_reader
 
 
 def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
@@ -54,14 +96,10 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
         DXF-only options given for an outline file.
 
     """
-    if is_dxf(path):
-        return read_dxf(path, units, layers=layers, part=part, all_parts=all_parts,
-                        chord_tolerance=chord_tolerance, mesh_size=mesh_size)
-    for flag, value in (("--layer", layers), ("--part", part), ("--chord-tolerance", chord_tolerance)):
-        if value:
-            raise UsageError(f"{flag} applies to DXF drawings only", file=str(path))
-    return read_outline(path, units)
+    read = reader_for(path)
+    return read(path, units, layers=layers, part=part, all_parts=all_parts,
+                chord_tolerance=chord_tolerance, mesh_size=mesh_size)
 
 
-__all__ = ["import_dxf", "is_dxf", "load_profile", "parse_outline", "read_drawing", "read_dxf",
-           "read_outline"]
+__all__ = ["DEFAULT_READER", "READERS", "ProfileReader", "import_dxf", "is_dxf", "load_profile",
+           "parse_outline", "read_drawing", "read_dxf", "read_outline", "reader_for"]

@@ -4,7 +4,7 @@
 the first defect it collects all of them: open chains with their free ends and gaps, branch
 points, self-crossing and crossing loops, duplicate and zero-length pieces, entities that could
 not be used, a truncated file. :func:`format_report` prints the findings, and
-:func:`plot_report` draws the outline with every defect marked (matplotlib, Agg backend).
+:func:`warpwise.report.check_plot.plot_report` draws the outline with every defect marked.
 The verdict (``CheckReport.ok``) is True exactly when the profile can be analysed with the same
 options.
 
@@ -24,8 +24,6 @@ Examples
 
 from __future__ import annotations
 
-import io
-from collections import Counter
 from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -34,38 +32,15 @@ import numpy as np
 
 from ..errors import ProfileError, UsageError
 from ..geometry.profile import Profile
-from . import is_dxf, read_outline
-from .chains import ERROR, Defect, fmt, fmt_point, loop_points
-from .dxf import DxfProfile, Layout, build_profile, lay_out, read_drawing
+from . import is_dxf
+from .chords import loop_points
+from .defects import ERROR, Defect, fmt, plural
+from .dxf import DxfProfile, LayerSummary, build_profile, lay_out, read_drawing
+from .nesting import describe_part
+from .outline import read_outline, refuse_dxf_options
 
 #: Repairs made by ezdxf listed one by one in the report (the rest are counted).
 REPAIRS_SHOWN = 5
-
-
-@dataclass(frozen=True)
-class LayerSummary:
-    """What one layer holds.
-
-    Attributes
-    ----------
-    name : str
-        Layer name.
-    loops : int
-        Closed loops on it.
-    open_chains : int
-        Open chains on it.
-    used : bool
-        True when the layer is part of the profile.
-    left_out : bool
-        True when the layer was left out by default because it holds no closed geometry (a
-        layer neither used nor left out was not chosen with ``--layer``).
-    """
-
-    name: str
-    loops: int
-    open_chains: int
-    used: bool
-    left_out: bool = False
 
 
 @dataclass(frozen=True)
@@ -172,14 +147,6 @@ class CheckReport:
         return tuple(d for d in self.defects if not d.fatal)
 
 
-def _layer_summaries(layout: Layout) -> tuple[LayerSummary, ...]:
-    loops = Counter(lp.layer for lp in layout.loops)
-    opens = Counter(c.layer for c in layout.open_chains)
-    return tuple(LayerSummary(name, loops[name], opens[name] + layout.left_out.get(name, 0),
-                              name in layout.layers, name in layout.left_out)
-                 for name in layout.drawing.layers)
-
-
 def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | None,
                part: int | None, all_parts: bool, chord_tolerance: float | None,
                mesh_size: float | None) -> CheckReport:
@@ -203,7 +170,7 @@ def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | N
         repairs=drawing.repairs, unit=drawing.units.unit, unit_note=drawing.units.note,
         join_tolerance=layout.tolerance,
         chord_tolerance=built.chord_tolerance if built is not None and curved else None,
-        layers=_layer_summaries(layout), loops=len(layout.loops),
+        layers=layout.layer_summaries(), loops=len(layout.loops),
         holes=sum(1 for d in depth if d % 2), islands=sum(1 for d in depth if d and d % 2 == 0),
         parts=tuple(PartSummary(k + 1, p.bounds, p.area, p.holes) for k, p in enumerate(layout.parts)),
         defects=tuple(defects), ok=built is not None, verdict=verdict,
@@ -213,7 +180,10 @@ def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | N
     )
 
 
-def _check_outline(path: str | Path, units: str | None) -> CheckReport:
+def _check_outline(path: str | Path, *, units: str | None, layers: Sequence[str] | None,
+                   part: int | None, all_parts: bool, chord_tolerance: float | None,
+                   mesh_size: float | None) -> CheckReport:
+    refuse_dxf_options(path, layers=layers, part=part, chord_tolerance=chord_tolerance)
     profile: Profile | None = None
     try:
         profile = read_outline(path, units)
@@ -279,21 +249,13 @@ def check_file(path: str | Path, *, units: str | None = None, layers: Sequence[s
         For an unknown layer, or DXF-only options on an outline.
 
     """
-    if is_dxf(path):
-        return _check_dxf(path, units=units, layers=layers, part=part, all_parts=all_parts,
-                          chord_tolerance=chord_tolerance, mesh_size=mesh_size)
-    for flag, value in (("--layer", layers), ("--part", part), ("--chord-tolerance", chord_tolerance)):
-        if value:
-            raise UsageError(f"{flag} applies to DXF drawings only", file=str(path))
-    return _check_outline(path, units)
+    check = _check_dxf if is_dxf(path) else _check_outline
+    return check(path, units=units, layers=layers, part=part, all_parts=all_parts,
+                 chord_tolerance=chord_tolerance, mesh_size=mesh_size)
 
 
 def _counts(counts: dict[str, int]) -> str:
     return ", ".join(f"{n} {t}" for t, n in sorted(counts.items(), key=lambda kv: (-kv[1], kv[0])))
-
-
-def _plural(n: int, word: str) -> str:
-    return f"{n} {word}{'' if n == 1 else 's'}"
 
 
 def format_report(report: CheckReport) -> str:
@@ -314,7 +276,7 @@ def format_report(report: CheckReport) -> str:
     lines = [f"Check of {report.source}"]
     kind = report.kind + (f", version {report.version}" if report.version else "")
     if report.repairs:
-        kind += f"; ezdxf made {_plural(len(report.repairs), 'repair')} while reading"
+        kind += f"; ezdxf made {plural(len(report.repairs), 'repair')} while reading"
     lines.append(f"  file: {kind}")
     for text in report.repairs[:REPAIRS_SHOWN]:
         lines.append(f"    repaired: {text}")
@@ -333,30 +295,23 @@ def format_report(report: CheckReport) -> str:
     if report.layers:
         lines.append("  layers:")
         for layer in report.layers:
-            bits = []
-            if layer.loops:
-                bits.append(_plural(layer.loops, "loop"))
-            if layer.open_chains:
-                bits.append(_plural(layer.open_chains, "open chain"))
             if layer.used:
-                lines.append(f"    {layer.name}: {', '.join(bits) or 'nothing closed'}")
+                lines.append(f"    {layer.name}: {layer.holds or 'nothing closed'}")
             elif layer.left_out:
-                lines.append(f"    {layer.name}: {', '.join(bits)}  (left out: no closed geometry)")
+                lines.append(f"    {layer.name}: {layer.holds}  (left out: no closed geometry)")
             else:
                 lines.append(f"    {layer.name}: not chosen")
     outers = report.loops - report.holes - report.islands
-    lines.append(f"  loops: {report.loops} ({_plural(outers, 'outer loop')}, "
-                 f"{_plural(report.holes, 'hole')}, {_plural(report.islands, 'island')})")
+    lines.append(f"  loops: {report.loops} ({plural(outers, 'outer loop')}, "
+                 f"{plural(report.holes, 'hole')}, {plural(report.islands, 'island')})")
     lines.append(f"  parts: {len(report.parts)}")
     for p in report.parts:
-        x0, y0, x1, y1 = p.bounds
-        lines.append(f"    part {p.number}: {fmt(x1 - x0)} x {fmt(y1 - y0)} {u} at {fmt_point((x0, y0))}, "
-                     f"area {fmt(p.area)} {u}2, {_plural(p.holes, 'hole')}")
+        lines.append(f"    {describe_part(p.number, p.bounds, p.area, u)}, {plural(p.holes, 'hole')}")
     if report.chord_tolerance is not None:
         lines.append(f"  chord tolerance: {fmt(report.chord_tolerance)} {u} (largest distance of a "
                      "chord from its curve)")
     n_err, n_warn = len(report.errors), len(report.warnings)
-    lines.append(f"  defects: {_plural(n_err, 'error')}, {_plural(n_warn, 'warning')}")
+    lines.append(f"  defects: {plural(n_err, 'error')}, {plural(n_warn, 'warning')}")
     for k, d in enumerate(report.defects, start=1):
         lines.append(f"    {k}. {d.severity}: {d.message}")
     verdict = report.verdict.removeprefix(f"{report.source}: ")
@@ -364,69 +319,4 @@ def format_report(report: CheckReport) -> str:
     return "\n".join(lines) + "\n"
 
 
-def plot_report(report: CheckReport, out: str | Path) -> None:
-    """Draw the outline with every defect marked and write it to ``out`` (PNG, PDF or SVG).
-
-    Solid boundaries are drawn dark blue, holes orange, open chains red, open chains on layers
-    left out grey; errors are red crosses and warnings orange circles, numbered as in the
-    report, and each part is labelled with its number.
-
-    Parameters
-    ----------
-    report : CheckReport
-        From :func:`check_file`.
-    out : str or Path
-        Image file; written atomically.
-
-    Raises
-    ------
-    UsageError
-        For an ending other than .png, .pdf or .svg, or a folder that cannot be written.
-
-    """
-    import matplotlib
-
-    matplotlib.use("Agg")
-    from matplotlib.figure import Figure
-
-    from ..report.files import atomic_write
-
-    fmt_name = Path(out).suffix.lower().lstrip(".")
-    if fmt_name not in ("png", "pdf", "svg"):
-        raise UsageError("the plot must be a .png, .pdf or .svg file", file=str(out))
-    fig = Figure(figsize=(9, 7), dpi=120)
-    ax = fig.add_subplot()
-    for pts in report.ignored_paths:
-        ax.plot(pts[:, 0], pts[:, 1], color="0.7", lw=0.6)
-    for pts, d in zip(report.outline, report.depth, strict=True):
-        closed = np.vstack([pts, pts[:1]])
-        ax.plot(closed[:, 0], closed[:, 1], color="tab:orange" if d % 2 else "navy", lw=1.0)
-    for pts in report.open_paths:
-        ax.plot(pts[:, 0], pts[:, 1], color="red", lw=2.0)
-    for p in report.parts:
-        x0, y0, x1, y1 = p.bounds
-        ax.annotate(f"part {p.number}", (x0, y1), fontsize=8, color="navy",
-                    xytext=(2, 2), textcoords="offset points")
-    for k, d in enumerate(report.defects, start=1):
-        if not d.where:
-            continue
-        pts = np.asarray(d.where, dtype=float)
-        error = d.severity == ERROR
-        ax.plot(pts[:, 0], pts[:, 1], "x" if error else "o", ms=9 if error else 7, mew=2,
-                mfc="none", color="red" if error else "darkorange")
-        ax.annotate(str(k), tuple(pts[0]), fontsize=8, color="red" if error else "darkorange",
-                    xytext=(4, 4), textcoords="offset points")
-    ax.set_aspect("equal", adjustable="datalim")
-    ax.set_xlabel(f"x ({report.unit})")
-    ax.set_ylabel(f"y ({report.unit})")
-    state = "analysable" if report.ok else "not analysable"
-    ax.set_title(f"{Path(report.source).name}: {state}; {_plural(len(report.errors), 'error')}, "
-                 f"{_plural(len(report.warnings), 'warning')} (numbers as in the report)", fontsize=9)
-    ax.grid(True, lw=0.3, alpha=0.5)
-    buf = io.BytesIO()
-    fig.savefig(buf, format=fmt_name)
-    atomic_write(out, buf.getvalue())
-
-
-__all__ = ["CheckReport", "LayerSummary", "PartSummary", "check_file", "format_report",
-           "plot_report"]
+__all__ = ["CheckReport", "LayerSummary", "PartSummary", "check_file", "format_report"]

@@ -26,37 +26,11 @@ from pathlib import Path
 
 import numpy as np
 
-from ..errors import InputFileError
+from ..errors import InputFileError, UsageError
 from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
-
-#: Largest input file accepted, bytes.
-MAX_FILE_BYTES = 50 * 1024 * 1024
+from .files import MAX_FILE_BYTES, read_input, refuse_binary
 
 _SPLIT = re.compile(r"[,;\s]+")
-
-
-def read_input(path: str | Path) -> bytes:
-    """Bytes of an input file, after the checks every reader shares.
-
-    Raises
-    ------
-    InputFileError
-        Missing file, a folder, a file over :data:`MAX_FILE_BYTES`, or unreadable.
-    """
-    p = Path(path)
-    name = str(path)
-    if not p.exists():
-        raise InputFileError("file not found", file=name)
-    if p.is_dir():
-        raise InputFileError("is a folder, not a file", file=name)
-    size = p.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise InputFileError(
-            f"file is {size / 1e6:.1f} MB, over the {MAX_FILE_BYTES / 1e6:.0f} MB limit", file=name)
-    try:
-        return p.read_bytes()
-    except OSError as exc:
-        raise InputFileError(f"cannot be read ({exc.strerror})", file=name) from None
 
 
 def read_text(path: str | Path, kind: str = "outline") -> str:
@@ -80,12 +54,8 @@ def read_text(path: str | Path, kind: str = "outline") -> str:
         Missing, unreadable, too large, empty or binary file.
 
     """
-    name = str(path)
     data = read_input(path)
-    if not data.strip():
-        raise InputFileError("file is empty", file=name)
-    if b"\x00" in data:
-        raise InputFileError(f"is a binary file, not a text {kind} file", file=name)
+    refuse_binary(data, str(path), f"a text {kind} file")
     return data.decode("utf-8", errors="replace")
 
 
@@ -193,3 +163,29 @@ def read_outline(path: str | Path, units: str | None = None) -> Profile:
 
     """
     return parse_outline(read_text(path), source=str(path), units=units)
+
+
+def refuse_dxf_options(path: str | Path, *, layers: object = None, part: object = None,
+                       chord_tolerance: object = None) -> None:
+    """Refuse, for an outline file, the options that apply to DXF drawings only.
+
+    Raises
+    ------
+    UsageError
+        Naming the first such option given (``--layer``, ``--part`` or ``--chord-tolerance``).
+
+    Examples
+    --------
+    >>> refuse_dxf_options("bar.txt", part=2)
+    Traceback (most recent call last):
+    ...
+    warpwise.errors.UsageError: bar.txt: --part applies to DXF drawings only
+
+    """
+    for flag, value in (("--layer", layers), ("--part", part), ("--chord-tolerance", chord_tolerance)):
+        if value:
+            raise UsageError(f"{flag} applies to DXF drawings only", file=str(path))
+
+
+__all__ = ["MAX_FILE_BYTES", "parse_outline", "read_input", "read_outline", "read_text",
+           "refuse_dxf_options"]

@@ -1,0 +1,131 @@
+"""DXF drawings to profiles (read with ezdxf).
+
+Reading goes in three steps, each usable on its own:
+
+1. :func:`read_drawing` (:mod:`.drawing`) reads the file with ezdxf (:mod:`.document`: in its
+   recover mode when the strict reader fails, so that damaged files load where they can),
+   expands block references with their transforms (:mod:`.blocks`) and turns every curve of
+   model space into a :class:`~warpwise.io.pieces.Piece` (:mod:`.entities`, one reader per
+   entity type): LINE, ARC, CIRCLE, ELLIPSE (full and partial), SPLINE, LWPOLYLINE and 2D
+   POLYLINE (bulges become true arcs), flat 3D POLYLINE. Everything else (text, dimensions,
+   hatches, points...) is counted and left out. Coordinates are converted to the profile's
+   length unit here (:mod:`.units`).
+2. :func:`lay_out` (:mod:`.layout`) joins the pieces of the chosen layers into closed loops
+   within a joining tolerance tied to the drawing size, checks the loops and nests them
+   even-odd into parts, listing every defect on the way.
+3. :func:`build_profile` (:mod:`.build`) draws the loops of the chosen part(s) as polygons at a
+   chord tolerance tied to the mesh size and validates them with
+   :func:`warpwise.geometry.profile_from_loops`.
+
+:func:`read_dxf` does all three. Layer names are kept per loop (``DxfProfile.loop_layers``);
+they become region materials only when asked (``layer_materials``), so that by default a hole
+drawn on another layer than its outline is still a hole.
+
+Examples
+--------
+>>> import ezdxf, tempfile, pathlib
+>>> doc = ezdxf.new()
+>>> doc.header["$INSUNITS"] = 4
+>>> msp = doc.modelspace()
+>>> _ = msp.add_lwpolyline([(0, 0), (40, 0), (40, 20), (0, 20)], close=True)
+>>> _ = msp.add_circle((20, 10), 5)
+>>> path = pathlib.Path(tempfile.mkdtemp()) / "plate.dxf"
+>>> doc.saveas(path)
+>>> p = read_dxf(path)
+>>> len(p.regions), len(p.regions[0].holes), p.units
+(1, 1, 'mm')
+>>> bool(abs(p.area - (800 - 25 * 3.141592653589793)) < 1e-4 * p.area)
+True
+
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from pathlib import Path
+
+from ...geometry.profile import Profile
+from .blocks import MAX_BLOCK_DEPTH
+from .build import (
+    CHORD_AREA_BUDGET,
+    CHORD_PER_MESH_SIZE,
+    MIN_CHORD_PER_MESH_SIZE,
+    PARTS_IN_MESSAGE,
+    DrawingError,
+    DxfProfile,
+    build_profile,
+    choose_chord_tolerance,
+)
+from .collect import MAX_PIECES
+from .drawing import Drawing, read_drawing
+from .layout import JOIN_TOLERANCE, LayerSummary, Layout, Loop, lay_out, open_chain_defects
+from .units import INSUNITS, Units, resolve_units
+
+
+def import_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
+               part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
+               mesh_size: float | None = None,
+               layer_materials: bool | Mapping[str, str] = False) -> DxfProfile:
+    """Read a DXF drawing into a profile, keeping the layers and tolerances used.
+
+    Parameters are those of :func:`read_dxf`.
+
+    Returns
+    -------
+    DxfProfile
+
+    """
+    layout = lay_out(read_drawing(path, units), layers)
+    return build_profile(layout, part=part, all_parts=all_parts, chord_tolerance=chord_tolerance,
+                         mesh_size=mesh_size, layer_materials=layer_materials)
+
+
+def read_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
+             part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
+             mesh_size: float | None = None, layer_materials: bool | Mapping[str, str] = False) -> Profile:
+    """Read a DXF drawing into a validated profile.
+
+    Parameters
+    ----------
+    path : str or Path
+        DXF file.
+    units : str, optional
+        Length unit of the coordinates, overriding ``$INSUNITS`` (default: the header's unit,
+        else millimetres with a note).
+    layers : sequence of str, optional
+        Layers holding the profile (default: every layer with closed geometry).
+    part : int, optional
+        Analyse only this part (1-based, largest first) of a drawing with several.
+    all_parts : bool
+        Take all parts together as one section.
+    chord_tolerance : float, optional
+        Chord (sagitta) tolerance for curves, profile unit; default tied to ``mesh_size``.
+    mesh_size : float, optional
+        Mesh size the profile is meant for, profile unit.
+    layer_materials : bool or mapping
+        Make layer names (or their mapped names) the region materials.
+
+    Returns
+    -------
+    Profile
+
+    Raises
+    ------
+    InputFileError
+        For a file that cannot be read as a DXF drawing.
+    ProfileError
+        For a drawing that is not one valid section (with what was found and how to choose).
+    UsageError
+        For an unknown layer or part number.
+
+    """
+    return import_dxf(path, units, layers=layers, part=part, all_parts=all_parts,
+                      chord_tolerance=chord_tolerance, mesh_size=mesh_size,
+                      layer_materials=layer_materials).profile
+
+
+__all__ = ["CHORD_AREA_BUDGET", "CHORD_PER_MESH_SIZE", "INSUNITS", "JOIN_TOLERANCE", "MAX_BLOCK_DEPTH",
+           "MAX_PIECES", "MIN_CHORD_PER_MESH_SIZE", "PARTS_IN_MESSAGE", "Drawing", "DrawingError",
+           "DxfProfile", "LayerSummary", "Layout", "Loop", "Units", "build_profile",
+           "choose_chord_tolerance", "import_dxf", "lay_out", "open_chain_defects", "read_drawing",
+           "read_dxf", "resolve_units"]

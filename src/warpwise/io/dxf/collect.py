@@ -1,0 +1,113 @@
+"""Where the entity readers put what they find: pieces in the profile's unit, and defects.
+
+A :class:`PieceCollector` takes drawing coordinates, converts them to the profile's length
+unit and keeps every usable piece (a line, an arc, a polyline of lines and bulge arcs, any
+other curve), leaving out with a warning what is not finite or beyond the coordinate limit. It
+also counts the entities met inside block references and those left out.
+"""
+
+from __future__ import annotations
+
+from collections import Counter
+from collections.abc import Sequence
+
+import numpy as np
+
+from ...errors import InputFileError
+from ...geometry.loops import MAX_COORDINATE
+from ..defects import WARNING, Defect, fmt_point
+from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyline_piece
+
+#: Largest number of pieces read from one drawing.
+MAX_PIECES = 200_000
+
+
+class PieceCollector:
+    """Pieces and defects of one drawing, in the profile's unit.
+
+    Parameters
+    ----------
+    source : str
+        File name, for messages.
+    factor : float
+        Drawing coordinates times this give lengths in the profile's unit.
+    """
+
+    def __init__(self, source: str, factor: float) -> None:
+        self.source = source
+        self.f = factor
+        self.pieces: list[Piece] = []
+        self.defects: list[Defect] = []
+        self.in_blocks: Counter[str] = Counter()
+        self.skipped: Counter[str] = Counter()
+        self.unreadable: Counter[str] = Counter()
+
+    def warn(self, kind: str, text: str, where: Sequence[tuple[float, float]] = (),
+             layer: str | None = None) -> None:
+        """Record a warning: something repaired or left out."""
+        self.defects.append(Defect(kind, text, tuple(where), WARNING, layer))
+
+    def tilted(self, label: str, layer: str) -> None:
+        """Leave out an entity that does not lie in the x-y plane."""
+        self.warn("not flat", f"{label} on layer {layer} does not lie in the x-y plane: left out",
+                  layer=layer)
+
+    def add(self, piece: Piece) -> None:
+        """Keep a piece (profile unit) unless a coordinate is not finite or beyond the limit."""
+        ends = np.array([piece.start, piece.end, piece.probe], dtype=float)
+        if not (np.all(np.isfinite(ends)) and np.isfinite(piece.length)):
+            self.warn("unreadable", f"{piece.label} on layer {piece.layer} has a coordinate that is "
+                      "not a finite number: left out", layer=piece.layer)
+            return
+        if float(np.abs(ends).max()) > MAX_COORDINATE:
+            self.warn("unreadable", f"{piece.label} on layer {piece.layer} reaches a coordinate of "
+                      f"{float(np.abs(ends).max()):.3g}, beyond {MAX_COORDINATE:.0e}: left out",
+                      layer=piece.layer)
+            return
+        if len(self.pieces) >= MAX_PIECES:
+            raise InputFileError(f"the drawing has more than {MAX_PIECES:,} curves; "
+                                 "this is not a section drawing", file=self.source)
+        self.pieces.append(piece)
+
+    def line(self, p: np.ndarray, q: np.ndarray, layer: str, label: str) -> None:
+        """A straight line from p to q, drawing coordinates."""
+        self.add(line_piece(p * self.f, q * self.f, layer, label))
+
+    def arc(self, c: np.ndarray, r: float, t0: float, sweep: float, layer: str, label: str,
+            closed: bool = False) -> None:
+        """Arc of centre c, radius r from angle t0 (radians) by a signed sweep (CCW positive)."""
+        c, r = c * self.f, r * self.f
+        if not (np.all(np.isfinite(c)) and np.isfinite(r) and r > 0):
+            self.warn("unreadable", f"{label} on layer {layer} has no valid radius: left out",
+                      layer=layer)
+            return
+        self.add(arc_piece(c, r, t0, sweep, layer, label, closed))
+
+    def polyline(self, xy: np.ndarray, bulges: np.ndarray, closed: bool, sign: float, layer: str,
+                 label: str) -> None:
+        """A polyline of WCS vertices (n, 2); bulges as in the file, flipped by ``sign``."""
+        xy = xy * self.f
+        n = len(xy)
+        if n == 0:
+            return
+        size = float(np.ptp(xy, axis=0).max()) if n > 1 else 0.0
+        tiny = 1e-9 * max(size, float(np.abs(xy).max(initial=0.0)), 1e-300)
+        count = n if closed else n - 1
+        segs: list[tuple] = []
+        all_zero = size <= tiny  # then the whole polyline is reported as one zero-length piece
+        for k in range(count):
+            p, q = xy[k], xy[(k + 1) % n]
+            if np.hypot(*(q - p)) <= tiny:
+                if not (closed and k == count - 1) and not all_zero:  # a repeated closing vertex
+                    self.warn("zero length", f"{label} on layer {layer} has a zero-length segment "
+                              f"at {fmt_point(p)}: left out", (tuple(p),), layer)
+                continue
+            b = float(bulges[k]) * sign
+            if abs(b) > 1e-12 and np.isfinite(b):
+                segs.append(("arc", *bulge_arc(p, q, b)))
+            else:
+                segs.append(("line", p, q))
+        if not segs:
+            self.add(point_piece(xy[0], layer, label))
+            return
+        self.add(polyline_piece(segs, closed, layer, label))

@@ -1,0 +1,117 @@
+"""Step 1 of reading a DXF drawing: every curve of model space as a piece.
+
+:func:`read_drawing` loads the file (:mod:`.document`), takes the length unit (:mod:`.units`)
+and reads each model-space entity with the reader of its type (:mod:`.entities`, block
+references expanded by :mod:`.blocks`) into a :class:`Drawing`: the pieces in the profile's
+unit, what was counted, repaired and left out, and the entities that could not be used.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from ...errors import InputFileError
+from ..defects import ERROR, WARNING, Defect
+from ..pieces import Piece
+from .collect import PieceCollector
+from .document import load_document, why
+from .entities import read_entity
+from .units import Units, resolve_units
+
+
+@dataclass(frozen=True, eq=False)
+class Drawing:
+    """The curves of a DXF drawing, in the profile's length unit.
+
+    Attributes
+    ----------
+    source : str
+        File name.
+    pieces : tuple of Piece
+        Every curve of model space (block references expanded).
+    units : Units
+        Length unit of the coordinates.
+    version : str
+        DXF version of the file ($ACADVER).
+    entities : dict of str to int
+        Model-space entities by type.
+    in_blocks : dict of str to int
+        Entities met inside block references, by type.
+    skipped : dict of str to int
+        Entities left out because they are not geometry (text, dimensions...), by type.
+    repairs : tuple of str
+        What ezdxf fixed while reading (its audit, and its recover mode when the strict reader
+        failed).
+    defects : tuple of Defect
+        Entities that could not be used, and a truncated file.
+    """
+
+    source: str
+    pieces: tuple[Piece, ...]
+    units: Units
+    version: str = ""
+    entities: dict[str, int] = field(default_factory=dict)
+    in_blocks: dict[str, int] = field(default_factory=dict)
+    skipped: dict[str, int] = field(default_factory=dict)
+    repairs: tuple[str, ...] = ()
+    defects: tuple[Defect, ...] = ()
+
+    @property
+    def layers(self) -> tuple[str, ...]:
+        """Layers that hold curves, sorted."""
+        return tuple(sorted({p.layer for p in self.pieces}))
+
+
+def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
+    """Read the curves of a DXF drawing.
+
+    Parameters
+    ----------
+    path : str or Path
+        DXF file (text or binary).
+    units : str, optional
+        Length unit of the coordinates, overriding the header's ``$INSUNITS``.
+
+    Returns
+    -------
+    Drawing
+        Pieces in the profile's unit, entity counts, repairs and entity defects.
+
+    Raises
+    ------
+    InputFileError
+        Missing, empty, binary (not DXF), unreadable file, or an unsupported unit.
+
+    """
+    name = str(path)
+    doc, repairs, truncated, found = load_document(path)
+    try:
+        raw_units = doc.header.get("$INSUNITS", None)
+        insunits = int(raw_units) if raw_units is not None else None
+    except (TypeError, ValueError):
+        insunits = None
+    u = resolve_units(insunits, units, file=name)
+    out = PieceCollector(name, u.factor)
+    try:
+        msp = doc.modelspace()
+        entities = list(msp)
+    except Exception as exc:  # no usable model space
+        raise InputFileError(f"has no readable model space ({why(exc)})", file=name) from None
+    for e in entities:
+        t = e.dxftype()
+        handle = e.dxf.get("handle", None)
+        label = f"{t} #{handle}" if handle else t
+        read_entity(out, e, e.dxf.get("layer", "0") or "0", label)
+    defects = list(out.defects)
+    for t, n in sorted(out.unreadable.items()):
+        defects.append(Defect("unreadable", f"{n} {t} entit{'y' if n == 1 else 'ies'} cannot be "
+                              "turned into lines and arcs: left out (explode them in the CAD program "
+                              "if they belong to the section)", (), WARNING))
+    if truncated:
+        defects.append(Defect("truncated", "the file is truncated (it ends before the DXF end-of-file "
+                              "marker), so part of the drawing may be missing; save it again",
+                              (), ERROR))
+    version = str(doc.header.get("$ACADVER", "") or getattr(doc, "acad_release", ""))
+    return Drawing(name, tuple(out.pieces), u, version, found,
+                   dict(out.in_blocks), dict(out.skipped), repairs, tuple(defects))
