@@ -30,14 +30,13 @@ from pathlib import Path
 import numpy as np
 
 from .. import __version__
-from ..geometry.corners import reentrant_corners
 from ..properties.analysis import SectionResult
 from ..stress import Loads, combined_stress, torsion_stress
 from .files import atomic_write
 from .plots import figure_outline, figure_torsion, figure_warping, profile_name, svg_text
 from .quantities import FORCE_UNITS, QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values
 from .records import Record
-from .table import CAUTION, format_value
+from .table import CAUTION, corner_note, format_value
 
 #: Cautions printed on every datasheet, after :data:`warpwise.report.table.CAUTION`.
 CAUTIONS = (
@@ -388,11 +387,9 @@ def _glossary(result: SectionResult, shown: list[str]) -> str:
 
 def _notes(result: SectionResult) -> list[str]:
     out = [escape(n) for n in result.profile.notes]
-    for c in reentrant_corners(result.profile):
-        out.append(f"Sharp re-entrant corner ({c.angle_deg:.0f}\u00b0) at ({number_html(c.x)}, "
-                   f"{number_html(c.y)}) {escape(result.units)}: the shear stress there is unbounded "
-                   "in theory and its computed value depends on the mesh; a small zone around it "
-                   "is left out of the largest stress. Give the fillet radius for a real value.")
+    for c in result.corners:
+        note = corner_note(c, result.units)
+        out.append(escape(f"{note[:1].upper()}{note[1:]}."))
     m = result.mesh
     out.append(f"Mesh: {m.n_elements} six-node triangles, {m.n_nodes} nodes, largest element size "
                f"{number_html(m.size, 3)} {escape(result.units)}.")
