@@ -18,7 +18,7 @@ from pathlib import Path
 import pytest
 
 from conftest import ROOT, SAMPLES
-from warpwise import analyse
+from warpwise import analyse, torsion_stress
 from warpwise.io import load_profile
 from warpwise.report.html import CatalogueEntry, unique_filenames, write_datasheet, write_index
 
@@ -71,7 +71,8 @@ def pages(tmp_path_factory):
     result = analyse(load_profile(source))
     missing = "sample_sections/no_such_profile.txt"
     names = unique_filenames([str(source), missing])
-    sheet = write_datasheet(result, folder, filename=names[0])
+    sheet = write_datasheet(result, folder, torsion=torsion_stress(result, 1.0), nominal_torque=True,
+                            filename=names[0])
     entries = [CatalogueEntry(str(source), result, sheet.name),
                CatalogueEntry(missing, error="no_such_profile.txt: the file does not exist <&>")]
     index = write_index(entries, folder)

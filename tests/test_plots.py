@@ -14,7 +14,7 @@ from warpwise.geometry.shapes import rectangle
 from warpwise.io import load_profile
 from warpwise.materials import builtin_material
 from warpwise.report import plots
-from warpwise.stress import Loads
+from warpwise.stress import Loads, combined_stress
 
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
 
@@ -139,7 +139,7 @@ def test_warping_picture(name, request, tmp_path):
 @pytest.mark.parametrize("name", ["channel", "angle", "ell", "composite"])
 def test_torsion_picture(name, request, tmp_path):
     r = request.getfixturevalue(name)
-    fig = plots.figure_torsion(r, 1000.0, 26000.0)
+    fig = plots.figure_torsion(r, torsion_stress(r, 1000.0, 26000.0))
     gids = _all_gids(fig)
     assert {"stress-contours", "stress-arrows", "largest-stress"} <= gids
     assert "resultant shear stress tau (MPa)" == fig.axes[-1].get_ylabel()
@@ -165,7 +165,7 @@ def test_torsion_picture(name, request, tmp_path):
 def test_torsion_picture_of_composite_uses_each_materials_stress(composite):
     from warpwise.stress import combined_stress
 
-    fig = plots.figure_torsion(composite, 1000.0)
+    fig = plots.figure_torsion(composite, torsion_stress(composite, 1000.0))
     cs = combined_stress(composite, Loads(T=1000.0))
     top = max(m.tau_max for m in cs.by_material)
     assert np.allclose(_artist(fig, "largest-stress").get_xydata()[0],
@@ -178,7 +178,7 @@ def test_torsion_picture_of_composite_uses_each_materials_stress(composite):
 
 def test_torsion_needs_a_torque(channel):
     with pytest.raises(UsageError):
-        plots.figure_torsion(channel, 0.0, 26000.0)
+        plots.figure_torsion(channel, torsion_stress(channel, 0.0, 26000.0))
 
 
 @pytest.mark.parametrize(("name", "quantity"), [("angle", "sigma"), ("composite", "sigma"),
@@ -186,7 +186,7 @@ def test_torsion_needs_a_torque(channel):
 def test_combined_picture(name, quantity, request, tmp_path):
     r = request.getfixturevalue(name)
     loads = Loads(N=2000.0, Mx=1.0e5, My=-3.0e4, Vy=500.0, T=800.0)
-    fig = plots.figure_combined(r, loads, G=26000.0, quantity=quantity)
+    fig = plots.figure_combined(r, combined_stress(r, loads, 26000.0), quantity=quantity)
     assert {"stress-contours", "largest-stress"} <= _all_gids(fig)
     label = fig.axes[-1].get_ylabel()
     assert label.endswith("(MPa)")
@@ -207,14 +207,14 @@ def test_combined_picture(name, quantity, request, tmp_path):
 
 
 def test_combined_accepts_a_mapping_and_checks_input(channel):
-    fig = plots.figure_combined(channel, {"Mx": 1.0e5}, quantity="tau")
+    fig = plots.figure_combined(channel, combined_stress(channel, Loads.of({"Mx": 1.0e5})), quantity="tau")
     assert "resultant shear stress tau" in fig.axes[-1].get_ylabel()
     with pytest.raises(UsageError, match="unknown stress picture"):
-        plots.figure_combined(channel, {"Mx": 1.0}, quantity="pressure")
+        plots.figure_combined(channel, combined_stress(channel, Loads(Mx=1.0)), quantity="pressure")
     with pytest.raises(UsageError, match="no load"):
-        plots.figure_combined(channel, Loads())
-    with pytest.raises(UsageError, match="loads"):
-        plots.figure_combined(channel, {"moment": 1.0})
+        plots.figure_combined(channel, combined_stress(channel, Loads()))
+    with pytest.raises(UsageError, match="unknown load"):
+        plots.figure_combined(channel, combined_stress(channel, Loads.of({"moment": 1.0})))
 
 
 # ----------------------------------------------------------------------------------------------

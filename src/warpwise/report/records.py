@@ -11,6 +11,7 @@ from dataclasses import dataclass, field, replace
 from ..geometry.profile import LENGTH_UNITS
 from ..properties.analysis import SectionResult
 from .quantities import DEG, QUANTITIES, values
+from .table import corner_note
 
 
 @dataclass(frozen=True)
@@ -78,14 +79,7 @@ class Record:
 
 def record_of(result: SectionResult) -> Record:
     """The record of an analysed section."""
-    from ..geometry.corners import reentrant_corners
-    from .table import format_value
-
-    notes = list(result.profile.notes)
-    for c in reentrant_corners(result.profile):
-        notes.append(f"sharp re-entrant corner ({c.angle_deg:.0f} deg) at ({format_value(c.x)}, "
-                     f"{format_value(c.y)}): the shear stress there is unbounded in theory and "
-                     "depends on the mesh; give the fillet radius for a real value")
+    notes = [*result.profile.notes, *(corner_note(c, result.units) for c in result.corners)]
     m = result.materials
     return Record(
         source=result.profile.source, units=result.units, values=values(result),

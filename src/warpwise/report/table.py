@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..geometry.corners import reentrant_corners
+from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult
 from .quantities import QUANTITIES, error_of, unit_of, values
 
@@ -27,6 +27,38 @@ def format_value(v: float, digits: int = 6) -> str:
     return text
 
 
+def corner_note(corner: Corner, length: str) -> str:
+    """The note on a sharp re-entrant corner, in the one wording every report uses.
+
+    Parameters
+    ----------
+    corner : Corner
+        The corner: location and interior angle (degrees), and the radius left out of the
+        stress maxima (length unit; 0 when not measured).
+    length : str
+        Length unit of the coordinates and the radius, e.g. ``mm``.
+
+    Returns
+    -------
+    str
+        One line of plain text, no final full stop.
+
+    Examples
+    --------
+    >>> from warpwise.geometry.corners import Corner
+    >>> corner_note(Corner(2.0, 2.0, 270.0, 0.2), "mm")  # doctest: +NORMALIZE_WHITESPACE
+    'sharp re-entrant corner (270 deg) at (2, 2) mm: the stress there is mesh-dependent
+    (unbounded in theory) and left out of the largest stress within 0.2 mm; give the fillet
+    radius for a real value'
+
+    """
+    where = f"({format_value(corner.x)}, {format_value(corner.y)}) {length}"
+    within = f" within {format_value(corner.radius)} {length}" if corner.radius > 0 else ""
+    return (f"sharp re-entrant corner ({corner.angle_deg:.0f} deg) at {where}: the stress there "
+            f"is mesh-dependent (unbounded in theory) and left out of the largest stress{within}; "
+            "give the fillet radius for a real value")
+
+
 def property_table(result: SectionResult) -> str:
     """The full property table of one result as text, grouped, with symbols and units.
 
@@ -41,10 +73,7 @@ def property_table(result: SectionResult) -> str:
         f"{result.mesh.n_nodes} nodes, largest element size {result.mesh.size:.3g} {unit}",
     ]
     lines += [f"  note: {n}" for n in result.profile.notes]
-    for c in reentrant_corners(result.profile):
-        lines.append(f"  note: sharp re-entrant corner ({c.angle_deg:.0f} deg) at ({format_value(c.x)}, "
-                     f"{format_value(c.y)}): the shear stress there is unbounded in theory and "
-                     "depends on the mesh; give the fillet radius for a real value")
+    lines += [f"  note: {corner_note(c, unit)}" for c in result.corners]
     group = None
     for q in QUANTITIES:
         if np.isnan(v[q.key]):

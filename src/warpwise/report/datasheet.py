@@ -1,0 +1,316 @@
+"""The datasheet of one profile: a self-contained HTML5 page.
+
+The page shows the outline with its principal axes, the property table, the torsion stress
+picture and values, the warping picture, a glossary of every symbol shown, the notes and the
+cautions. Styles and pictures (SVG) are inline; the page loads nothing from anywhere (a content
+security policy forbids it) and runs no script, so it can be mailed, archived or printed as it
+is. The torsion stresses are computed by the caller (:func:`warpwise.stress.torsion_stress`)
+and passed in.
+"""
+
+from __future__ import annotations
+
+from html import escape
+from pathlib import Path
+
+import numpy as np
+
+from ..errors import UsageError
+from ..properties.analysis import SectionResult
+from ..stress import TorsionStress
+from .files import atomic_write
+from .html_parts import (
+    caution_box,
+    datasheet_filename,
+    footer,
+    number_html,
+    page,
+    percent,
+    safe_name,
+    symbol_html,
+    unit_html,
+)
+from .plot_files import svg_text
+from .plot_parts import profile_name
+from .plot_section import figure_outline, figure_warping
+from .plot_stress import figure_torsion
+from .quantities import FORCE_UNITS, QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values
+from .table import corner_note
+
+#: Symbols used in the pictures and the torsion summary (not in the property list).
+PICTURE_SYMBOLS = (
+    ("T", "torque about the bar axis", "applied load; the stresses scale with it", "moment"),
+    ("G", "shear modulus", "of the material; the stress pattern does not depend on it", "stress"),
+    ("tau", "resultant torsion shear stress", "sqrt(tau_zx^2 + tau_zy^2), "
+     "tau_zx = (T/J)(dpsi/dx - y), tau_zy = (T/J)(dpsi/dy + x)", "stress"),
+    ("theta", "twist rate", "T / (G J)", "twist"),
+    ("omega", "warping function about the shear centre", "axial displacement w = theta omega; "
+     "zero mean over the section", "area"),
+)
+
+
+
+def _unit_of_kind(kind: str, length: str) -> str:
+    force, stress = FORCE_UNITS[length]
+    return {"moment": f"{force}*{length}", "stress": stress, "twist": f"rad/{length}",
+            "area": f"{length}2"}[kind]
+
+
+
+def _property_rows(result: SectionResult, v: dict[str, float]) -> tuple[str, list[str]]:
+    """The grouped property table and the keys shown."""
+    with_errors = result.errors is not None
+    cols = 5 if with_errors else 4
+    rows, shown, group = [], [], None
+    for q in QUANTITIES:
+        value = v[q.key]
+        if not np.isfinite(value):
+            continue
+        if q.group != group:
+            if group is not None:
+                rows.append("</tbody>")
+            group = q.group
+            rows.append(f'<tbody><tr><th class="group" colspan="{cols}" scope="rowgroup">'
+                        f"{escape(group)}</th></tr>")
+        shown.append(q.key)
+        cells = [f'<td class="sym">{symbol_html(q.symbol)}</td>', f"<td>{escape(q.label)}</td>",
+                 f'<td class="num">{number_html(value)}</td>',
+                 f'<td class="unit">{unit_html(unit_of(q, result.units))}</td>']
+        if with_errors:
+            err = error_of(result, q.key)
+            cells.append(f'<td class="num">{"" if err is None else percent(err)}</td>')
+        rows.append(f'<tr data-key="{escape(q.key)}">{"".join(cells)}</tr>')
+    if group is not None:
+        rows.append("</tbody>")
+    head = ["Symbol", "Property", "Value", "Unit"] + (["Estimated error"] if with_errors else [])
+    numeric = ' class="num"'
+    thead = "<thead><tr>" + "".join(
+        f'<th scope="col"{numeric if h in ("Value", "Estimated error") else ""}>{h}</th>'
+        for h in head) + "</tr></thead>"
+    note = ""
+    if with_errors:
+        note = ('<p class="meta">Estimated error: relative error of the value shown (shear-centre '
+                "coordinates: relative to the largest dimension of the profile), from the same "
+                "analysis on two finer meshes.</p>")
+    table = f'<table class="properties" id="property-table">{thead}{"".join(rows)}</table>{note}'
+    return table, shown
+
+
+def _key_values(result: SectionResult, v: dict[str, float]) -> str:
+    keys = [k for k in ("A", "Ix", "Iy", "I1", "I2", "alpha_deg", "J", "Cw", "xs", "ys", "mass")
+            if np.isfinite(v[k])]
+    rows = "".join(
+        f'<tr><th scope="row">{escape(QUANTITY_BY_KEY[k].label)}</th>'
+        f'<td class="sym">{symbol_html(QUANTITY_BY_KEY[k].symbol)}</td>'
+        f'<td class="num">{number_html(v[k], 5)}</td>'
+        f'<td class="unit">{unit_html(unit_of(QUANTITY_BY_KEY[k], result.units))}</td></tr>'
+        for k in keys)
+    return f'<table class="key" id="key-values"><tbody>{rows}</tbody></table>'
+
+
+def _glossary(result: SectionResult, shown: list[str]) -> str:
+    items = []
+    for key in shown:
+        q = QUANTITY_BY_KEY[key]
+        unit = unit_html(unit_of(q, result.units))
+        items.append(f'<dt>{symbol_html(q.symbol)}</dt><dd>{escape(q.label)}: {escape(q.definition)} '
+                     f'<span class="unit">[{unit}]</span></dd>')
+    for sym, label, definition, kind in PICTURE_SYMBOLS:
+        unit = unit_html(_unit_of_kind(kind, result.units))
+        items.append(f"<dt>{symbol_html(sym)}</dt><dd>{escape(label)}: {escape(definition)} "
+                     f'<span class="unit">[{unit}]</span></dd>')
+    intro = ("<p>Coordinates x, y are those of the drawing; second moments are about centroidal "
+             "axes parallel to x and y; axis 1 is the major and axis 2 the minor principal axis, "
+             "at the angle \u03b1 from +x (counter-clockwise positive). "
+             f"Length unit L = {escape(result.units)}.</p>")
+    return f'{intro}<dl class="glossary" id="glossary">{"".join(items)}</dl>'
+
+
+def _notes(result: SectionResult) -> list[str]:
+    out = [escape(n) for n in result.profile.notes]
+    for c in result.corners:
+        note = corner_note(c, result.units)
+        out.append(escape(f"{note[:1].upper()}{note[1:]}."))
+    m = result.mesh
+    out.append(f"Mesh: {m.n_elements} six-node triangles, {m.n_nodes} nodes, largest element size "
+               f"{number_html(m.size, 3)} {escape(result.units)}.")
+    if result.composite:
+        out.append("Composite section: area, centroid, second and plastic moduli are of the bare "
+                   "geometry; torsion, warping and shear values (J, Cw, shear centre, shear areas) "
+                   "and the stiffnesses (EA, EI, GJ, ECw) are modulus-weighted, referred to "
+                   f"{escape(result.materials.reference)}.")
+    return out
+
+
+def _wide(result: SectionResult) -> bool:
+    """True for a profile much wider than tall: its pictures get the full page width."""
+    x0, y0, x1, y1 = result.profile.bounds
+    return (y1 - y0) < 0.8 * (x1 - x0)
+
+
+def _layout(result: SectionResult) -> tuple[str, float]:
+    """CSS class of a picture-beside-table block and the picture width, inches."""
+    return ("overview stacked", 7.0) if _wide(result) else ("overview", 5.4)
+
+
+def _torsion_rows(result: SectionResult, torsion: TorsionStress) -> list[tuple[str, str, str, str]]:
+    """(label, symbol, value, unit) rows of the torsion values, HTML."""
+    u = result.units
+    force, stress = FORCE_UNITS[u]
+    T, top, at = torsion.torque, torsion.tau_max, torsion.tau_max_at
+    rows = [("Torque", "T", number_html(T), unit_html(f"{force}*{u}")),
+            ("Largest shear stress", "tau_max", number_html(top, 5), unit_html(stress)),
+            ("Where (x, y)", "", f"({number_html(at[0], 5)}, {number_html(at[1], 5)})", unit_html(u)),
+            ("Largest shear stress per unit torque", "tau_max/T", number_html(top / T, 5),
+             f"{escape(u)}<sup>\u22123</sup>")]
+    if result.composite:
+        rows += [(f"Largest in {escape(p.material)}", "tau_max", number_html(p.tau_max, 5),
+                  unit_html(stress)) for p in torsion.peaks]
+    if torsion.twist_rate is not None:
+        rows.append(("Shear modulus" + (" (reference material)" if result.composite else ""), "G",
+                     number_html(torsion.shear_modulus), unit_html(stress)))
+        rows.append(("Twist rate", "theta", number_html(torsion.twist_rate, 5), escape(f"rad/{u}")))
+    for corner in torsion.corners:
+        c = corner.corner
+        value = "" if result.composite else f"{number_html(corner.tau_at_corner, 4)} (mesh-dependent)"
+        rows.append((f"At the sharp corner ({number_html(c.x, 5)}, {number_html(c.y, 5)})", "tau",
+                     value or "mesh-dependent", "" if result.composite else unit_html(stress)))
+    return rows
+
+
+def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torque: bool) -> str:
+    layout, width = _layout(result)
+    svg = svg_text(figure_torsion(result, torsion, width=width), "torsion-")
+    moment = unit_html(f"{FORCE_UNITS[result.units][0]}*{result.units}")
+    T = number_html(torsion.torque)
+    if nominal_torque:
+        caption = (f"Resultant shear stress \u03c4 for a nominal torque T = {T} {moment}. Stresses "
+                   "scale in proportion to the torque: multiply by T in "
+                   f"{moment} for another torque. The stress pattern does not depend on the "
+                   "shear modulus.")
+    else:
+        caption = f"Resultant shear stress \u03c4 for the torque T = {T} {moment}."
+    caption += (" Arrows show the stress direction; the star marks the largest value away from "
+                "sharp re-entrant corners.")
+    body = "".join(f'<tr><th scope="row">{label}</th><td class="sym">'
+                   f'{symbol_html(sym) if sym else ""}</td><td class="num">{val}</td>'
+                   f'<td class="unit">{unit}</td></tr>'
+                   for label, sym, val, unit in _torsion_rows(result, torsion))
+    return (f'<section id="torsion"><h2>Torsion shear stress</h2>'
+            f'<div class="{layout}"><figure class="picture" id="torsion-picture">{svg}'
+            f"<figcaption>{caption}</figcaption></figure>"
+            f'<table class="key" id="torsion-values"><tbody>{body}</tbody></table></div></section>')
+
+
+def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_torque: bool = False,
+                   title: str | None = None, warping: bool = True) -> str:
+    """A self-contained HTML5 datasheet of one analysed profile.
+
+    Parameters
+    ----------
+    result : SectionResult
+        The analysed section.
+    torsion : TorsionStress
+        Its torsion stresses for the torque to show (force x L, N*mm with mm), from
+        :func:`warpwise.stress.torsion_stress`; the twist rate and shear modulus are shown
+        when known.
+    nominal_torque : bool
+        The torque is the nominal T = 1 force x L (no torque was given): the caption says so
+        and that the stresses scale with the torque.
+    title : str, optional
+        Heading; default the profile's file name.
+    warping : bool
+        Include the picture of the warping function.
+
+    Returns
+    -------
+    str
+        The page: heading with the profile and units, outline with principal axes and key
+        values, the full property table (with estimated errors when the result has them),
+        the torsion stress picture and values, the warping picture, a glossary of every
+        symbol shown, notes and cautions. All text is escaped.
+
+    Raises
+    ------
+    UsageError
+        For a nominal torque other than 1.
+
+    """
+    if nominal_torque and torsion.torque != 1.0:
+        raise UsageError(f"a nominal torque is 1, got {torsion.torque}")
+    name = profile_name(result)
+    heading = title or name
+    u = result.units
+    force, stress = FORCE_UNITS[u]
+    v = values(result)
+    meta = [f"Section properties of {escape(name)}",
+            f"length {escape(u)}, force {escape(force)}, stress {escape(stress)}"]
+    if result.materials.names and result.materials.names != ("",):
+        meta.append("material" + ("s " if len(result.materials.names) > 1 else " ")
+                    + ", ".join(escape(n) for n in result.materials.names))
+    layout, width = _layout(result)
+    outline = svg_text(figure_outline(result, show_mesh=False, width=width), "outline-")
+    table, shown = _property_rows(result, v)
+    parts = [
+        f'<header><h1>{escape(heading)}</h1><p class="meta">'
+        + "".join(f"<span>{m}</span>" for m in meta) + "</p></header>",
+        f'<section id="overview"><h2>Outline and principal axes</h2><div class="{layout}">'
+        f'<figure class="picture" id="outline-picture">{outline}<figcaption>The section to scale '
+        f"in {escape(u)}: C centroid, S shear centre, principal axes 1 (major) and 2 (minor) "
+        "through the centroid, arrow heads on their positive directions.</figcaption></figure>"
+        f"<div><h3 class=\"meta\">Key values</h3>{_key_values(result, v)}</div></div></section>",
+        f'<section id="properties"><h2>Section properties</h2>{table}</section>',
+        _torsion_section(result, torsion, nominal_torque),
+    ]
+    if warping:
+        svg = svg_text(figure_warping(result, width=7.0 if _wide(result) else 6.0), "warping-")
+        parts.append(
+            '<section id="warping"><h2>Warping</h2><figure class="picture" id="warping-picture">'
+            f"{svg}<figcaption>Warping function \u03c9 about the shear centre (zero mean, "
+            f"{unit_html(u + '2')}): under a twist rate \u03b8 the cross-section moves along the "
+            "bar by w = \u03b8 \u03c9. Restraining it (end plates, welded ends) gives warping "
+            f"stresses governed by C<sub>w</sub> = {number_html(v['Cw'], 5)} "
+            f"{unit_html(u + '6')}.</figcaption></figure></section>")
+    parts.append(f'<section id="symbols"><h2>Glossary of symbols</h2>{_glossary(result, shown)}</section>')
+    notes = "".join(f"<li>{n}</li>" for n in _notes(result))
+    parts.append(f'<section id="notes"><h2>Notes</h2><ul class="notes">{notes}</ul></section>')
+    parts.append(caution_box())
+    parts.append(footer())
+    return page(f"{heading}: section properties", "\n".join(parts))
+
+
+def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: TorsionStress,
+                    nominal_torque: bool = False, filename: str | None = None,
+                    title: str | None = None) -> Path:
+    """Write the datasheet of one profile into ``folder``, atomically.
+
+    Parameters
+    ----------
+    result : SectionResult
+        The analysed section.
+    folder : str or Path
+        An existing folder.
+    torsion, nominal_torque
+        As for :func:`datasheet_html`.
+    filename : str, optional
+        File name; default :func:`datasheet_filename` of the profile's source (use
+        :func:`unique_filenames` for a catalogue). Only the name is used, never a path.
+    title : str, optional
+        As for :func:`datasheet_html`.
+
+    Returns
+    -------
+    Path
+        The file written.
+
+    Raises
+    ------
+    UsageError
+        When the folder does not exist or cannot be written, or as :func:`datasheet_html`.
+
+    """
+    name = safe_name(filename) if filename else datasheet_filename(result.profile.source)
+    path = Path(folder) / name
+    atomic_write(path, datasheet_html(result, torsion=torsion, nominal_torque=nominal_torque,
+                                      title=title))
+    return path

@@ -1,0 +1,282 @@
+"""Pieces every HTML page shares: symbols, units, numbers, file names and the page frame.
+
+Symbols, units and numbers are written as HTML; file names are made safe; the frame holds the
+styles, the content security policy, the cautions and the footer. The pages are
+self-contained: styles inline, no script, nothing loaded from anywhere.
+
+Examples
+--------
+>>> datasheet_filename("profiles/Rail 40x45.dxf")
+'Rail_40x45-dxf.html'
+>>> unique_filenames(["a/box.txt", "b/box.txt", "box.dxf"])
+['box-txt.html', 'box-txt-2.html', 'box-dxf.html']
+
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Sequence
+from html import escape
+
+from .. import __version__
+from .table import CAUTION, format_value
+
+#: Cautions printed on every datasheet, after :data:`warpwise.report.table.CAUTION`.
+CAUTIONS = (
+    CAUTION,
+    "These values are not a design-code check: they are properties of the drawn geometry only. "
+    "Effective sections, local buckling, net sections, holes for fasteners and tolerances are "
+    "for the designer to apply on top, following the code's own definitions.",
+    "Check that the outline is the section you mean (units, holes, fillets) and that the mesh "
+    "is fine enough for the values you rely on (compare with a smaller mesh size).",
+)
+
+_GREEK = {"alpha": "\u03b1", "beta": "\u03b2", "omega": "\u03c9", "nu": "\u03bd",
+          "theta": "\u03b8", "tau": "\u03c4", "psi": "\u03c8", "sigma": "\u03c3", "kappa": "\u03ba"}
+
+
+# ----------------------------------------------------------------------------------------------
+# small formatting helpers
+
+def symbol_html(symbol: str) -> str:
+    """A trade symbol with its subscript, as HTML.
+
+    Examples
+    --------
+    >>> symbol_html("Wel,x+")
+    'W<sub>el,x+</sub>'
+    >>> symbol_html("beta_1"), symbol_html("EIx"), symbol_html("A")
+    ('\u03b2<sub>1</sub>', 'EI<sub>x</sub>', 'A')
+
+    """
+    if "/" in symbol:
+        return "/".join(symbol_html(part) for part in symbol.split("/"))
+    if "_" in symbol:
+        base, sub = symbol.split("_", 1)
+        return f"{escape(_GREEK.get(base, base))}<sub>{escape(sub)}</sub>"
+    if symbol in _GREEK:
+        return _GREEK[symbol]
+    m = re.fullmatch(r"([EG](?=[A-Z]))?([A-Za-z])(.*)", symbol)
+    if m is None:
+        return escape(symbol)
+    prefix, base, sub = m.group(1) or "", m.group(2), m.group(3)
+    return escape(prefix + base) + (f"<sub>{escape(sub)}</sub>" if sub else "")
+
+
+def unit_html(unit: str) -> str:
+    """A unit as HTML: powers raised, products with a middle dot.
+
+    Examples
+    --------
+    >>> unit_html("mm4"), unit_html("N*mm2"), unit_html("-")
+    ('mm<sup>4</sup>', 'N\u00b7mm<sup>2</sup>', '\u2013')
+
+    """
+    if unit in ("-", ""):
+        return "\u2013"
+    if unit == "deg":
+        return "\u00b0"
+    text = escape(unit).replace("*", "\u00b7")
+    return re.sub(r"([A-Za-z])(\d+)", r"\1<sup>\2</sup>", text)
+
+
+def number_html(v: float, digits: int = 6) -> str:
+    """A number with ``digits`` significant figures; powers of ten written out.
+
+    Examples
+    --------
+    >>> number_html(1.234567e7)
+    '1.23457\u202f\u00d7\u202f10<sup>7</sup>'
+    >>> number_html(-0.5)
+    '\u22120.5'
+
+    """
+    text = format_value(float(v), digits)
+    m = re.fullmatch(r"(-?[0-9.]+)e([+-])0*(\d+)", text)
+    if m:
+        sign = "\u2212" if m.group(2) == "-" else ""
+        text = f"{m.group(1)}\u202f\u00d7\u202f10<sup>{sign}{m.group(3)}</sup>"
+    return text.replace("-", "\u2212", 1) if text.startswith("-") else text
+
+
+def percent(err: float) -> str:
+    """A relative error as a percentage, HTML."""
+    pct = 100.0 * abs(err)
+    if pct < 0.0001:
+        return "&lt;\u202f0.0001\u202f%"
+    return f"{pct:.2g}\u202f%"
+
+
+
+# ----------------------------------------------------------------------------------------------
+# file names
+
+_UNSAFE = re.compile(r"[^A-Za-z0-9._-]+")
+_RESERVED = {"con", "prn", "aux", "nul", *(f"com{k}" for k in range(1, 10)),
+             *(f"lpt{k}" for k in range(1, 10)), "index"}
+
+
+def datasheet_filename(source: str) -> str:
+    """A safe file name for the datasheet of a profile read from ``source``.
+
+    Folders are dropped, the file's ending is kept in the name (so ``box.txt`` and ``box.dxf``
+    get different pages) and anything but letters, digits, ``.``, ``_`` and ``-`` becomes
+    ``_``. Names that devices or the index page use get a trailing ``_``.
+
+    Parameters
+    ----------
+    source : str
+        The profile's source (file path or shape description).
+
+    Returns
+    -------
+    str
+        A name ending in ``.html``, at most 100 characters.
+
+    Examples
+    --------
+    >>> datasheet_filename("../../etc/passwd"), datasheet_filename("<profile>")
+    ('passwd.html', 'profile.html')
+    >>> datasheet_filename("CON"), datasheet_filename("index")
+    ('CON_.html', 'index_.html')
+
+    """
+    name = re.split(r"[\\/]", source.strip())[-1] if source else ""
+    stem, dot, ext = name.rpartition(".")
+    if not dot or not stem:
+        stem, ext = name, ""
+    stem = _UNSAFE.sub("_", stem).strip("._-")[:80] or "profile"
+    ext = _UNSAFE.sub("_", ext).strip("._-")[:12]
+    base = f"{stem}-{ext}" if ext else stem
+    if base.lower() in _RESERVED:
+        base += "_"
+    return f"{base}.html"
+
+
+def safe_name(filename: str) -> str:
+    """A given file name made safe: its last path component only, ending in .html."""
+    name = _UNSAFE.sub("_", re.split(r"[\\/]", filename)[-1]).strip("._-")
+    if not name.lower().endswith(".html"):
+        name += ".html"
+    return name if len(name) > 5 else "profile.html"
+
+
+def unique_filenames(sources: Sequence[str]) -> list[str]:
+    """Datasheet file names for several sources, made unique by numbering repeats.
+
+    Parameters
+    ----------
+    sources : sequence of str
+        Profile sources, in catalogue order.
+
+    Returns
+    -------
+    list of str
+        One name per source; a repeat gets ``-2``, ``-3``... (compared without case, so the
+        pages can share a folder on any file system).
+
+    """
+    seen: set[str] = set()
+    out = []
+    for src in sources:
+        name = datasheet_filename(src)
+        stem = name[:-5]
+        k = 1
+        while name.lower() in seen:
+            k += 1
+            name = f"{stem}-{k}.html"
+        seen.add(name.lower())
+        out.append(name)
+    return out
+
+
+# ----------------------------------------------------------------------------------------------
+# page frame
+
+_CSS = """
+:root { --ink: #1f2a33; --muted: #56646f; --rule: #d5dce2; --band: #f2f5f7; --accent: #1d4f91;
+        --warn: #8a4b00; --warn-bg: #fff6e5; }
+* { box-sizing: border-box; }
+html { font-family: "Segoe UI", "Helvetica Neue", Arial, "Liberation Sans", sans-serif;
+       color: var(--ink); background: #fff; font-size: 15px; line-height: 1.45; }
+body { margin: 0 auto; max-width: 1080px; padding: 28px 32px 40px; }
+header { border-bottom: 3px solid var(--accent); padding-bottom: 10px; margin-bottom: 18px; }
+h1 { font-size: 1.65rem; margin: 0 0 4px; letter-spacing: 0.01em; }
+h2 { font-size: 1.2rem; margin: 30px 0 10px; padding-bottom: 4px; border-bottom: 1px solid var(--rule);
+     color: var(--accent); }
+.meta { margin: 0; color: var(--muted); font-size: 0.92rem; }
+.meta span + span::before { content: " \\00b7  "; }
+.overview { display: grid; grid-template-columns: minmax(0, 3fr) minmax(260px, 2fr); gap: 24px;
+            align-items: start; }
+.overview.stacked { grid-template-columns: 1fr; }
+.overview.stacked figure { max-width: 860px; }
+.overview.stacked > table, .overview.stacked > div { max-width: 620px; }
+@media (max-width: 820px) { .overview { grid-template-columns: 1fr; } }
+figure { margin: 0; break-inside: avoid; }
+figure svg { display: block; width: 100%; height: auto; }
+figure.picture svg { max-height: 960px; }
+#warping-picture { max-width: 720px; }
+sup, sub { line-height: 0; }
+figcaption { font-size: 0.88rem; color: var(--muted); margin-top: 6px; }
+table { border-collapse: collapse; width: 100%; font-size: 0.92rem; }
+th, td { padding: 4px 8px; text-align: left; vertical-align: top; }
+thead th { border-bottom: 2px solid var(--ink); font-weight: 600; white-space: nowrap; }
+tbody th.group { background: var(--band); font-weight: 600; padding-top: 7px; color: var(--accent); }
+tbody tr { border-bottom: 1px solid var(--rule); break-inside: avoid; }
+td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+td.sym { white-space: nowrap; font-family: Georgia, "Times New Roman", serif; font-size: 1rem; }
+td.unit { white-space: nowrap; }
+.key td, .key th { padding: 5px 8px; }
+.key th { font-weight: normal; color: var(--muted); }
+dl.glossary { display: grid; grid-template-columns: max-content 1fr; gap: 4px 18px; margin: 0;
+              font-size: 0.92rem; }
+dl.glossary dt { font-family: Georgia, "Times New Roman", serif; font-size: 1rem; white-space: nowrap; }
+dl.glossary dd { margin: 0; }
+dl.glossary .unit { color: var(--muted); }
+.notes li { margin-bottom: 3px; }
+.caution { border-left: 4px solid var(--warn); background: var(--warn-bg); padding: 10px 16px;
+           margin-top: 30px; break-inside: avoid; }
+.caution h2 { border: 0; color: var(--warn); margin: 0 0 6px; padding: 0; }
+.caution p { margin: 4px 0; }
+footer { margin-top: 28px; color: var(--muted); font-size: 0.82rem; border-top: 1px solid var(--rule);
+         padding-top: 8px; }
+a { color: var(--accent); }
+td.failed { color: var(--warn); }
+svg.thumb { width: 56px; height: 40px; display: block; }
+@media print {
+  html { font-size: 11pt; }
+  body { max-width: none; padding: 0; }
+  h2 { break-after: avoid; }
+  a { color: inherit; text-decoration: none; }
+}
+"""
+
+_CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:"
+
+
+def page(title: str, body: str) -> str:
+    """A complete HTML5 page: frame, styles and ``body`` (already HTML)."""
+    return (
+        "<!DOCTYPE html>\n"
+        '<html lang="en">\n<head>\n<meta charset="utf-8">\n'
+        '<meta name="viewport" content="width=device-width, initial-scale=1">\n'
+        f'<meta http-equiv="Content-Security-Policy" content="{_CSP}">\n'
+        f'<meta name="generator" content="warpwise {escape(__version__)}">\n'
+        '<link rel="icon" href="data:,">\n'
+        f"<title>{escape(title)}</title>\n<style>{_CSS}</style>\n</head>\n<body>\n{body}\n"
+        "</body>\n</html>\n"
+    )
+
+
+def footer() -> str:
+    """The footer every page ends with: program, version and method."""
+    return (f"<footer>Computed with warpwise {escape(__version__)}: six-node triangle finite "
+            "elements on the drawn outline (Saint-Venant warping, Trefftz shear centre). "
+            "Values in the drawing's length unit.</footer>")
+
+
+def caution_box() -> str:
+    """The box of :data:`CAUTIONS`."""
+    paras = "".join(f"<p>{escape(c)}</p>" for c in CAUTIONS)
+    return f'<section class="caution" id="cautions"><h2>Cautions</h2>{paras}</section>'
