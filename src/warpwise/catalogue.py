@@ -119,8 +119,11 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
         sheet = thumb = None
         if options.datasheet_dir:
             from .report.html import thumbnail_svg, write_datasheet
+            from .stress import torsion_stress
 
-            sheet = str(write_datasheet(result, options.datasheet_dir, filename=sheet_name))
+            sheet = str(write_datasheet(result, options.datasheet_dir,
+                                        torsion=torsion_stress(result, 1.0), nominal_torque=True,
+                                        filename=sheet_name))
             thumb = thumbnail_svg(result)
         return Outcome(path, record_of(result), None, time.perf_counter() - start, sheet, thumb)
     except WarpwiseError as exc:

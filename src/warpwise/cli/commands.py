@@ -18,7 +18,7 @@ from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
 from ..report.files import atomic_write, csv_text, json_text
 from ..report.table import property_table
-from ..stress import Loads, combined_stress, shear_modulus, shear_stress
+from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 
@@ -159,15 +159,15 @@ def run_plot(args: argparse.Namespace) -> int:
     )
 
     result = _analyse_file(args.file, args, bounds=False)
-    G = args.shear_modulus or result.materials.G_ref or 1.0
     if args.show == "mesh":
         fig = figure_outline(result, show_mesh=True)
     elif args.show == "warping":
         fig = figure_warping(result)
     elif args.show == "torsion":
-        fig = figure_torsion(result, args.torque or 1.0, G)
+        fig = figure_torsion(result, torsion_stress(result, args.torque or 1.0,
+                                                    args.shear_modulus))
     else:
-        fig = figure_combined(result, _loads(args), G)
+        fig = figure_combined(result, combined_stress(result, _loads(args), args.shear_modulus))
     save_figure(fig, args.output)
     return 0
 

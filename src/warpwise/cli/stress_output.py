@@ -6,7 +6,7 @@ import json
 
 from ..properties.analysis import SectionResult
 from ..report.quantities import FORCE_UNITS
-from ..report.table import CAUTION, format_value
+from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
 
 
@@ -106,8 +106,6 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress) -> str:
                   f"    at ({format_value(m.von_mises_at[0])}, {format_value(m.von_mises_at[1])}) {L}"]
         if m.utilisation is not None:
             lines.append(row("von Mises / fy (informative, not a code check)", "u", m.utilisation, "-"))
-    for x, y, r in c.excluded:
-        lines.append(f"  note: sharp re-entrant corner at ({format_value(x)}, {format_value(y)}) left "
-                     f"out within {format_value(r)} {L}: the stress there is mesh-dependent")
+    lines += [f"  note: {corner_note(corner, L)}" for corner in result.corners]
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)
