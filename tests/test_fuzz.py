@@ -20,11 +20,9 @@ ones instead.
 
 import faulthandler
 import functools
-import importlib.util
 import multiprocessing
 import os
 import signal
-import sys
 import time
 from pathlib import Path
 
@@ -33,10 +31,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 ROOT = Path(__file__).resolve().parents[1]
-_spec = importlib.util.spec_from_file_location("warpwise_fuzz_script", ROOT / "scripts" / "fuzz.py")
-fuzz = importlib.util.module_from_spec(_spec)
-sys.modules[_spec.name] = fuzz  # dataclasses look their module up there
-_spec.loader.exec_module(fuzz)
+from support import fuzzing as fuzz  # noqa: E402 (the mutations, shared with scripts/fuzz.py)
 
 SAMPLES = {p.name: p for p in fuzz.sample_files()}
 NAMES = sorted(SAMPLES)

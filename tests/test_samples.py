@@ -8,7 +8,6 @@ exact area and centroid of each true outline. The DXF reader must reproduce them
 import importlib.util
 import json
 import math
-import sys
 from pathlib import Path
 
 import ezdxf
@@ -21,15 +20,8 @@ ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = ROOT / "sample_sections"
 
 
-def _load_generator():
-    spec = importlib.util.spec_from_file_location("make_samples", ROOT / "scripts" / "make_samples.py")
-    module = importlib.util.module_from_spec(spec)
-    sys.modules[spec.name] = module          # dataclasses look their module up while building
-    spec.loader.exec_module(module)
-    return module
+from support import sample_profiles as make_samples  # noqa: E402 (the exact sample definitions)
 
-
-make_samples = _load_generator()
 CATALOGUE = make_samples.catalogue()
 DXF_NAMES = sorted(CATALOGUE)
 

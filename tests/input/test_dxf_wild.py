@@ -16,7 +16,7 @@ import pytest
 
 from warpwise.io.dxf import import_dxf
 
-WILD = Path(__file__).resolve().parents[2] / "shared" / "dxf-wild"
+WILD = Path(__file__).resolve().parents[3] / "shared" / "dxf-wild"
 FILES = sorted(p for p in WILD.glob("*") if p.suffix.lower() == ".dxf") if WILD.is_dir() else []
 TIME_LIMIT = 10.0  # seconds per command, the acceptance bound of the issue
 
