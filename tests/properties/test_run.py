@@ -63,3 +63,16 @@ def test_timings_are_reported():
     assert {"mesh", "basis", "assembly", "factorise", "warping", "bounds", "shear",
             "plastic"} <= set(res.timings)
     assert all(t >= 0 for t in res.timings.values())
+
+
+def test_error_estimate_keys_are_declared_once():
+    # the estimate, the CSV columns and the table's error column read one list
+    from warpwise.properties.accuracy import ERROR_KEYS, ERROR_OF_QUANTITY, estimate_errors
+    from warpwise.report.files import csv_text
+    from warpwise.report.quantities import QUANTITY_BY_KEY
+
+    est = estimate_errors(rectangle(20.0, 10.0), refine=0.5)
+    assert tuple(est.relative_error) == ERROR_KEYS
+    header = csv_text([est.result]).splitlines()[0].split(",")
+    assert [h.split(" est.")[0] for h in header if "est. rel. error" in h] == list(ERROR_KEYS)
+    assert set(ERROR_OF_QUANTITY) <= set(QUANTITY_BY_KEY)

@@ -294,7 +294,8 @@ def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: Torsi
         As for :func:`datasheet_html`.
     filename : str, optional
         File name; default :func:`datasheet_filename` of the profile's source (use
-        :func:`unique_filenames` for a catalogue). Only the name is used, never a path.
+        :func:`~warpwise.report.html_parts.unique_filenames` for a catalogue). Only the name
+        is used, never a path.
     title : str, optional
         As for :func:`datasheet_html`.
 
