@@ -40,8 +40,17 @@ def _resolve(where: str, target: str) -> bool:
         package = where if (SRC / Path(*where.split(".")[1:]) / "__init__.py").exists() \
             else where.rsplit(".", 1)[0]
         return any(_resolve(where, f"{base}.{target}") for base in (where, package, "warpwise"))
-    parts = target.split(".")
-    for k in range(len(parts), 0, -1):
+    return _lookup(target.split("."))
+
+
+def _lookup(parts: list[str], *, attribute_needed: bool = False) -> bool:
+    """Import the longest importable prefix of ``parts`` and look the rest up on it.
+
+    A dataclass field documented as an attribute has no class attribute and counts too. With
+    ``attribute_needed`` at least one part is an attribute (a bare short name is not taken for
+    a top-level module).
+    """
+    for k in range(len(parts) - int(attribute_needed), 0, -1):
         try:
             obj = importlib.import_module(".".join(parts[:k]))
         except ImportError:
@@ -50,9 +59,7 @@ def _resolve(where: str, target: str) -> bool:
             for name in parts[k:]:
                 obj = getattr(obj, name)
         except AttributeError:
-            # a dataclass field documented as an attribute has no class attribute
-            fields = getattr(obj, "__dataclass_fields__", {})
-            return len(parts) - k >= 1 and parts[-1] in fields
+            return len(parts) > k and parts[-1] in getattr(obj, "__dataclass_fields__", {})
         return True
     return False
 
@@ -61,21 +68,7 @@ def _resolve_absolute(target: str) -> bool:
     """A builtin or another library's name (``DeprecationWarning``, ``numpy.ndarray``)."""
     import builtins
 
-    if hasattr(builtins, target):
-        return True
-    parts = target.split(".")
-    for k in range(len(parts) - 1, 0, -1):
-        try:
-            obj = importlib.import_module(".".join(parts[:k]))
-        except ImportError:
-            continue
-        try:
-            for name in parts[k:]:
-                obj = getattr(obj, name)
-        except AttributeError:
-            return False
-        return True
-    return False
+    return hasattr(builtins, target) or _lookup(target.split("."), attribute_needed=True)
 
 
 def _member_of_a_class(where: str, name: str) -> bool:
