@@ -15,6 +15,17 @@ def run_cli(*args, cwd=None):
     return proc.returncode, proc.stdout, proc.stderr
 
 
+def assert_one_line_error(code, err, *words):
+    """A clean refusal: non-zero exit, one line on stderr holding every word, no traceback."""
+    assert code != 0
+    assert "Traceback" not in err
+    lines = [ln for ln in err.splitlines() if ln.strip()]
+    assert len(lines) == 1, err
+    for w in words:
+        assert w in lines[0], lines[0]
+    return lines[0]
+
+
 @pytest.fixture
 def cli():
     return run_cli

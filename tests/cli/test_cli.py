@@ -4,16 +4,7 @@ import json
 
 import pytest
 
-from conftest import SAMPLES
-
-
-def assert_clean_error(code, out, err, *words):
-    assert code != 0
-    assert "Traceback" not in err
-    lines = [ln for ln in err.splitlines() if ln.strip()]
-    assert len(lines) == 1, err
-    for w in words:
-        assert w in lines[0], lines[0]
+from conftest import SAMPLES, assert_one_line_error
 
 
 def test_props_table(cli, box_file):
@@ -94,23 +85,23 @@ def test_bad_input_one_line_no_output(cli, tmp_path, name):
     path.write_text(text)
     out_csv = tmp_path / "out.csv"
     code, out, err = cli("props", path, "--csv", out_csv)
-    assert_clean_error(code, out, err, name, word)
+    assert_one_line_error(code, err, name, word)
     assert not out_csv.exists()
 
 
 def test_missing_file(cli, tmp_path):
     code, out, err = cli("props", tmp_path / "nope.txt")
-    assert_clean_error(code, out, err, "nope.txt", "not found")
+    assert_one_line_error(code, err, "nope.txt", "not found")
 
 
 def test_torque_without_modulus(cli, box_file):
     code, out, err = cli("stress", box_file, "--torque", "10")
-    assert_clean_error(code, out, err, "material")
+    assert_one_line_error(code, err, "material")
 
 
 def test_bad_number_on_command_line(cli, box_file):
     code, out, err = cli("props", box_file, "--mesh-size", "-1")
-    assert_clean_error(code, out, err, "mesh-size")
+    assert_one_line_error(code, err, "mesh-size")
 
 
 def test_existing_csv_kept_when_a_file_fails(cli, box_file, tmp_path):

@@ -11,6 +11,7 @@ import ezdxf
 import numpy as np
 import pytest
 
+from conftest import assert_one_line_error
 from warpwise import analyse
 from warpwise.errors import InputFileError, ProfileError, UsageError
 from warpwise.geometry.profile import Arc
@@ -32,16 +33,6 @@ def new(insunits=None):
     else:
         doc.header["$INSUNITS"] = insunits
     return doc, doc.modelspace()
-
-
-def assert_one_line_error(code, err, *words):
-    assert code != 0
-    assert "Traceback" not in err
-    lines = [ln for ln in err.splitlines() if ln.strip()]
-    assert len(lines) == 1, err
-    for w in words:
-        assert w in lines[0], lines[0]
-    return lines[0]
 
 
 # --- tubes: J against the closed form -------------------------------------------------------
