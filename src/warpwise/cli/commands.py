@@ -19,6 +19,7 @@ from ..properties.run import run_analysis
 from ..report.files import atomic_write, csv_text, json_text
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
+from ..stress.recovery import reference_shear_modulus
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 
@@ -64,8 +65,7 @@ def run_stress(args: argparse.Namespace) -> int:
     if args.shear_modulus is not None or args.youngs_modulus is not None:
         G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
     result = _analyse_file(args.file, args, bounds=False)
-    if G is None and result.materials.G_ref is not None:
-        G = result.materials.G_ref
+    G = reference_shear_modulus(result, G)
     if loads.T != 0 and G is None:
         raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
                          "or E with Poisson's ratio")

@@ -16,7 +16,7 @@ import numpy as np
 
 from ..properties.analysis import SectionResult
 from .loads import Loads
-from .recovery import MaterialField, away_from_corners, peak, recover, reference_shear_modulus
+from .recovery import MaterialField, away_from_corners, peak, recover
 
 
 @dataclass(frozen=True, eq=False)
@@ -97,7 +97,8 @@ def combined_stress(result: SectionResult, loads: Loads, G: float | None = None)
     CombinedStress
     """
     mats = result.materials
-    G_ref = mats.G_ref if mats.G_ref is not None else reference_shear_modulus(result, G)
+    # with materials the reference material's G, else the one given (geometry only)
+    G_ref = mats.G_ref if mats.G_ref is not None else G
     twist = None if G_ref is None else loads.T / (G_ref * result.torsion.J)
     out = []
     for f in recover(result, loads):
