@@ -1,7 +1,11 @@
 """Materials: elastic constants, strength and density, a small built-in table and TOML tables.
 
-Units: moduli and strengths in MPa (N/mm^2), density in kg/m^3. With another length unit the
-moduli must be given in the matching force/length^2 unit (Pa with m, psi with inches).
+Units: a material's values are in the unit system named by :attr:`Material.system` (see
+:mod:`warpwise.units`): the built-ins and every table as read are in the ``mm`` system, moduli and
+strengths in MPa (N/mm^2), density in kg/m^3. A TOML table may state other units
+(``stress_unit``, ``density_unit``); they are converted on reading. Where a material meets a
+profile it is converted once into the profile's unit system (:meth:`Material.in_system`), so
+E A comes out in the profile's force unit whatever the drawing's length unit.
 
 The built-in values are generic nominal values for design with the sources named beside each;
 they are no substitute for the values of the product standard or the supplier's certificate.
@@ -23,6 +27,7 @@ from pathlib import Path
 import numpy as np
 
 from .errors import InputFileError, UsageError
+from .units import DENSITY, DENSITY_UNITS, STRESS, STRESS_UNITS, convert
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -39,17 +44,19 @@ class Material:
     name : str
         Name used in outlines (``material: NAME``), layer maps and reports.
     E : float
-        Young's modulus, MPa.
+        Young's modulus, stress unit of ``system`` (MPa in the ``mm`` system).
     nu : float
         Poisson's ratio.
     G : float
-        Shear modulus, MPa (E / (2 (1 + nu)) unless given).
+        Shear modulus, the same unit (E / (2 (1 + nu)) unless given).
     fy : float or None
-        Yield or 0.2% proof strength, MPa.
+        Yield or 0.2% proof strength, the same unit.
     density : float or None
-        Density, kg/m^3.
+        Density, density unit of ``system`` (kg/m^3 in the ``mm`` system).
     source : str
         Where the values come from.
+    system : str
+        Unit system of the values, a key of :data:`warpwise.units.SYSTEMS`.
     """
 
     name: str
@@ -59,6 +66,27 @@ class Material:
     fy: float | None = None
     density: float | None = None
     source: str = ""
+    system: str = "mm"
+
+    def in_system(self, system: str) -> Material:
+        """The same material with its values in another unit system.
+
+        Examples
+        --------
+        >>> m = builtin_material("steel-S355").in_system("cm")
+        >>> m.E, m.fy, m.density, m.system
+        (21000.0, 35.5, 7850.0, 'cm')
+        """
+        if system == self.system:
+            return self
+
+        def stress(v: float | None) -> float | None:
+            return None if v is None else convert(v, STRESS, self.system, system)
+
+        density = None if self.density is None else convert(self.density, DENSITY, self.system,
+                                                            system)
+        return Material(self.name, stress(self.E), self.nu, stress(self.G), stress(self.fy),
+                        density, self.source, system)
 
 
 #: Open interval of Poisson's ratios of an isotropic, stable elastic material (common practice,
@@ -182,6 +210,11 @@ def builtin_material(name: str) -> Material:
 def read_materials(path: str | Path) -> dict[str, Material]:
     """Read a TOML materials table: ``[materials.NAME]`` with E, nu or G, fy, density.
 
+    The table's units are MPa and kg/m^3 unless it states others at the top:
+    ``stress_unit`` (a key of :data:`warpwise.units.STRESS_UNITS`, e.g. ``"psi"`` or ``"GPa"``)
+    and ``density_unit`` (a key of :data:`warpwise.units.DENSITY_UNITS`, e.g. ``"lb/in3"``).
+    The values are converted to the ``mm`` system (MPa, kg/m^3) on reading.
+
     Parameters
     ----------
     path : str or Path
@@ -190,6 +223,7 @@ def read_materials(path: str | Path) -> dict[str, Material]:
     Returns
     -------
     dict of str to Material
+        Every material, values in the ``mm`` system.
     """
     p = Path(path)
     if not p.is_file():
@@ -198,6 +232,7 @@ def read_materials(path: str | Path) -> dict[str, Material]:
         data = tomllib.loads(p.read_text(encoding="utf-8"))
     except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
         raise InputFileError(f"not a valid TOML materials table ({exc})", file=str(path)) from None
+    stress_factor, density_factor = _table_units(data, str(path))
     table = data.get("materials")
     if not isinstance(table, dict) or not table:
         raise InputFileError("no [materials.NAME] tables found", file=str(path))
@@ -210,10 +245,36 @@ def read_materials(path: str | Path) -> dict[str, Material]:
             raise InputFileError(f"[materials.{name}] has unknown keys {sorted(unknown)}",
                                  file=str(path))
         if "E" not in v:
-            raise InputFileError(f"[materials.{name}] needs E (MPa)", file=str(path))
-        out[name] = make_material(name, v["E"], v.get("nu"), v.get("G"), v.get("fy"),
-                                  v.get("density"), str(v.get("source", str(path))), where=str(path))
+            raise InputFileError(f"[materials.{name}] needs E", file=str(path))
+        scaled = {k: _scaled(v.get(k), stress_factor) for k in ("E", "G", "fy")}
+        out[name] = make_material(name, scaled["E"], v.get("nu"), scaled["G"], scaled["fy"],
+                                  _scaled(v.get("density"), density_factor),
+                                  str(v.get("source", str(path))), where=str(path))
     return out
+
+
+def _scaled(value: object, factor: float) -> object:
+    """A table value times a unit factor; anything but a number is left for the checks."""
+    if factor == 1.0 or isinstance(value, bool) or not isinstance(value, (int, float)):
+        return value
+    return value * factor
+
+
+def _table_units(data: dict, where: str) -> tuple[float, float]:
+    """Factors from a table's stated stress and density units to MPa and kg/m^3."""
+    unknown = set(data) - {"materials", "stress_unit", "density_unit"}
+    if unknown:
+        raise InputFileError(f"unknown top-level keys {sorted(unknown)} (use stress_unit, "
+                             "density_unit and [materials.NAME] tables)", file=where)
+    stress = data.get("stress_unit", "MPa")
+    density = data.get("density_unit", "kg/m3")
+    if stress not in STRESS_UNITS:
+        raise InputFileError(f"unknown stress_unit {stress!r} (use one of "
+                             f"{', '.join(STRESS_UNITS)})", file=where)
+    if density not in DENSITY_UNITS:
+        raise InputFileError(f"unknown density_unit {density!r} (use one of "
+                             f"{', '.join(DENSITY_UNITS)})", file=where)
+    return STRESS_UNITS[stress] / STRESS_UNITS["MPa"], DENSITY_UNITS[density]
 
 
 def resolve(names: list[str | None], table: Mapping[str, Material] | None = None,
@@ -263,9 +324,10 @@ class ElementMaterials:
     nu : numpy.ndarray
         Poisson's ratio per element (m,).
     E_ref, G_ref : float or None
-        Reference moduli, MPa; None for geometry only (no material given).
+        Reference moduli in the materials' unit system (the profile's, once they meet a
+        profile); None for geometry only (no material given).
     materials : tuple of Material
-        The material of each region (empty for geometry only).
+        The material of each region (empty for geometry only), values in one unit system.
     group : numpy.ndarray
         Index (m,) of each element's material in ``names``.
     names : tuple of str
@@ -317,6 +379,9 @@ class ElementMaterials:
         reference : str, optional
             Reference material name; default the material of the first region.
         """
+        systems = {m.system for m in materials}
+        if len(systems) > 1:
+            raise ValueError(f"materials in different unit systems {sorted(systems)}")
         names = tuple(dict.fromkeys(m.name for m in materials))
         by_name: dict[str, Material] = {}
         for m in materials:
@@ -325,7 +390,7 @@ class ElementMaterials:
             by_name[m.name] = m
         ref = by_name[names[0]] if reference is None else by_name.get(reference)
         if ref is None:
-            ref = builtin_material(reference)
+            ref = builtin_material(reference).in_system(materials[0].system)
         region_group = np.array([names.index(m.name) for m in materials], dtype=np.int64)
         group = region_group[region]
         mats = [by_name[n] for n in names]

@@ -377,8 +377,8 @@ def test_good_specs(spec, expected):
 def test_spec_units():
     p = shape_from_spec("rectangle:b=4,h=2", units="in")
     assert p.units == "in" and p.area == 8.0
-    with pytest.raises(ProfileError, match="unknown length unit 'ft'"):
-        shape_from_spec("rectangle:b=4,h=2", units="ft")
+    with pytest.raises(ProfileError, match="unknown length unit 'yd'"):
+        shape_from_spec("rectangle:b=4,h=2", units="yd")
 
 
 @pytest.mark.parametrize("spec, error, message", [

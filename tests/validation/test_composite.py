@@ -236,7 +236,11 @@ def test_read_materials(tmp_path):
 @pytest.mark.parametrize("text, error, words", [
     ("[materials.alu\nE = 1\n", InputFileError, "not a valid TOML"),
     ("", InputFileError, "no [materials.NAME]"),
-    ("[other]\nE = 1\n", InputFileError, "no [materials.NAME]"),
+    ("[other]\nE = 1\n", InputFileError, "unknown top-level keys ['other']"),
+    ("stress_unit = 'bar'\n[materials.a]\nE = 1\nnu = 0.3\n", InputFileError,
+     "unknown stress_unit 'bar'"),
+    ("density_unit = 'kg/l'\n[materials.a]\nE = 1\nnu = 0.3\n", InputFileError,
+     "unknown density_unit 'kg/l'"),
     ("[materials]\na = 3\n", InputFileError, "must be a table"),
     ("[materials.a]\nnu = 0.3\n", InputFileError, "needs E"),
     ("[materials.a]\nE = 1000\nnu = 0.3\nYoung = 3\n", InputFileError, "unknown keys ['Young']"),

@@ -17,9 +17,11 @@ from ..io.check import check_file, format_report
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
 from ..report.files import atomic_write, csv_text, json_text
+from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
 from ..stress.recovery import reference_shear_modulus
+from ..units import STRESS, convert
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 
@@ -34,8 +36,24 @@ def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -
 
 
 def _loads(args: argparse.Namespace) -> Loads:
+    """The loads as given, in the report's unit system."""
     return Loads(N=args.axial, Mx=args.moment_x, My=args.moment_y, Vx=args.shear_x,
                  Vy=args.shear_y, T=args.torque)
+
+
+def _given_modulus(args: argparse.Namespace) -> float | None:
+    """G from --shear-modulus or --youngs-modulus with --poisson, report units (None: not given)."""
+    if args.shear_modulus is None and getattr(args, "youngs_modulus", None) is None:
+        return None
+    return shear_modulus(args.shear_modulus, getattr(args, "youngs_modulus", None), args.poisson)
+
+
+def _in_profile_units(args: argparse.Namespace, result: SectionResult) -> tuple[Loads, float | None]:
+    """Loads and the given G from the report's unit system into the profile's."""
+    given = args.report_units or result.units
+    G = _given_modulus(args)
+    G = None if G is None else convert(G, STRESS, given, result.units)
+    return _loads(args).converted(given, result.units), G
 
 
 def run_props(args: argparse.Namespace) -> int:
@@ -46,37 +64,48 @@ def run_props(args: argparse.Namespace) -> int:
     profiles = [reading.load(f) for f in args.files]
     profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
     results = [run_analysis(p, options) for p in profiles]
+    records = [record_of(r) for r in results]
     if args.csv:
-        atomic_write(args.csv, csv_text(results))
+        atomic_write(args.csv, csv_text(records, units=_table_units(records, args.report_units)))
+    shown = [r.in_units(args.report_units or r.units) for r in records]
     if args.json:
-        sys.stdout.write(json_text(results))
+        sys.stdout.write(json_text(shown))
     else:
-        sys.stdout.write("\n".join(property_table(r) for r in results))
+        sys.stdout.write("\n".join(property_table(r) for r in shown))
     return 0
+
+
+def _table_units(records: list[Record], chosen: str | None) -> str:
+    """The one unit system of a table over several profiles, said on stderr when mixed."""
+    units = report_units([r.units for r in records], chosen)
+    found = sorted({r.units for r in records})
+    if chosen is None and len(found) > 1:
+        print(f"warpwise: note: the profiles are in {' and '.join(found)}; the table is in the "
+              f"{units} system (choose with --report-units)", file=sys.stderr)
+    return units
 
 
 def run_stress(args: argparse.Namespace) -> int:
     """``warpwise stress``: stresses for a torque, shear forces, axial force and moments."""
-    loads = _loads(args)
-    if not any((loads.T, loads.Vx, loads.Vy, loads.N, loads.Mx, loads.My)):
+    if not any(_loads(args).__dict__.values()):
         raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
                          "and/or --moment-y")
-    G = None
-    if args.shear_modulus is not None or args.youngs_modulus is not None:
-        G = shear_modulus(args.shear_modulus, args.youngs_modulus, args.poisson)
+    _given_modulus(args)  # a bad modulus is refused before the analysis
     result = _analyse_file(args.file, args, bounds=False)
+    loads, G = _in_profile_units(args, result)
     G = reference_shear_modulus(result, G)
     if loads.T != 0 and G is None:
         raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
                          "or E with Poisson's ratio")
+    units = args.report_units
     if result.composite or loads.N or loads.Mx or loads.My:
         c = combined_stress(result, loads, G)
-        text = combined_json(args.file, result, c, G) if args.json else \
-            combined_text(args.file, result, c)
+        text = combined_json(args.file, result, c, G, units) if args.json else \
+            combined_text(args.file, result, c, units)
     else:
         s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
-        text = shear_json(args.file, result, s, G) if args.json else \
-            shear_text(args.file, result, s, G)
+        text = shear_json(args.file, result, s, G, units) if args.json else \
+            shear_text(args.file, result, s, G, units)
     sys.stdout.write(text)
     return 0
 
@@ -132,10 +161,11 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     outcomes = run_catalogue(files, options, jobs=args.jobs, on_done=_Progress(len(files)))
     good = [o for o in outcomes if o.ok]
     bad = [o for o in outcomes if not o.ok]
+    units = _table_units([o.record for o in good], args.report_units) if good else "mm"
     if good and args.csv:
-        atomic_write(args.csv, csv_text([o.record for o in good], units=args.table_units))
+        atomic_write(args.csv, csv_text([o.record for o in good], units=units))
     if good and args.json:
-        atomic_write(args.json, json_text([o.record.in_units(args.table_units) for o in good]))
+        atomic_write(args.json, json_text([o.record.in_units(units) for o in good]))
     if args.html:
         from ..report.html import write_catalogue_index
 
@@ -159,15 +189,17 @@ def run_plot(args: argparse.Namespace) -> int:
     )
 
     result = _analyse_file(args.file, args, bounds=False)
+    loads, G = _in_profile_units(args, result)
     if args.show == "mesh":
         fig = figure_outline(result, show_mesh=True)
     elif args.show == "warping":
         fig = figure_warping(result)
     elif args.show == "torsion":
-        fig = figure_torsion(result, torsion_stress(result, args.torque or 1.0,
-                                                    args.shear_modulus))
+        torque = loads.T if loads.T else Loads(T=1.0).converted(
+            args.report_units or result.units, result.units).T
+        fig = figure_torsion(result, torsion_stress(result, torque, G))
     else:
-        fig = figure_combined(result, combined_stress(result, _loads(args), args.shear_modulus))
+        fig = figure_combined(result, combined_stress(result, loads, G))
     save_figure(fig, args.output)
     return 0
 

@@ -18,6 +18,7 @@ from ..properties.accuracy import ACCURACY_LEVELS
 from ..properties.run import AnalysisOptions
 from ..properties.shear import DEFAULT_POISSON
 from ..report.table import CAUTION
+from ..units import SYSTEMS
 
 
 class _Parser(argparse.ArgumentParser):
@@ -78,8 +79,18 @@ def _input_options(p: argparse.ArgumentParser, *, one_part: bool = True) -> None
                         "(default: tied to the mesh size)")
 
 
+def _report_options(p: argparse.ArgumentParser, *, loads: bool = False) -> None:
+    """The unit system of the outputs (and, with loads, of the loads and moduli given)."""
+    said = "; loads and moduli on the command line are in it too" if loads else ""
+    p.add_argument("--report-units", "--table-units", dest="report_units",
+                   choices=list(SYSTEMS), metavar="{" + ",".join(SYSTEMS) + "}",
+                   help="unit system of the report, named by its length unit: mm (N, MPa), "
+                        "cm (kN, kN/cm2), m (N, Pa), in (lbf, psi), ft (lbf, lbf/ft2); default "
+                        f"the drawing's (mm for several drawings in different units){said}")
+
+
 def _load_options(p: argparse.ArgumentParser) -> None:
-    """Section forces, in consistent units (N and N*mm with mm)."""
+    """Section forces, in the report's unit system (N and N*mm with mm)."""
     for flag, meta, text in (
             ("--torque", "T", "torque about the shear centre, force x length (N*mm with mm)"),
             ("--shear-x", "VX", "shear force along x through the shear centre (N with mm)"),
@@ -116,7 +127,7 @@ def _analysis_options(p: argparse.ArgumentParser, *, estimate: bool = False) -> 
 def _moduli_options(p: argparse.ArgumentParser, *, youngs: bool = True) -> None:
     """The shear modulus (or E with Poisson's ratio) of a section without a material."""
     p.add_argument("--shear-modulus", type=positive_float, metavar="G",
-                   help="shear modulus, force/length^2 (MPa with mm)")
+                   help="shear modulus, force/length^2 of the report's units (MPa with mm)")
     if youngs:
         p.add_argument("--youngs-modulus", type=positive_float, metavar="E",
                        help="Young's modulus (with --poisson), force/length^2")
@@ -133,6 +144,7 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")
     p.add_argument("--target-error", type=positive_float, metavar="TOL",
                    help="refine the mesh adaptively until J is certainly within TOL (relative)")
+    _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)
 
@@ -145,6 +157,7 @@ def _add_stress(sub: argparse._SubParsersAction) -> None:
     p.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
     _load_options(p)
     _moduli_options(p)
+    _report_options(p, loads=True)
     p.add_argument("--json", action="store_true", help="print JSON instead of text")
     _input_options(p)
     _analysis_options(p)
@@ -162,9 +175,7 @@ def _add_catalogue(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
-    p.add_argument("--table-units", choices=sorted(LENGTH_UNITS), default="mm",
-                   help="length unit of the table (profiles in other units are converted; "
-                        "default mm)")
+    _report_options(p)
     _input_options(p, one_part=False)
     _analysis_options(p, estimate=True)
 
@@ -178,6 +189,7 @@ def _add_plot(sub: argparse._SubParsersAction) -> None:
     p.add_argument("-o", "--output", required=True, metavar="OUT.png|OUT.svg")
     _load_options(p)
     _moduli_options(p, youngs=False)
+    _report_options(p, loads=True)
     _input_options(p)
     _analysis_options(p)
 

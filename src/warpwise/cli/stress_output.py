@@ -1,111 +1,158 @@
-"""Text and JSON of ``warpwise stress``: computed stresses formatted, nothing computed here."""
+"""Text and JSON of ``warpwise stress``: computed stresses formatted, nothing computed here.
+
+The stresses are computed in the profile's unit system; every number is converted here, with
+:func:`warpwise.units.convert`, to the report's unit system and printed under that system's unit.
+"""
 
 from __future__ import annotations
 
 import json
+from collections.abc import Callable
 
 from ..properties.analysis import SectionResult
-from ..report.quantities import FORCE_UNITS
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
+from ..units import FORCE, LENGTH, MOMENT, STRESS, TWIST, Dimension, convert, system, twist_in_degrees
 
 
-def force_units(length: str) -> tuple[str, str, str]:
-    """Force, moment and stress unit names for a length unit (consistent units assumed)."""
-    force, stress = FORCE_UNITS[length]
-    return force, f"{force}*{length}", stress
+class _View:
+    """Values of one result in the report's unit system, and their unit texts."""
+
+    def __init__(self, result: SectionResult, units: str | None) -> None:
+        self.source = result.units
+        self.units = units or result.units
+        self.system = system(self.units)
+
+    def __call__(self, value: float | None, dim: Dimension) -> float | None:
+        return None if value is None else convert(value, dim, self.source, self.units)
+
+    def point(self, xy) -> list[float]:
+        return [self(float(v), LENGTH) for v in xy]
+
+    def unit(self, dim: Dimension) -> str:
+        return self.system.text(dim)
+
+    def twist_deg(self, rate: float | None) -> float | None:
+        return None if rate is None else twist_in_degrees(self(rate, TWIST), self.units)
+
+    def names(self) -> dict[str, str]:
+        s = self.system
+        return {"length": s.length, "force": s.force, "moment": s.text(MOMENT),
+                "stress": s.stress, "twist_rate": s.text(TWIST),
+                "twist_rate_deg": f"deg/{s.long_length}"}
 
 
-def _units(result: SectionResult) -> dict[str, str]:
-    force, moment, stress = force_units(result.units)
-    return {"length": result.units, "force": force, "moment": moment, "stress": stress}
-
-
-def _row(width: int):
+def _row(width: int) -> Callable[[str, str, float, str], str]:
     def row(label: str, sym: str, v: float, unit: str) -> str:
         return f"  {label:<{width}} {sym:<9} {format_value(v):>14}  {unit}"
     return row
 
 
-def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None) -> str:
-    """JSON of the shear stresses from a torque and shear forces."""
+def _twist_rows(row, v: _View, rate: float | None) -> list[str]:
+    if rate is None:
+        return []
+    return [row("twist rate T/(G J)", "theta", v(rate, TWIST), v.unit(TWIST)),
+            row("twist rate, degrees", "theta", v.twist_deg(rate), f"deg/{v.system.long_length}")]
+
+
+def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None,
+               units: str | None = None) -> str:
+    """JSON of the shear stresses from a torque and shear forces, in the report's units.
+
+    ``G`` is in the profile's stress unit; ``units`` names the report's unit system (default
+    the profile's).
+    """
+    v = _View(result, units)
     obj = {
-        "file": file, "units": _units(result),
-        "torque": s.torque, "shear_x": s.vx, "shear_y": s.vy, "shear_modulus": G,
-        "poisson": result.shear.poisson, "J": result.torsion.J,
-        "shear_centre": list(result.torsion.shear_centre),
-        "tau_max": s.tau_max, "tau_max_at": list(s.tau_max_at),
-        "tau_max_torsion": s.tau_max_torsion, "tau_max_shear": s.tau_max_shear,
-        "twist_rate": s.twist_rate,
+        "file": file, "units": v.names(),
+        "torque": v(s.torque, MOMENT), "shear_x": v(s.vx, FORCE), "shear_y": v(s.vy, FORCE),
+        "shear_modulus": v(G, STRESS),
+        "poisson": result.shear.poisson, "J": v(result.torsion.J, Dimension(4)),
+        "shear_centre": v.point(result.torsion.shear_centre),
+        "tau_max": v(s.tau_max, STRESS), "tau_max_at": v.point(s.tau_max_at),
+        "tau_max_torsion": v(s.tau_max_torsion, STRESS),
+        "tau_max_shear": v(s.tau_max_shear, STRESS),
+        "twist_rate": v(s.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(s.twist_rate),
     }
     return json.dumps(obj, indent=2) + "\n"
 
 
-def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None) -> str:
-    """Readable table of the shear stresses from a torque and shear forces."""
-    L = result.units
-    force, moment, stress_unit = force_units(L)
+def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None,
+               units: str | None = None) -> str:
+    """Readable table of the shear stresses from a torque and shear forces (see shear_json)."""
+    v = _View(result, units)
+    L, stress = v.system.length, v.unit(STRESS)
     row = _row(38)
-    x, y = s.tau_max_at
-    xs, ys = result.torsion.shear_centre
-    lines = [f"Shear stresses in {file}  (length unit {L}; consistent units)",
+    x, y = v.point(s.tau_max_at)
+    xs, ys = v.point(result.torsion.shear_centre)
+    lines = [f"Shear stresses in {file}  (units {L}, {v.unit(FORCE)}, {stress})",
              f"  loads act through the shear centre ({format_value(xs)}, {format_value(ys)}) {L}",
-             row("torque", "T", s.torque, moment), row("shear force along x", "Vx", s.vx, force),
-             row("shear force along y", "Vy", s.vy, force)]
+             row("torque", "T", v(s.torque, MOMENT), v.unit(MOMENT)),
+             row("shear force along x", "Vx", v(s.vx, FORCE), v.unit(FORCE)),
+             row("shear force along y", "Vy", v(s.vy, FORCE), v.unit(FORCE))]
     if G is not None:
-        lines.append(row("shear modulus", "G", G, stress_unit))
-    lines.append(row("torsion constant", "J", result.torsion.J, f"{L}4"))
-    if s.twist_rate is not None:
-        lines.append(row("twist rate T/(G J)", "theta", s.twist_rate, f"rad/{L}"))
-    lines += [row("largest shear stress, torque alone", "tau_T", s.tau_max_torsion, stress_unit),
-              row("largest shear stress, forces alone", "tau_V", s.tau_max_shear, stress_unit),
-              row("largest combined shear stress", "tau_max", s.tau_max, stress_unit),
+        lines.append(row("shear modulus", "G", v(G, STRESS), stress))
+    lines.append(row("torsion constant", "J", v(result.torsion.J, Dimension(4)), f"{L}4"))
+    lines += _twist_rows(row, v, s.twist_rate)
+    lines += [row("largest shear stress, torque alone", "tau_T", v(s.tau_max_torsion, STRESS), stress),
+              row("largest shear stress, forces alone", "tau_V", v(s.tau_max_shear, STRESS), stress),
+              row("largest combined shear stress", "tau_max", v(s.tau_max, STRESS), stress),
               f"    at ({format_value(x)}, {format_value(y)}) {L}", "", f"  {CAUTION}", ""]
     return "\n".join(lines)
 
 
-def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float | None) -> str:
-    """JSON of the stresses under combined loads, per material."""
+def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float | None,
+                  units: str | None = None) -> str:
+    """JSON of the stresses under combined loads, per material, in the report's units."""
+    v = _View(result, units)
     loads = c.loads
     top = max(c.by_material, key=lambda m: m.von_mises_max)
     obj = {
-        "file": file, "units": _units(result),
-        "torque": loads.T, "shear_x": loads.Vx, "shear_y": loads.Vy, "axial": loads.N,
-        "moment_x": loads.Mx, "moment_y": loads.My, "shear_modulus": G, "J": result.torsion.J,
-        "shear_centre": list(result.torsion.shear_centre),
-        "tau_max": max(m.tau_max for m in c.by_material),
-        "tau_max_at": list(max(c.by_material, key=lambda m: m.tau_max).von_mises_at),
-        "twist_rate": c.twist_rate, "von_mises_max": top.von_mises_max,
-        "von_mises_max_at": list(top.von_mises_at),
-        "materials": [{"material": m.material, "sigma_max": m.sigma_max, "tau_max": m.tau_max,
-                       "von_mises_max": m.von_mises_max, "von_mises_at": list(m.von_mises_at),
-                       "fy": m.fy, "utilisation": m.utilisation} for m in c.by_material],
+        "file": file, "units": v.names(),
+        "torque": v(loads.T, MOMENT), "shear_x": v(loads.Vx, FORCE), "shear_y": v(loads.Vy, FORCE),
+        "axial": v(loads.N, FORCE), "moment_x": v(loads.Mx, MOMENT), "moment_y": v(loads.My, MOMENT),
+        "shear_modulus": v(G, STRESS), "J": v(result.torsion.J, Dimension(4)),
+        "shear_centre": v.point(result.torsion.shear_centre),
+        "tau_max": v(max(m.tau_max for m in c.by_material), STRESS),
+        "tau_max_at": v.point(max(c.by_material, key=lambda m: m.tau_max).von_mises_at),
+        "twist_rate": v(c.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(c.twist_rate),
+        "von_mises_max": v(top.von_mises_max, STRESS),
+        "von_mises_max_at": v.point(top.von_mises_at),
+        "materials": [{"material": m.material, "sigma_max": v(m.sigma_max, STRESS),
+                       "tau_max": v(m.tau_max, STRESS), "von_mises_max": v(m.von_mises_max, STRESS),
+                       "von_mises_at": v.point(m.von_mises_at), "fy": v(m.fy, STRESS),
+                       "utilisation": m.utilisation} for m in c.by_material],
     }
     return json.dumps(obj, indent=2) + "\n"
 
 
-def combined_text(file: str, result: SectionResult, c: CombinedStress) -> str:
-    """Readable table of the stresses under combined loads, per material."""
-    loads, L = c.loads, result.units
-    force, moment, stress_unit = force_units(L)
+def combined_text(file: str, result: SectionResult, c: CombinedStress,
+                  units: str | None = None) -> str:
+    """Readable table of the stresses under combined loads, per material (see combined_json)."""
+    v = _View(result, units)
+    loads, L = c.loads, v.system.length
+    force, moment, stress = v.unit(FORCE), v.unit(MOMENT), v.unit(STRESS)
     row = _row(40)
-    xs, ys = result.torsion.shear_centre
-    lines = [f"Stresses in {file}  (length unit {L}; consistent units)",
+    xs, ys = v.point(result.torsion.shear_centre)
+    lines = [f"Stresses in {file}  (units {L}, {force}, {stress})",
              f"  shear forces and torque act through the shear centre ({format_value(xs)}, "
              f"{format_value(ys)}) {L}; N through the centroid",
-             row("axial force", "N", loads.N, force), row("moment about x", "Mx", loads.Mx, moment),
-             row("moment about y", "My", loads.My, moment), row("shear force along x", "Vx", loads.Vx, force),
-             row("shear force along y", "Vy", loads.Vy, force), row("torque", "T", loads.T, moment)]
-    if c.twist_rate is not None:
-        lines.append(row("twist rate T/(G J)", "theta", c.twist_rate, f"rad/{L}"))
+             row("axial force", "N", v(loads.N, FORCE), force),
+             row("moment about x", "Mx", v(loads.Mx, MOMENT), moment),
+             row("moment about y", "My", v(loads.My, MOMENT), moment),
+             row("shear force along x", "Vx", v(loads.Vx, FORCE), force),
+             row("shear force along y", "Vy", v(loads.Vy, FORCE), force),
+             row("torque", "T", v(loads.T, MOMENT), moment)]
+    lines += _twist_rows(row, v, c.twist_rate)
     for m in c.by_material:
+        x, y = v.point(m.von_mises_at)
         lines += ["", f"  {m.material or 'section'}",
-                  row("largest normal stress |sigma_z|", "sigma", m.sigma_max, stress_unit),
-                  row("largest shear stress", "tau", m.tau_max, stress_unit),
-                  row("largest von Mises stress", "sigma_vm", m.von_mises_max, stress_unit),
-                  f"    at ({format_value(m.von_mises_at[0])}, {format_value(m.von_mises_at[1])}) {L}"]
+                  row("largest normal stress |sigma_z|", "sigma", v(m.sigma_max, STRESS), stress),
+                  row("largest shear stress", "tau", v(m.tau_max, STRESS), stress),
+                  row("largest von Mises stress", "sigma_vm", v(m.von_mises_max, STRESS), stress),
+                  f"    at ({format_value(x)}, {format_value(y)}) {L}"]
         if m.utilisation is not None:
             lines.append(row("von Mises / fy (informative, not a code check)", "u", m.utilisation, "-"))
-    lines += [f"  note: {corner_note(corner, L)}" for corner in result.corners]
+    lines += [f"  note: {corner_note(corner, result.units)}" for corner in result.corners]
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)

@@ -31,6 +31,7 @@ from shapely.geometry import MultiPolygon, Polygon
 from shapely.validation import explain_validity
 
 from ..errors import ProfileError
+from ..units import LENGTH_UNITS
 from .loops import (
     check_no_crossings,
     check_points,
@@ -39,9 +40,6 @@ from .loops import (
     signed_area,
     where_from_shapely,
 )
-
-#: Length units understood everywhere, with their size in millimetres.
-LENGTH_UNITS: dict[str, float] = {"mm": 1.0, "cm": 10.0, "m": 1000.0, "in": 25.4}
 
 #: Default largest element size as a fraction of sqrt(A) (J of a square within 2e-4 at this
 #: size); the mesher's default and the DXF reader's default chord tolerance both follow it.

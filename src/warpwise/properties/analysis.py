@@ -154,16 +154,21 @@ def element_materials(profile: Profile, mesh: Mesh, poisson: float,
     -------
     ElementMaterials
     """
-    if materials is None or isinstance(materials, Material):
-        return ElementMaterials.single(mesh.n_elements, poisson, materials)
+    if materials is None:
+        return ElementMaterials.single(mesh.n_elements, poisson, None)
+    # the one place a material meets a profile: its values into the profile's unit system
+    if isinstance(materials, Material):
+        return ElementMaterials.single(mesh.n_elements, poisson,
+                                       materials.in_system(profile.units))
     if len(materials) != len(profile.regions):
         raise AnalysisError(f"{len(materials)} materials given for {len(profile.regions)} "
                             "regions", file=profile.source)
-    return ElementMaterials.from_regions(mesh.region, list(materials), reference)
+    return ElementMaterials.from_regions(
+        mesh.region, [m.in_system(profile.units) for m in materials], reference)
 
 
 def _region_strengths(profile: Profile, mats: ElementMaterials) -> list[float | None] | None:
-    """Yield strength of each region's material, MPa (None without materials)."""
+    """Yield strength of each region's material, the profile's stress unit (None without materials)."""
     if not mats.materials:
         return None
     region_mats = (list(mats.materials) if len(mats.materials) == len(profile.regions)

@@ -18,6 +18,7 @@ import numpy as np
 from ..errors import UsageError
 from ..properties.analysis import SectionResult
 from ..stress import TorsionStress
+from ..units import system
 from .files import atomic_write
 from .html_parts import (
     caution_box,
@@ -34,7 +35,7 @@ from .plot_files import svg_text
 from .plot_parts import profile_name
 from .plot_section import figure_outline, figure_warping
 from .plot_stress import figure_torsion
-from .quantities import FORCE_UNITS, QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values
+from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values
 from .table import corner_note
 
 #: Symbols used in the pictures and the torsion summary (not in the property list).
@@ -51,7 +52,7 @@ PICTURE_SYMBOLS = (
 
 
 def _unit_of_kind(kind: str, length: str) -> str:
-    force, stress = FORCE_UNITS[length]
+    force, stress = system(length).force, system(length).stress
     return {"moment": f"{force}*{length}", "stress": stress, "twist": f"rad/{length}",
             "area": f"{length}2"}[kind]
 
@@ -77,7 +78,7 @@ def _property_rows(result: SectionResult, v: dict[str, float]) -> tuple[str, lis
                  f'<td class="num">{number_html(value)}</td>',
                  f'<td class="unit">{unit_html(unit_of(q, result.units))}</td>']
         if with_errors:
-            err = error_of(result, q.key)
+            err = error_of(result.errors, q.key)
             cells.append(f'<td class="num">{"" if err is None else percent(err)}</td>')
         rows.append(f'<tr data-key="{escape(q.key)}">{"".join(cells)}</tr>')
     if group is not None:
@@ -156,7 +157,7 @@ def _layout(result: SectionResult) -> tuple[str, float]:
 def _torsion_rows(result: SectionResult, torsion: TorsionStress) -> list[tuple[str, str, str, str]]:
     """(label, symbol, value, unit) rows of the torsion values, HTML."""
     u = result.units
-    force, stress = FORCE_UNITS[u]
+    force, stress = system(u).force, system(u).stress
     T, top, at = torsion.torque, torsion.tau_max, torsion.tau_max_at
     rows = [("Torque", "T", number_html(T), unit_html(f"{force}*{u}")),
             ("Largest shear stress", "tau_max", number_html(top, 5), unit_html(stress)),
@@ -181,7 +182,7 @@ def _torsion_rows(result: SectionResult, torsion: TorsionStress) -> list[tuple[s
 def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torque: bool) -> str:
     layout, width = _layout(result)
     svg = svg_text(figure_torsion(result, torsion, width=width), "torsion-")
-    moment = unit_html(f"{FORCE_UNITS[result.units][0]}*{result.units}")
+    moment = unit_html(f"{system(result.units).force}*{result.units}")
     T = number_html(torsion.torque)
     if nominal_torque:
         caption = (f"Resultant shear stress \u03c4 for a nominal torque T = {T} {moment}. Stresses "
@@ -241,7 +242,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     name = profile_name(result)
     heading = title or name
     u = result.units
-    force, stress = FORCE_UNITS[u]
+    force, stress = system(u).force, system(u).stress
     v = values(result)
     meta = [f"Section properties of {escape(name)}",
             f"length {escape(u)}, force {escape(force)}, stress {escape(stress)}"]

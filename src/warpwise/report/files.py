@@ -17,8 +17,9 @@ from typing import Any
 from ..errors import UsageError
 from ..properties.accuracy import ERROR_KEYS
 from ..properties.analysis import SectionResult
-from .quantities import FORCE_UNITS, QUANTITIES, unit_of
-from .records import Record, record_of
+from ..units import MOMENT, system
+from .quantities import QUANTITIES, unit_of
+from .records import Record, record_of, report_units
 
 #: Columns of estimated relative errors, in this order, when any result has an estimate.
 
@@ -73,10 +74,11 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     """
     rec = item if isinstance(item, Record) else record_of(item)
     v = rec.values
-    force, stress = FORCE_UNITS[rec.units]
+    u = system(rec.units)
     obj: dict[str, Any] = {"file": rec.source, "units": {"length": rec.units}}
     if rec.materials:
-        obj["units"].update({"force": force, "stress": stress, "mass": "kg/m"})
+        obj["units"].update({"force": u.force, "stress": u.stress, "moment": u.text(MOMENT),
+                             "mass": u.linear_mass})
         obj["materials"] = list(rec.materials)
         obj["reference_material"] = rec.reference
     for q in QUANTITIES:
@@ -114,12 +116,13 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     items : list of SectionResult or Record
         The profiles, in row order.
     units : str, optional
-        Length unit of the table; default the unit of the first profile (others converted).
+        Unit system of the table (see :func:`~warpwise.report.records.report_units` for the
+        default); every row is converted to it.
     """
     recs = [r if isinstance(r, Record) else record_of(r) for r in items]
     if not recs:
         raise UsageError("no profile to write")
-    length = units or recs[0].units
+    length = report_units([r.units for r in recs], units)
     recs = [r.in_units(length) for r in recs]
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")

@@ -20,7 +20,7 @@ from matplotlib.tri import Triangulation
 
 from ..mesh.edges import mesh_edges
 from ..properties.analysis import SectionResult
-from .quantities import FORCE_UNITS
+from ..units import system
 
 #: Fill colours of the materials (regions of the first material take the first colour).
 MATERIAL_COLOURS = ("#a9c4dc", "#e2c48a", "#b4d6a6", "#d9aab0", "#c6b8dc", "#bfc7cf")
@@ -126,7 +126,7 @@ def profile_name(result: SectionResult) -> str:
 
 def stress_unit(result: SectionResult) -> str:
     """Stress unit that goes with the result's length unit (MPa with mm)."""
-    return FORCE_UNITS[result.units][1]
+    return system(result.units).stress
 
 
 def fmt(v: float) -> str:

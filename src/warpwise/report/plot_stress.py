@@ -19,8 +19,8 @@ from ..errors import UsageError
 from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult
 from ..stress import CombinedStress, Loads, MaterialField, TorsionStress
+from ..units import system
 from . import plot_parts as parts
-from .quantities import FORCE_UNITS
 
 #: Stress pictures :func:`figure_combined` draws: stress field attribute and axis label.
 COMBINED_QUANTITIES = {
@@ -111,7 +111,7 @@ def _draw_corners(ax: object, corners: Sequence[Corner]) -> list[Line2D]:
 
 
 def _loads_text(loads: Loads, result: SectionResult) -> str:
-    force = FORCE_UNITS[result.units][0]
+    force = system(result.units).force
     units = {"N": force, "Vx": force, "Vy": force, "Mx": f"{force}*{result.units}",
              "My": f"{force}*{result.units}", "T": f"{force}*{result.units}"}
     shown = [f"{k} = {parts.fmt(getattr(loads, k))} {units[k]}" for k in ("N", "Mx", "My", "Vx", "Vy", "T")
@@ -159,7 +159,7 @@ def figure_torsion(result: SectionResult, stress: TorsionStress, *, width: float
         parts.mark_shear_centre(ax, result),
     ]
     parts.colour_bar(fig, ax, fill, f"resultant shear stress tau ({unit})")
-    force = FORCE_UNITS[L][0]
+    force = system(L).force
     title = (f"{parts.profile_name(result)}: torsion shear stress for "
              f"T = {parts.fmt(stress.torque)} {force}*{L}")
     if stress.twist_rate is not None:

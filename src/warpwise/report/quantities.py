@@ -6,11 +6,13 @@ one place. ``power`` is the exponent of the length unit L (0 for angles and coun
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
 from typing import Any
 
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
+from ..units import ANGLE, AREA, DENSITY, FORCE, LINEAR_MASS, STRESS, Dimension, system
 
 
 @dataclass(frozen=True)
@@ -32,8 +34,9 @@ class Quantity:
     definition : str
         Definition or formula, for the glossary.
     kind : str
-        ``length`` (unit L^power), or a force-based unit: ``force`` (N), ``stiffness``
-        (N L^power), ``moment`` (N L), ``stress`` (N/L^2), ``mass`` (kg/m).
+        ``length`` (unit L^power), or a force-based unit: ``force`` (F), ``stiffness``
+        (F L^power), ``moment`` (F L), ``stress`` (F/L^2), ``mass`` (mass per length, kg/m or
+        lb/ft); the units are those of the unit system (:mod:`warpwise.units`).
 
     """
 
@@ -44,6 +47,19 @@ class Quantity:
     group: str
     definition: str
     kind: str = "length"
+
+    @property
+    def dimension(self) -> Dimension:
+        """What the quantity measures, for unit texts and conversions (:mod:`warpwise.units`)."""
+        if self.kind == "length":
+            return ANGLE if self.power == DEG else Dimension(self.power)
+        if self.kind == "force":
+            return FORCE
+        if self.kind == "stress":
+            return STRESS
+        if self.kind == "mass":
+            return LINEAR_MASS
+        return Dimension(self.power, 1)  # stiffness and moment: force x length^power
 
 
 DEG = -1  # marker: the unit is degrees
@@ -159,27 +175,9 @@ QUANTITIES: tuple[Quantity, ...] = tuple(
 QUANTITY_BY_KEY = {q.key: q for q in QUANTITIES}
 
 
-#: Force, moment and stress units that go with each length unit (consistent units).
-FORCE_UNITS = {"mm": ("N", "MPa"), "cm": ("N", "N/cm2"), "m": ("N", "Pa"), "in": ("lbf", "psi")}
-
-
 def unit_of(q: Quantity, length: str) -> str:
-    """Unit text of a quantity for a length unit, e.g. ``mm4``; ``deg`` for angles."""
-    force, stress = FORCE_UNITS[length]
-    lp = length if q.power == 1 else f"{length}{q.power}"
-    if q.kind == "force":
-        return force
-    if q.kind == "stress":
-        return stress
-    if q.kind in ("stiffness", "moment"):
-        return f"{force}*{lp}"
-    if q.kind == "mass":
-        return "kg/m"
-    if q.power == DEG:
-        return "deg"
-    if q.power == 0:
-        return "-"
-    return length if q.power == 1 else f"{length}{q.power}"
+    """Unit text of a quantity in the unit system of a length unit, e.g. ``mm4``, ``deg``."""
+    return system(length).text(q.dimension)
 
 
 def values(result: SectionResult) -> dict[str, float]:
@@ -231,13 +229,16 @@ def _material_values(result: SectionResult) -> dict[str, float]:
         return dict.fromkeys(keys, nan)
     t, tor, pl = result.weighted, result.torsion, result.plastic
     E, G = m.E_ref, m.G_ref
-    metre = {"mm": 1e-3, "cm": 1e-2, "m": 1.0, "in": 0.0254}[result.units]
+    units = system(result.units)
     regions = result.profile.regions
     mats = list(m.materials) if len(m.materials) == len(regions) else [m.materials[0]] * len(regions)
     if all(x.density is not None for x in mats):
-        # areas of the meshed regions (curved edges included), not of the polygons
+        # areas of the meshed regions (curved edges included), not of the polygons; kg/m, then
+        # the unit system's mass per length
         area = result.region_areas
-        mass = float(sum(x.density * a * metre**2 for x, a in zip(mats, area, strict=True)))
+        kg_per_m = sum(units.to_si(x.density, DENSITY) * units.to_si(a, AREA)
+                       for x, a in zip(mats, area, strict=True))
+        mass = units.from_si(float(kg_per_m), LINEAR_MASS)
     else:
         mass = nan
     return {
@@ -249,8 +250,8 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     }
 
 
-def error_of(result: SectionResult, key: str) -> float | None:
-    """Estimated relative error of a quantity, or None when not estimated."""
-    if result.errors is None or key not in ERROR_OF_QUANTITY:
+def error_of(errors: Mapping[str, float] | None, key: str) -> float | None:
+    """Estimated relative error of a quantity from a result's ``errors``, or None."""
+    if errors is None or key not in ERROR_OF_QUANTITY:
         return None
-    return result.errors.get(ERROR_OF_QUANTITY[key])
+    return errors.get(ERROR_OF_QUANTITY[key])

@@ -8,9 +8,9 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 
-from ..geometry.profile import LENGTH_UNITS
 from ..properties.analysis import SectionResult
-from .quantities import DEG, QUANTITIES, values
+from ..units import LENGTH, convert
+from .quantities import QUANTITIES, values
 from .table import corner_note
 
 
@@ -23,7 +23,7 @@ class Record:
     source : str
         File or description of the profile.
     units : str
-        Length unit of the values.
+        Unit system of the values (named by its length unit, :data:`warpwise.units.SYSTEMS`).
     values : dict of str to float
         Every quantity of :data:`~warpwise.report.quantities.QUANTITIES` (nan: not computed).
     errors : dict of str to float or None
@@ -53,7 +53,7 @@ class Record:
     extra: dict[str, float] = field(default_factory=dict)
 
     def in_units(self, length: str) -> Record:
-        """The same record with lengths converted to ``length`` (force unit unchanged).
+        """The same record in the unit system of ``length`` (every value converted).
 
         Examples
         --------
@@ -63,18 +63,10 @@ class Record:
         """
         if length == self.units:
             return self
-        f = LENGTH_UNITS[self.units] / LENGTH_UNITS[length]
-        out = {}
-        for q in QUANTITIES:
-            v = self.values[q.key]
-            if q.kind == "stress":
-                v = v * f**-2
-            elif q.kind in ("force", "mass") or q.power in (0, DEG):
-                pass
-            else:
-                v = v * f**q.power
-            out[q.key] = v
-        return replace(self, units=length, values=out, mesh_size=self.mesh_size * f)
+        out = {q.key: convert(self.values[q.key], q.dimension, self.units, length)
+               for q in QUANTITIES}
+        return replace(self, units=length, values=out,
+                       mesh_size=convert(self.mesh_size, LENGTH, self.units, length))
 
 
 def record_of(result: SectionResult) -> Record:
@@ -88,3 +80,34 @@ def record_of(result: SectionResult) -> Record:
         notes=tuple(notes), materials=tuple(m.names) if m.E_ref is not None else (),
         reference=m.reference,
     )
+
+
+#: Unit system of a report over profiles of several unit systems when none is chosen.
+MIXED_DEFAULT = "mm"
+
+
+def report_units(profile_units: list[str], chosen: str | None = None) -> str:
+    """The unit system of a report over profiles: the chosen one, else the profiles' own.
+
+    Parameters
+    ----------
+    profile_units : list of str
+        Unit system of each profile.
+    chosen : str, optional
+        The reader's choice (``--report-units``).
+
+    Returns
+    -------
+    str
+        ``chosen`` if given; else the profiles' common system; for profiles in several systems
+        :data:`MIXED_DEFAULT` (every header and row says its unit, and rows are converted).
+
+    Examples
+    --------
+    >>> report_units(["in", "in"]), report_units(["in", "mm"]), report_units(["mm"], "cm")
+    ('in', 'mm', 'cm')
+    """
+    if chosen is not None:
+        return chosen
+    found = set(profile_units)
+    return found.pop() if len(found) == 1 else MIXED_DEFAULT

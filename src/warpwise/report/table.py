@@ -2,11 +2,16 @@
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 import numpy as np
 
 from ..geometry.corners import Corner
-from ..properties.analysis import SectionResult
-from .quantities import QUANTITIES, error_of, unit_of, values
+from ..units import system
+from .quantities import QUANTITIES, error_of, unit_of
+
+if TYPE_CHECKING:
+    from .records import Record
 
 CAUTION = ("Results support, and never replace, a check of the member to the applicable design "
            "code by a qualified engineer.")
@@ -59,21 +64,26 @@ def corner_note(corner: Corner, length: str) -> str:
             "give the fillet radius for a real value")
 
 
-def property_table(result: SectionResult) -> str:
-    """The full property table of one result as text, grouped, with symbols and units.
+def property_table(rec: Record) -> str:
+    """The full property table of one profile as text, grouped, with symbols and units.
+
+    Parameters
+    ----------
+    rec : Record
+        The profile's values, in the unit system they are printed in (``rec.units``; see
+        :meth:`~warpwise.report.records.Record.in_units`).
 
     With an error estimate, a last column gives the estimated relative error of each value
     (for shear-centre coordinates: relative to the profile's size).
     """
-    v = values(result)
-    unit = result.units
+    v = rec.values
+    unit = rec.units
     lines = [
-        f"Section properties of {result.profile.source}",
-        f"  length unit {unit}; mesh of {result.mesh.n_elements} six-node triangles, "
-        f"{result.mesh.n_nodes} nodes, largest element size {result.mesh.size:.3g} {unit}",
+        f"Section properties of {rec.source}",
+        f"  unit system {system_text(unit)}; mesh of {rec.elements} six-node triangles, "
+        f"{rec.nodes} nodes, largest element size {rec.mesh_size:.3g} {unit}",
     ]
-    lines += [f"  note: {n}" for n in result.profile.notes]
-    lines += [f"  note: {corner_note(c, unit)}" for c in result.corners]
+    lines += [f"  note: {n}" for n in rec.notes]
     group = None
     for q in QUANTITIES:
         if np.isnan(v[q.key]):
@@ -82,13 +92,25 @@ def property_table(result: SectionResult) -> str:
             group = q.group
             lines.append("")
             head = f"  {group}"
-            if result.errors is not None:
+            if rec.errors is not None:
                 head = f"{head:<82}est. rel. error"
             lines.append(head)
         row = f"    {q.label:<50} {q.symbol:<9} {format_value(v[q.key]):>14}  {unit_of(q, unit):<5}"
-        err = error_of(result, q.key)
+        err = error_of(rec.errors, q.key)
         if err is not None:
             row += f" {err:9.1e}"
         lines.append(row.rstrip())
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)
+
+
+def system_text(units: str) -> str:
+    """One phrase naming a unit system's units, e.g. ``mm, N, MPa, kg/m``.
+
+    Examples
+    --------
+    >>> system_text("in")
+    'in, lbf, psi, lb/ft'
+    """
+    s = system(units)
+    return f"{s.length}, {s.force}, {s.stress}, {s.linear_mass}"

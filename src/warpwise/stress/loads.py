@@ -1,6 +1,6 @@
 """Section forces and the shear modulus that turns a torque into a twist.
 
-Loads (any subset), in consistent units (N, N*mm with mm):
+Loads (any subset), in the profile's unit system (N and N*mm with mm; see :mod:`warpwise.units`):
 
 - N: axial force, positive in tension, through the modulus-weighted centroid;
 - Mx: bending moment about the x axis, positive when it puts fibres at +y in tension;
@@ -26,6 +26,7 @@ import numpy as np
 
 from ..errors import UsageError
 from ..materials import check_poisson
+from ..units import FORCE, MOMENT, convert
 
 #: What a load needs when no material is known (the one wording, used everywhere).
 NEEDS_MATERIAL = "a torque needs a material: give the shear modulus G, or E with Poisson's ratio"
@@ -63,6 +64,23 @@ class Loads:
         if unknown:
             raise UsageError(f"unknown load {sorted(unknown)[0]!r} (use N, Mx, My, Vx, Vy, T)")
         return cls(**{k: float(v) for k, v in loads.items()})
+
+    def converted(self, source: str, target: str) -> Loads:
+        """The same loads from one unit system to another (:mod:`warpwise.units`).
+
+        Examples
+        --------
+        >>> Loads(T=1.0, Vx=1.0).converted("cm", "mm")  # kN*cm, kN to N*mm, N
+        Loads(N=0.0, Mx=0.0, My=0.0, Vx=1000.0, Vy=0.0, T=10000.0)
+        """
+        def force(v: float) -> float:
+            return convert(v, FORCE, source, target)
+
+        def moment(v: float) -> float:
+            return convert(v, MOMENT, source, target)
+
+        return Loads(N=force(self.N), Mx=moment(self.Mx), My=moment(self.My),
+                     Vx=force(self.Vx), Vy=force(self.Vy), T=moment(self.T))
 
     def check(self) -> None:
         """Raise a UsageError for a non-finite load or no load at all."""
