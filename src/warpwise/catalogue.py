@@ -41,11 +41,15 @@ class RunOptions:
         How each profile is analysed (accuracy, materials, solver, estimates).
     datasheet_dir : str or None
         Folder for an HTML datasheet per profile (written by the worker).
+    report_units : str or None
+        Unit system of the datasheets (:data:`warpwise.units.SYSTEMS`); default each
+        profile's own.
     """
 
     read: ReadOptions = field(default_factory=ReadOptions)
     analysis: AnalysisOptions = field(default_factory=AnalysisOptions)
     datasheet_dir: str | None = None
+    report_units: str | None = None
 
 
 @dataclass(frozen=True)
@@ -120,10 +124,13 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
         if options.datasheet_dir:
             from .report.html import thumbnail_svg, write_datasheet
             from .stress import torsion_stress
+            from .units import MOMENT, convert
 
+            shown = options.report_units or result.units
+            unit_torque = convert(1.0, MOMENT, shown, result.units)  # 1 in the page's units
             sheet = str(write_datasheet(result, options.datasheet_dir,
-                                        torsion=torsion_stress(result, 1.0), nominal_torque=True,
-                                        filename=sheet_name))
+                                        torsion=torsion_stress(result, unit_torque),
+                                        nominal_torque=True, filename=sheet_name, units=shown))
             thumb = thumbnail_svg(result)
         return Outcome(path, record_of(result), None, time.perf_counter() - start, sheet, thumb)
     except WarpwiseError as exc:

@@ -260,3 +260,48 @@ def twist_in_degrees(rate: float, units: str) -> float:
     """
     s = system(units)
     return math.degrees(rate) / s.metre * s.long_metre
+
+
+@dataclass(frozen=True)
+class Converter:
+    """Values of one profile's unit system shown in a report's unit system.
+
+    Attributes
+    ----------
+    source : str
+        Unit system the values are in (the profile's).
+    target : str
+        Unit system they are shown in (the report's).
+
+    Examples
+    --------
+    >>> show = Converter("mm", "cm")
+    >>> show(2.0e4, Dimension(4)), show.unit(Dimension(4)), show(None, LENGTH)
+    (2.0, 'cm4', None)
+    """
+
+    source: str
+    target: str
+
+    @classmethod
+    def of(cls, source: str, target: str | None) -> Converter:
+        """A converter to ``target``, or to ``source`` itself when no target is chosen."""
+        system(source)
+        return cls(source, system(target or source).length)
+
+    @property
+    def system(self) -> UnitSystem:
+        """The target unit system."""
+        return system(self.target)
+
+    def __call__(self, value, dim: Dimension):
+        """``value`` (a float, an array or None) in the target system."""
+        return None if value is None else convert(value, dim, self.source, self.target)
+
+    def unit(self, dim: Dimension) -> str:
+        """Unit text of ``dim`` in the target system."""
+        return self.system.text(dim)
+
+    def point(self, xy) -> list[float]:
+        """A point (x, y) in the target length unit."""
+        return [float(self(float(v), LENGTH)) for v in xy]

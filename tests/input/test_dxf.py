@@ -269,9 +269,9 @@ def test_unknown_units_assume_mm_once(tmp_path):
         assert sum("millimetres assumed" in n for n in p.notes) == 1
 
 
-def test_feet_are_converted_to_inches(tmp_path):
+def test_feet_stay_feet(tmp_path):
     p = read_dxf(bar(tmp_path, 2))
-    assert p.units == "in" and p.area == pytest.approx(4.0 * 144, rel=1e-12)
+    assert p.units == "ft" and p.area == pytest.approx(4.0, rel=1e-12)
 
 
 # --- layers, non-geometry, blocks -------------------------------------------------------------

@@ -157,7 +157,7 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     options = RunOptions(read=read_options(args), analysis=analysis_options(args))
     if args.html:
         Path(args.html).mkdir(parents=True, exist_ok=True)
-        options = replace(options, datasheet_dir=args.html)
+        options = replace(options, datasheet_dir=args.html, report_units=args.report_units)
     outcomes = run_catalogue(files, options, jobs=args.jobs, on_done=_Progress(len(files)))
     good = [o for o in outcomes if o.ok]
     bad = [o for o in outcomes if not o.ok]
@@ -169,7 +169,7 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     if args.html:
         from ..report.html import write_catalogue_index
 
-        write_catalogue_index(outcomes, args.html)
+        write_catalogue_index(outcomes, args.html, units)
     seconds = sum(o.seconds for o in outcomes)
     print(f"{len(good)} of {len(outcomes)} profiles analysed ({seconds:.1f} s of analysis)",
           file=sys.stderr)
@@ -191,15 +191,16 @@ def run_plot(args: argparse.Namespace) -> int:
     result = _analyse_file(args.file, args, bounds=False)
     loads, G = _in_profile_units(args, result)
     if args.show == "mesh":
-        fig = figure_outline(result, show_mesh=True)
+        fig = figure_outline(result, show_mesh=True, units=args.report_units)
     elif args.show == "warping":
-        fig = figure_warping(result)
+        fig = figure_warping(result, units=args.report_units)
     elif args.show == "torsion":
         torque = loads.T if loads.T else Loads(T=1.0).converted(
             args.report_units or result.units, result.units).T
-        fig = figure_torsion(result, torsion_stress(result, torque, G))
+        fig = figure_torsion(result, torsion_stress(result, torque, G), units=args.report_units)
     else:
-        fig = figure_combined(result, combined_stress(result, loads, G))
+        fig = figure_combined(result, combined_stress(result, loads, G),
+                              units=args.report_units)
     save_figure(fig, args.output)
     return 0
 

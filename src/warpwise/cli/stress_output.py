@@ -12,28 +12,14 @@ from collections.abc import Callable
 from ..properties.analysis import SectionResult
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
-from ..units import FORCE, LENGTH, MOMENT, STRESS, TWIST, Dimension, convert, system, twist_in_degrees
+from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
 
 
-class _View:
+class _View(Converter):
     """Values of one result in the report's unit system, and their unit texts."""
 
-    def __init__(self, result: SectionResult, units: str | None) -> None:
-        self.source = result.units
-        self.units = units or result.units
-        self.system = system(self.units)
-
-    def __call__(self, value: float | None, dim: Dimension) -> float | None:
-        return None if value is None else convert(value, dim, self.source, self.units)
-
-    def point(self, xy) -> list[float]:
-        return [self(float(v), LENGTH) for v in xy]
-
-    def unit(self, dim: Dimension) -> str:
-        return self.system.text(dim)
-
     def twist_deg(self, rate: float | None) -> float | None:
-        return None if rate is None else twist_in_degrees(self(rate, TWIST), self.units)
+        return None if rate is None else twist_in_degrees(self(rate, TWIST), self.target)
 
     def names(self) -> dict[str, str]:
         s = self.system
@@ -62,7 +48,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
     ``G`` is in the profile's stress unit; ``units`` names the report's unit system (default
     the profile's).
     """
-    v = _View(result, units)
+    v = _View.of(result.units, units)
     obj = {
         "file": file, "units": v.names(),
         "torque": v(s.torque, MOMENT), "shear_x": v(s.vx, FORCE), "shear_y": v(s.vy, FORCE),
@@ -80,7 +66,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
 def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None,
                units: str | None = None) -> str:
     """Readable table of the shear stresses from a torque and shear forces (see shear_json)."""
-    v = _View(result, units)
+    v = _View.of(result.units, units)
     L, stress = v.system.length, v.unit(STRESS)
     row = _row(38)
     x, y = v.point(s.tau_max_at)
@@ -104,7 +90,7 @@ def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None
 def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float | None,
                   units: str | None = None) -> str:
     """JSON of the stresses under combined loads, per material, in the report's units."""
-    v = _View(result, units)
+    v = _View.of(result.units, units)
     loads = c.loads
     top = max(c.by_material, key=lambda m: m.von_mises_max)
     obj = {
@@ -129,7 +115,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
 def combined_text(file: str, result: SectionResult, c: CombinedStress,
                   units: str | None = None) -> str:
     """Readable table of the stresses under combined loads, per material (see combined_json)."""
-    v = _View(result, units)
+    v = _View.of(result.units, units)
     loads, L = c.loads, v.system.length
     force, moment, stress = v.unit(FORCE), v.unit(MOMENT), v.unit(STRESS)
     row = _row(40)

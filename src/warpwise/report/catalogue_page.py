@@ -26,8 +26,9 @@ from .html_parts import (
     unit_html,
 )
 from .plot_parts import profile_name
-from .quantities import QUANTITY_BY_KEY, unit_of, values
-from .records import Record
+from .quantities import QUANTITY_BY_KEY, unit_of
+from .records import Record, record_of
+from .table import system_text
 
 #: Key values shown in the catalogue index, in this order.
 INDEX_KEYS = ("A", "Ix", "Iy", "I1", "I2", "alpha_deg", "J", "Cw", "xs", "ys")
@@ -80,7 +81,8 @@ def thumbnail_svg(result: SectionResult) -> str:
             f'fill-rule="evenodd" vector-effect="non-scaling-stroke">{"".join(paths)}</svg>')
 
 
-def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catalogue") -> str:
+def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catalogue",
+               units: str | None = None) -> str:
     """A catalogue page: each profile with a link to its datasheet and its key values.
 
     Parameters
@@ -90,28 +92,31 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
         error message.
     title : str
         Heading of the page.
+    units : str, optional
+        Unit system of every row (:data:`warpwise.units.SYSTEMS`); default each profile's own.
 
     Returns
     -------
     str
-        Self-contained HTML5 page. When all profiles share one length unit the units are in
+        Self-contained HTML5 page. When all rows share one unit system the units are in
         the column headings, otherwise beside every value.
 
     """
     done = [e for e in entries if e.result is not None or e.record is not None]
     failed = [e for e in entries if e.result is None and e.record is None]
-    units = {(e.result.units if e.result is not None else e.record.units) for e in done}
-    common = units.pop() if len(units) == 1 else None
+    records = [record_of(e.result) if e.result is not None else e.record for e in done]
+    records = [rec.in_units(units or rec.units) for rec in records]
+    found = {rec.units for rec in records}
+    common = found.pop() if len(found) == 1 else None
     qs = [QUANTITY_BY_KEY[k] for k in INDEX_KEYS]
     head = ['<th scope="col"></th>', '<th scope="col">Profile</th>']
     for q in qs:
         unit = f" ({unit_html(unit_of(q, common))})" if common else ""
         head.append(f'<th scope="col" title="{escape(q.label)}">{symbol_html(q.symbol)}{unit}</th>')
     rows = []
-    for e in done:
+    for e, rec in zip(done, records, strict=True):
         r = e.result
-        v = values(r) if r is not None else e.record.values
-        length = r.units if r is not None else e.record.units
+        v, length = rec.values, rec.units
         name = profile_name(r) if r is not None else (Path(e.source).name or e.source)
         thumb = thumbnail_svg(r) if r is not None else (e.thumbnail or "")
         href = e.href if e.href is not None else datasheet_filename(e.source)
@@ -129,7 +134,7 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
     if failed:
         summary.append(f"{len(failed)} not analysed")
     if common:
-        summary.append(f"length unit {escape(common)}")
+        summary.append(f"units {escape(system_text(common))}")
     parts = [f'<header><h1>{escape(title)}</h1><p class="meta">'
              + "".join(f"<span>{s}</span>" for s in summary) + "</p></header>",
              f'<section id="profiles"><h2>Profiles</h2>{table}'
@@ -149,7 +154,8 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
 
 
 def write_index(entries: Sequence[CatalogueEntry], folder: str | Path, *,
-                filename: str = "index.html", title: str = "Section catalogue") -> Path:
+                filename: str = "index.html", title: str = "Section catalogue",
+                units: str | None = None) -> Path:
     """Write the catalogue index page into ``folder``, atomically.
 
     Parameters
@@ -162,6 +168,8 @@ def write_index(entries: Sequence[CatalogueEntry], folder: str | Path, *,
         File name of the page.
     title : str
         Heading of the page.
+    units : str, optional
+        As for :func:`index_html`.
 
     Returns
     -------
@@ -170,12 +178,16 @@ def write_index(entries: Sequence[CatalogueEntry], folder: str | Path, *,
 
     """
     path = Path(folder) / safe_name(filename)
-    atomic_write(path, index_html(entries, title=title))
+    atomic_write(path, index_html(entries, title=title, units=units))
     return path
 
 
-def write_catalogue_index(outcomes: Sequence[object], folder: str | Path) -> Path:
-    """Index page of a catalogue run from its outcomes (see :mod:`warpwise.catalogue`)."""
+def write_catalogue_index(outcomes: Sequence[object], folder: str | Path,
+                          units: str | None = None) -> Path:
+    """Index page of a catalogue run from its outcomes (see :mod:`warpwise.catalogue`).
+
+    ``units`` is the unit system of the rows (default each profile's own).
+    """
     entries = [CatalogueEntry(o.path, None, None if o.datasheet is None else Path(o.datasheet).name,
                               o.error, o.record, o.thumbnail) for o in outcomes]
-    return write_index(entries, folder)
+    return write_index(entries, folder, units=units)

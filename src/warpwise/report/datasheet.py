@@ -18,7 +18,7 @@ import numpy as np
 from ..errors import UsageError
 from ..properties.analysis import SectionResult
 from ..stress import TorsionStress
-from ..units import system
+from ..units import AREA, MOMENT, STRESS, TWIST, Converter, twist_in_degrees
 from .files import atomic_write
 from .html_parts import (
     caution_box,
@@ -35,30 +35,23 @@ from .plot_files import svg_text
 from .plot_parts import profile_name
 from .plot_section import figure_outline, figure_warping
 from .plot_stress import figure_torsion
-from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of, unit_of, values
-from .table import corner_note
+from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of
+from .records import Record, record_of
+from .table import corner_note, system_text
 
 #: Symbols used in the pictures and the torsion summary (not in the property list).
 PICTURE_SYMBOLS = (
-    ("T", "torque about the bar axis", "applied load; the stresses scale with it", "moment"),
-    ("G", "shear modulus", "of the material; the stress pattern does not depend on it", "stress"),
+    ("T", "torque about the bar axis", "applied load; the stresses scale with it", MOMENT),
+    ("G", "shear modulus", "of the material; the stress pattern does not depend on it", STRESS),
     ("tau", "resultant torsion shear stress", "sqrt(tau_zx^2 + tau_zy^2), "
-     "tau_zx = (T/J)(dpsi/dx - y), tau_zy = (T/J)(dpsi/dy + x)", "stress"),
-    ("theta", "twist rate", "T / (G J)", "twist"),
+     "tau_zx = (T/J)(dpsi/dx - y), tau_zy = (T/J)(dpsi/dy + x)", STRESS),
+    ("theta", "twist rate", "T / (G J)", TWIST),
     ("omega", "warping function about the shear centre", "axial displacement w = theta omega; "
-     "zero mean over the section", "area"),
+     "zero mean over the section", AREA),
 )
 
 
-
-def _unit_of_kind(kind: str, length: str) -> str:
-    force, stress = system(length).force, system(length).stress
-    return {"moment": f"{force}*{length}", "stress": stress, "twist": f"rad/{length}",
-            "area": f"{length}2"}[kind]
-
-
-
-def _property_rows(result: SectionResult, v: dict[str, float]) -> tuple[str, list[str]]:
+def _property_rows(result: SectionResult, v: dict[str, float], show: Converter) -> tuple[str, list[str]]:
     """The grouped property table and the keys shown."""
     with_errors = result.errors is not None
     cols = 5 if with_errors else 4
@@ -76,7 +69,7 @@ def _property_rows(result: SectionResult, v: dict[str, float]) -> tuple[str, lis
         shown.append(q.key)
         cells = [f'<td class="sym">{symbol_html(q.symbol)}</td>', f"<td>{escape(q.label)}</td>",
                  f'<td class="num">{number_html(value)}</td>',
-                 f'<td class="unit">{unit_html(unit_of(q, result.units))}</td>']
+                 f'<td class="unit">{unit_html(show.unit(q.dimension))}</td>']
         if with_errors:
             err = error_of(result.errors, q.key)
             cells.append(f'<td class="num">{"" if err is None else percent(err)}</td>')
@@ -97,44 +90,43 @@ def _property_rows(result: SectionResult, v: dict[str, float]) -> tuple[str, lis
     return table, shown
 
 
-def _key_values(result: SectionResult, v: dict[str, float]) -> str:
+def _key_values(v: dict[str, float], show: Converter) -> str:
     keys = [k for k in ("A", "Ix", "Iy", "I1", "I2", "alpha_deg", "J", "Cw", "xs", "ys", "mass")
             if np.isfinite(v[k])]
     rows = "".join(
         f'<tr><th scope="row">{escape(QUANTITY_BY_KEY[k].label)}</th>'
         f'<td class="sym">{symbol_html(QUANTITY_BY_KEY[k].symbol)}</td>'
         f'<td class="num">{number_html(v[k], 5)}</td>'
-        f'<td class="unit">{unit_html(unit_of(QUANTITY_BY_KEY[k], result.units))}</td></tr>'
+        f'<td class="unit">{unit_html(show.unit(QUANTITY_BY_KEY[k].dimension))}</td></tr>'
         for k in keys)
     return f'<table class="key" id="key-values"><tbody>{rows}</tbody></table>'
 
 
-def _glossary(result: SectionResult, shown: list[str]) -> str:
+def _glossary(shown: list[str], show: Converter) -> str:
     items = []
     for key in shown:
         q = QUANTITY_BY_KEY[key]
-        unit = unit_html(unit_of(q, result.units))
+        unit = unit_html(show.unit(q.dimension))
         items.append(f'<dt>{symbol_html(q.symbol)}</dt><dd>{escape(q.label)}: {escape(q.definition)} '
                      f'<span class="unit">[{unit}]</span></dd>')
-    for sym, label, definition, kind in PICTURE_SYMBOLS:
-        unit = unit_html(_unit_of_kind(kind, result.units))
+    for sym, label, definition, dim in PICTURE_SYMBOLS:
+        unit = unit_html(show.unit(dim))
         items.append(f"<dt>{symbol_html(sym)}</dt><dd>{escape(label)}: {escape(definition)} "
                      f'<span class="unit">[{unit}]</span></dd>')
     intro = ("<p>Coordinates x, y are those of the drawing; second moments are about centroidal "
              "axes parallel to x and y; axis 1 is the major and axis 2 the minor principal axis, "
              "at the angle \u03b1 from +x (counter-clockwise positive). "
-             f"Length unit L = {escape(result.units)}.</p>")
+             f"Units: {escape(system_text(show.target))}.</p>")
     return f'{intro}<dl class="glossary" id="glossary">{"".join(items)}</dl>'
 
 
-def _notes(result: SectionResult) -> list[str]:
-    out = [escape(n) for n in result.profile.notes]
-    for c in result.corners:
-        note = corner_note(c, result.units)
+def _notes(result: SectionResult, rec: Record) -> list[str]:
+    out = [escape(n) for n in rec.notes]
+    for c in rec.corners:
+        note = corner_note(c, rec.units)
         out.append(escape(f"{note[:1].upper()}{note[1:]}."))
-    m = result.mesh
-    out.append(f"Mesh: {m.n_elements} six-node triangles, {m.n_nodes} nodes, largest element size "
-               f"{number_html(m.size, 3)} {escape(result.units)}.")
+    out.append(f"Mesh: {rec.elements} six-node triangles, {rec.nodes} nodes, largest element size "
+               f"{number_html(rec.mesh_size, 3)} {escape(rec.units)}.")
     if result.composite:
         out.append("Composite section: area, centroid, second and plastic moduli are of the bare "
                    "geometry; torsion, warping and shear values (J, Cw, shear centre, shear areas) "
@@ -154,36 +146,44 @@ def _layout(result: SectionResult) -> tuple[str, float]:
     return ("overview stacked", 7.0) if _wide(result) else ("overview", 5.4)
 
 
-def _torsion_rows(result: SectionResult, torsion: TorsionStress) -> list[tuple[str, str, str, str]]:
-    """(label, symbol, value, unit) rows of the torsion values, HTML."""
-    u = result.units
-    force, stress = system(u).force, system(u).stress
-    T, top, at = torsion.torque, torsion.tau_max, torsion.tau_max_at
-    rows = [("Torque", "T", number_html(T), unit_html(f"{force}*{u}")),
-            ("Largest shear stress", "tau_max", number_html(top, 5), unit_html(stress)),
+def _torsion_rows(result: SectionResult, torsion: TorsionStress,
+                  show: Converter) -> list[tuple[str, str, str, str]]:
+    """(label, symbol, value, unit) rows of the torsion values, HTML, in ``show``'s units."""
+    u, stress = show.system.length, unit_html(show.unit(STRESS))
+    T, top = show(torsion.torque, MOMENT), show(torsion.tau_max, STRESS)
+    at = show.point(torsion.tau_max_at)
+    rows = [("Torque", "T", number_html(T), unit_html(show.unit(MOMENT))),
+            ("Largest shear stress", "tau_max", number_html(top, 5), stress),
             ("Where (x, y)", "", f"({number_html(at[0], 5)}, {number_html(at[1], 5)})", unit_html(u)),
             ("Largest shear stress per unit torque", "tau_max/T", number_html(top / T, 5),
              f"{escape(u)}<sup>\u22123</sup>")]
     if result.composite:
-        rows += [(f"Largest in {escape(p.material)}", "tau_max", number_html(p.tau_max, 5),
-                  unit_html(stress)) for p in torsion.peaks]
+        rows += [(f"Largest in {escape(p.material)}", "tau_max",
+                  number_html(show(p.tau_max, STRESS), 5), stress) for p in torsion.peaks]
     if torsion.twist_rate is not None:
+        theta = show(torsion.twist_rate, TWIST)
         rows.append(("Shear modulus" + (" (reference material)" if result.composite else ""), "G",
-                     number_html(torsion.shear_modulus), unit_html(stress)))
-        rows.append(("Twist rate", "theta", number_html(torsion.twist_rate, 5), escape(f"rad/{u}")))
+                     number_html(show(torsion.shear_modulus, STRESS)), stress))
+        rows.append(("Twist rate", "theta", number_html(theta, 5), escape(show.unit(TWIST))))
+        rows.append(("Twist rate, degrees", "theta",
+                     number_html(twist_in_degrees(theta, show.target), 5),
+                     escape(f"deg/{show.system.long_length}")))
     for corner in torsion.corners:
-        c = corner.corner
-        value = "" if result.composite else f"{number_html(corner.tau_at_corner, 4)} (mesh-dependent)"
-        rows.append((f"At the sharp corner ({number_html(c.x, 5)}, {number_html(c.y, 5)})", "tau",
-                     value or "mesh-dependent", "" if result.composite else unit_html(stress)))
+        cx, cy = show.point((corner.corner.x, corner.corner.y))
+        value = "" if result.composite else \
+            f"{number_html(show(corner.tau_at_corner, STRESS), 4)} (mesh-dependent)"
+        rows.append((f"At the sharp corner ({number_html(cx, 5)}, {number_html(cy, 5)}) "
+                     f"{escape(u)}", "tau", value or "mesh-dependent",
+                     "" if result.composite else stress))
     return rows
 
 
-def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torque: bool) -> str:
+def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torque: bool,
+                     show: Converter) -> str:
     layout, width = _layout(result)
-    svg = svg_text(figure_torsion(result, torsion, width=width), "torsion-")
-    moment = unit_html(f"{system(result.units).force}*{result.units}")
-    T = number_html(torsion.torque)
+    svg = svg_text(figure_torsion(result, torsion, width=width, units=show.target), "torsion-")
+    moment = unit_html(show.unit(MOMENT))
+    T = number_html(show(torsion.torque, MOMENT))
     if nominal_torque:
         caption = (f"Resultant shear stress \u03c4 for a nominal torque T = {T} {moment}. Stresses "
                    "scale in proportion to the torque: multiply by T in "
@@ -196,7 +196,7 @@ def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torq
     body = "".join(f'<tr><th scope="row">{label}</th><td class="sym">'
                    f'{symbol_html(sym) if sym else ""}</td><td class="num">{val}</td>'
                    f'<td class="unit">{unit}</td></tr>'
-                   for label, sym, val, unit in _torsion_rows(result, torsion))
+                   for label, sym, val, unit in _torsion_rows(result, torsion, show))
     return (f'<section id="torsion"><h2>Torsion shear stress</h2>'
             f'<div class="{layout}"><figure class="picture" id="torsion-picture">{svg}'
             f"<figcaption>{caption}</figcaption></figure>"
@@ -204,7 +204,7 @@ def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torq
 
 
 def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_torque: bool = False,
-                   title: str | None = None, warping: bool = True) -> str:
+                   title: str | None = None, warping: bool = True, units: str | None = None) -> str:
     """A self-contained HTML5 datasheet of one analysed profile.
 
     Parameters
@@ -212,16 +212,18 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     result : SectionResult
         The analysed section.
     torsion : TorsionStress
-        Its torsion stresses for the torque to show (force x L, N*mm with mm), from
-        :func:`warpwise.stress.torsion_stress`; the twist rate and shear modulus are shown
-        when known.
+        Its torsion stresses for the torque to show (in the profile's units, N*mm with mm),
+        from :func:`warpwise.stress.torsion_stress`; the twist rate and shear modulus are
+        shown when known.
     nominal_torque : bool
-        The torque is the nominal T = 1 force x L (no torque was given): the caption says so
-        and that the stresses scale with the torque.
+        The torque is the nominal T = 1 force x L of the page's units (no torque was given):
+        the caption says so and that the stresses scale with the torque.
     title : str, optional
         Heading; default the profile's file name.
     warping : bool
         Include the picture of the warping function.
+    units : str, optional
+        Unit system of the page (:data:`warpwise.units.SYSTEMS`); default the profile's.
 
     Returns
     -------
@@ -234,24 +236,25 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     Raises
     ------
     UsageError
-        For a nominal torque other than 1.
+        For a nominal torque other than 1 (in the page's units).
 
     """
-    if nominal_torque and torsion.torque != 1.0:
-        raise UsageError(f"a nominal torque is 1, got {torsion.torque}")
+    show = Converter.of(result.units, units)
+    if nominal_torque and not np.isclose(show(torsion.torque, MOMENT), 1.0, rtol=1e-12, atol=0):
+        raise UsageError(f"a nominal torque is 1 {show.unit(MOMENT)}, got "
+                         f"{show(torsion.torque, MOMENT)}")
     name = profile_name(result)
     heading = title or name
-    u = result.units
-    force, stress = system(u).force, system(u).stress
-    v = values(result)
-    meta = [f"Section properties of {escape(name)}",
-            f"length {escape(u)}, force {escape(force)}, stress {escape(stress)}"]
+    u = show.target
+    rec = record_of(result).in_units(u)
+    v = rec.values
+    meta = [f"Section properties of {escape(name)}", f"units {escape(system_text(u))}"]
     if result.materials.names and result.materials.names != ("",):
         meta.append("material" + ("s " if len(result.materials.names) > 1 else " ")
                     + ", ".join(escape(n) for n in result.materials.names))
     layout, width = _layout(result)
-    outline = svg_text(figure_outline(result, show_mesh=False, width=width), "outline-")
-    table, shown = _property_rows(result, v)
+    outline = svg_text(figure_outline(result, show_mesh=False, width=width, units=u), "outline-")
+    table, shown = _property_rows(result, v, show)
     parts = [
         f'<header><h1>{escape(heading)}</h1><p class="meta">'
         + "".join(f"<span>{m}</span>" for m in meta) + "</p></header>",
@@ -259,12 +262,13 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
         f'<figure class="picture" id="outline-picture">{outline}<figcaption>The section to scale '
         f"in {escape(u)}: C centroid, S shear centre, principal axes 1 (major) and 2 (minor) "
         "through the centroid, arrow heads on their positive directions.</figcaption></figure>"
-        f"<div><h3 class=\"meta\">Key values</h3>{_key_values(result, v)}</div></div></section>",
+        f"<div><h3 class=\"meta\">Key values</h3>{_key_values(v, show)}</div></div></section>",
         f'<section id="properties"><h2>Section properties</h2>{table}</section>',
-        _torsion_section(result, torsion, nominal_torque),
+        _torsion_section(result, torsion, nominal_torque, show),
     ]
     if warping:
-        svg = svg_text(figure_warping(result, width=7.0 if _wide(result) else 6.0), "warping-")
+        svg = svg_text(figure_warping(result, width=7.0 if _wide(result) else 6.0, units=u),
+                       "warping-")
         parts.append(
             '<section id="warping"><h2>Warping</h2><figure class="picture" id="warping-picture">'
             f"{svg}<figcaption>Warping function \u03c9 about the shear centre (zero mean, "
@@ -272,8 +276,8 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
             "bar by w = \u03b8 \u03c9. Restraining it (end plates, welded ends) gives warping "
             f"stresses governed by C<sub>w</sub> = {number_html(v['Cw'], 5)} "
             f"{unit_html(u + '6')}.</figcaption></figure></section>")
-    parts.append(f'<section id="symbols"><h2>Glossary of symbols</h2>{_glossary(result, shown)}</section>')
-    notes = "".join(f"<li>{n}</li>" for n in _notes(result))
+    parts.append(f'<section id="symbols"><h2>Glossary of symbols</h2>{_glossary(shown, show)}</section>')
+    notes = "".join(f"<li>{n}</li>" for n in _notes(result, rec))
     parts.append(f'<section id="notes"><h2>Notes</h2><ul class="notes">{notes}</ul></section>')
     parts.append(caution_box())
     parts.append(footer())
@@ -282,7 +286,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
 
 def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: TorsionStress,
                     nominal_torque: bool = False, filename: str | None = None,
-                    title: str | None = None) -> Path:
+                    title: str | None = None, units: str | None = None) -> Path:
     """Write the datasheet of one profile into ``folder``, atomically.
 
     Parameters
@@ -297,7 +301,7 @@ def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: Torsi
         File name; default :func:`datasheet_filename` of the profile's source (use
         :func:`~warpwise.report.html_parts.unique_filenames` for a catalogue). Only the name
         is used, never a path.
-    title : str, optional
+    title, units : str, optional
         As for :func:`datasheet_html`.
 
     Returns
@@ -314,5 +318,5 @@ def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: Torsi
     name = safe_name(filename) if filename else datasheet_filename(result.profile.source)
     path = Path(folder) / name
     atomic_write(path, datasheet_html(result, torsion=torsion, nominal_torque=nominal_torque,
-                                      title=title))
+                                      title=title, units=units))
     return path

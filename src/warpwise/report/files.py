@@ -90,7 +90,7 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     obj["shear_centre"] = [v["xs"], v["ys"]]
     obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
     obj["mesh"] = {"nodes": rec.nodes, "elements": rec.elements, "size": rec.mesh_size}
-    obj["notes"] = list(rec.notes)
+    obj["notes"] = list(rec.remarks)
     if rec.errors is not None:
         obj["relative_error"] = dict(rec.errors)
     return obj

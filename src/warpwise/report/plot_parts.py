@@ -15,12 +15,12 @@ from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import PathPatch
 from matplotlib.path import Path as MplPath
-from matplotlib.ticker import MaxNLocator
+from matplotlib.ticker import FuncFormatter, MaxNLocator
 from matplotlib.tri import Triangulation
 
 from ..mesh.edges import mesh_edges
 from ..properties.analysis import SectionResult
-from ..units import system
+from ..units import LENGTH, Converter
 
 #: Fill colours of the materials (regions of the first material take the first colour).
 MATERIAL_COLOURS = ("#a9c4dc", "#e2c48a", "#b4d6a6", "#d9aab0", "#c6b8dc", "#bfc7cf")
@@ -124,29 +124,45 @@ def profile_name(result: SectionResult) -> str:
     return Path(src).name or src
 
 
-def stress_unit(result: SectionResult) -> str:
-    """Stress unit that goes with the result's length unit (MPa with mm)."""
-    return system(result.units).stress
-
-
 def fmt(v: float) -> str:
     """A number for a legend or title: four significant figures, round-off shown as 0."""
     return "0" if abs(v) < 5e-13 else f"{v:.4g}"
 
 
-def new_figure(result: SectionResult) -> tuple[Figure, object]:
-    """A figure with one equal-aspect axes in the drawing unit (sized by :func:`finish`)."""
+def new_figure(result: SectionResult, show: Converter | None = None) -> tuple[Figure, object]:
+    """A figure with one equal-aspect axes (sized by :func:`finish`).
+
+    The artists are drawn in the profile's coordinates; with ``show`` in another unit system
+    the ticks are placed and labelled in its length unit.
+    """
+    show = show or Converter.of(result.units, None)
     fig = Figure(figsize=(WIDTH, WIDTH), layout="constrained")
     ax = fig.add_subplot()
     ax.set_aspect("equal")
-    unit = result.units
+    unit = show.system.length
     ax.set_xlabel(f"x ({unit})")
     ax.set_ylabel(f"y ({unit})")
+    k = float(show(1.0, LENGTH))
+    if k != 1.0:
+        for axis in (ax.xaxis, ax.yaxis):
+            axis.set_major_locator(_ScaledLocator(k))
+            axis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v * k + 0.0:.6g}"))
     ax.grid(True, lw=0.4, color="#c9d1d8", alpha=0.8)
     ax.set_axisbelow(True)
     for side in ("top", "right"):
         ax.spines[side].set_visible(False)
     return fig, ax
+
+
+class _ScaledLocator(MaxNLocator):
+    """Ticks at round numbers of coordinates scaled by ``k`` (another length unit)."""
+
+    def __init__(self, k: float) -> None:
+        super().__init__(nbins="auto", steps=[1, 2, 2.5, 5, 10])
+        self.k = k
+
+    def tick_values(self, vmin: float, vmax: float) -> np.ndarray:  # noqa: D102
+        return super().tick_values(vmin * self.k, vmax * self.k) / self.k
 
 
 def finish(fig: Figure, ax: object, result: SectionResult, title: str, handles: list, *,
@@ -192,8 +208,10 @@ def draw_boundary(ax: object, result: SectionResult, lw: float = 1.1, zorder: fl
                                lw=lw, joinstyle="round", zorder=zorder))
 
 
-def mark_shear_centre(ax: object, result: SectionResult, label_text: bool = True) -> Line2D:
-    """Mark the shear centre S; return its legend entry."""
+def mark_shear_centre(ax: object, result: SectionResult, show: Converter | None = None,
+                      label_text: bool = True) -> Line2D:
+    """Mark the shear centre S; return its legend entry (coordinates in ``show``'s unit)."""
+    show = show or Converter.of(result.units, None)
     xs, ys = result.torsion.shear_centre
     ax.plot([xs], [ys], marker="D", ms=7, mfc=SHEAR_CENTRE_COLOUR, mec="white", mew=1.0,
             ls="none", zorder=8, gid="shear-centre")
@@ -201,7 +219,13 @@ def mark_shear_centre(ax: object, result: SectionResult, label_text: bool = True
         ax.annotate("S", (xs, ys), xytext=(6, -12), textcoords="offset points",
                     color=SHEAR_CENTRE_COLOUR, fontsize=10, fontweight="bold", zorder=9)
     return Line2D([], [], marker="D", ms=7, mfc=SHEAR_CENTRE_COLOUR, mec="white", ls="none",
-                  label=f"S: shear centre ({fmt(xs)}, {fmt(ys)}) {result.units}")
+                  label=f"S: shear centre {point_text(show, (xs, ys))}")
+
+
+def point_text(show: Converter, xy: tuple[float, float]) -> str:
+    """A point as legend text in ``show``'s length unit, e.g. ``(1.5, 0) mm``."""
+    x, y = show.point(xy)
+    return f"({fmt(x)}, {fmt(y)}) {show.system.length}"
 
 
 # ----------------------------------------------------------------------------------------------

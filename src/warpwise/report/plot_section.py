@@ -13,6 +13,7 @@ from matplotlib.patches import Patch, PathPatch
 from matplotlib.path import Path as MplPath
 
 from ..properties.analysis import SectionResult
+from ..units import AREA, Converter, Dimension
 from . import plot_parts as parts
 
 # ----------------------------------------------------------------------------------------------
@@ -61,25 +62,25 @@ def _draw_mesh(ax: object, result: SectionResult) -> Line2D:
                   label=f"mesh: {mesh.n_elements} six-node triangles, {mesh.n_nodes} nodes")
 
 
-def _mark_centroid(ax: object, result: SectionResult) -> list[Line2D]:
+def _mark_centroid(ax: object, result: SectionResult, show: Converter) -> list[Line2D]:
     xc, yc = result.geometric.centroid
     ax.plot([xc], [yc], marker="o", ms=7, mfc=parts.CENTROID_COLOUR, mec="white", mew=1.0, ls="none",
             zorder=8, gid="centroid")
     ax.annotate("C", (xc, yc), xytext=(6, 5), textcoords="offset points", color=parts.CENTROID_COLOUR,
                 fontsize=10, fontweight="bold", zorder=9)
     handles = [Line2D([], [], marker="o", ms=7, mfc=parts.CENTROID_COLOUR, mec="white", ls="none",
-                      label=f"C: centroid ({parts.fmt(xc)}, {parts.fmt(yc)}) {result.units}")]
+                      label=f"C: centroid {parts.point_text(show, (xc, yc))}")]
     if result.composite:
         xe, ye = result.weighted.centroid
         ax.plot([xe], [ye], marker="o", ms=8, mfc="none", mec=parts.CENTROID_COLOUR, mew=1.4, ls="none",
                 zorder=8, gid="elastic-centroid")
         handles.append(Line2D([], [], marker="o", ms=8, mfc="none", mec=parts.CENTROID_COLOUR, mew=1.4,
-                              ls="none", label=f"modulus-weighted centroid ({parts.fmt(xe)}, "
-                                               f"{parts.fmt(ye)}) {result.units}"))
+                              ls="none", label="modulus-weighted centroid "
+                                               f"{parts.point_text(show, (xe, ye))}"))
     return handles
 
 
-def _draw_principal_axes(ax: object, result: SectionResult) -> list[Line2D]:
+def _draw_principal_axes(ax: object, result: SectionResult, show: Converter) -> list[Line2D]:
     """Principal axes 1 (major) and 2 (minor) through the centroid, with arrow heads at +."""
     g = result.geometric
     c = np.array(g.centroid)
@@ -87,11 +88,13 @@ def _draw_principal_axes(ax: object, result: SectionResult) -> list[Line2D]:
     rel = result.mesh.nodes - c
     pad = 0.07 * result.profile.size
     handles = []
+    i4 = Dimension(4)
     for name, direction, colour, style, label in (
         ("1", np.array([np.cos(a), np.sin(a)]), parts.AXIS1_COLOUR, "-",
-         f"axis 1 (major), I1 = {parts.fmt(g.I1)} {result.units}4, at alpha = {parts.fmt(g.alpha_deg)} deg"),
+         f"axis 1 (major), I1 = {parts.fmt(show(g.I1, i4))} {show.unit(i4)}, "
+         f"at alpha = {parts.fmt(g.alpha_deg)} deg"),
         ("2", np.array([-np.sin(a), np.cos(a)]), parts.AXIS2_COLOUR, "--",
-         f"axis 2 (minor), I2 = {parts.fmt(g.I2)} {result.units}4"),
+         f"axis 2 (minor), I2 = {parts.fmt(show(g.I2, i4))} {show.unit(i4)}"),
     ):
         t = rel @ direction
         start, end = c + (t.min() - pad) * direction, c + (t.max() + pad) * direction
@@ -110,7 +113,8 @@ def _draw_principal_axes(ax: object, result: SectionResult) -> list[Line2D]:
 # ----------------------------------------------------------------------------------------------
 # figures
 
-def figure_outline(result: SectionResult, show_mesh: bool = True, *, width: float = parts.WIDTH) -> Figure:
+def figure_outline(result: SectionResult, show_mesh: bool = True, *, width: float = parts.WIDTH,
+                   units: str | None = None) -> Figure:
     """The section drawn to scale with its centroid, shear centre and principal axes.
 
     Parameters
@@ -122,30 +126,34 @@ def figure_outline(result: SectionResult, show_mesh: bool = True, *, width: floa
         curved edges show curved).
     width : float
         Figure width, inches (the height follows the profile's proportions).
+    units : str, optional
+        Unit system the picture shows its values in (default the profile's).
 
     Returns
     -------
     matplotlib.figure.Figure
-        Axes in the drawing's length unit L, equal scale; a legend names every mark:
+        Axes in the length unit of ``units``, equal scale; a legend names every mark:
         the materials, C the centroid (and the modulus-weighted centroid of a composite
         section), S the shear centre, principal axes 1 and 2 (arrow heads on their positive
         directions), and the mesh.
 
     """
-    fig, ax = parts.new_figure(result)
+    show = Converter.of(result.units, units)
+    fig, ax = parts.new_figure(result, show)
     handles = _draw_fill(ax, result)
     if show_mesh:
         handles.append(_draw_mesh(ax, result))
     parts.draw_boundary(ax, result)
-    handles += _draw_principal_axes(ax, result)
-    handles += _mark_centroid(ax, result)
-    handles.append(parts.mark_shear_centre(ax, result))
+    handles += _draw_principal_axes(ax, result, show)
+    handles += _mark_centroid(ax, result, show)
+    handles.append(parts.mark_shear_centre(ax, result, show))
     title = f"{parts.profile_name(result)}: outline, centroid, shear centre and principal axes"
     parts.finish(fig, ax, result, title, handles, margin=0.14, width=width)
     return fig
 
 
-def figure_warping(result: SectionResult, *, width: float = parts.WIDTH) -> Figure:
+def figure_warping(result: SectionResult, *, width: float = parts.WIDTH,
+                   units: str | None = None) -> Figure:
     """Filled contours of the warping function omega about the shear centre.
 
     Parameters
@@ -154,6 +162,8 @@ def figure_warping(result: SectionResult, *, width: float = parts.WIDTH) -> Figu
         An analysed section.
     width : float
         Figure width, inches.
+    units : str, optional
+        Unit system the picture shows its values in (default the profile's).
 
     Returns
     -------
@@ -163,8 +173,9 @@ def figure_warping(result: SectionResult, *, width: float = parts.WIDTH) -> Figu
         marked. Warping displacement is towards +z where omega is positive.
 
     """
-    fig, ax = parts.new_figure(result)
-    omega = np.asarray(result.torsion.omega, dtype=float)
+    show = Converter.of(result.units, units)
+    fig, ax = parts.new_figure(result, show)
+    omega = show(np.asarray(result.torsion.omega, dtype=float), AREA)
     tri = parts.triangulation(result)
     levels = parts.contour_levels(float(omega.min()), float(omega.max()), signed=True)
     fill = ax.tricontourf(tri, omega, levels=levels, cmap=parts.SIGNED_MAP, zorder=1)
@@ -173,11 +184,12 @@ def figure_warping(result: SectionResult, *, width: float = parts.WIDTH) -> Figu
         ax.tricontour(tri, omega, levels=[0.0], colors=parts.EDGE_COLOUR, linewidths=0.6,
                       linestyles="dotted", zorder=3)
     parts.draw_boundary(ax, result)
-    u = result.units
-    handles = [parts.mark_shear_centre(ax, result),
+    area = show.unit(AREA)
+    handles = [parts.mark_shear_centre(ax, result, show),
                Line2D([], [], color=parts.EDGE_COLOUR, lw=0.6, ls="dotted",
-                      label=f"omega = 0; largest |omega| = {parts.fmt(result.torsion.omega_max)} {u}2")]
-    parts.colour_bar(fig, ax, fill, f"warping function omega ({u}2)")
+                      label=f"omega = 0; largest |omega| = "
+                            f"{parts.fmt(show(result.torsion.omega_max, AREA))} {area}")]
+    parts.colour_bar(fig, ax, fill, f"warping function omega ({area})")
     title = f"{parts.profile_name(result)}: warping function omega\nabout the shear centre, zero mean"
     parts.finish(fig, ax, result, title, handles, colour_bar=True, width=width)
     return fig

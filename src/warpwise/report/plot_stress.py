@@ -19,7 +19,7 @@ from ..errors import UsageError
 from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult
 from ..stress import CombinedStress, Loads, MaterialField, TorsionStress
-from ..units import system
+from ..units import FORCE, MOMENT, STRESS, TWIST, Converter
 from . import plot_parts as parts
 
 #: Stress pictures :func:`figure_combined` draws: stress field attribute and axis label.
@@ -37,13 +37,13 @@ PEAK_COLOUR = "#0b6e4f"
 # ----------------------------------------------------------------------------------------------
 # drawing pieces
 
-def _nodal_fields(result: SectionResult, fields: Sequence[MaterialField],
-                  attr: str) -> list[tuple[np.ndarray | None, np.ndarray]]:
-    """(element mask, nodal values (n,)) of each material's field ``attr`` (all elements: None)."""
+def _nodal_fields(result: SectionResult, fields: Sequence[MaterialField], attr: str,
+                  show: Converter) -> list[tuple[np.ndarray | None, np.ndarray]]:
+    """(element mask, nodal stresses (n,) in ``show``'s unit) of each material's field ``attr``."""
     out = []
     for f in fields:
         z = np.zeros(result.mesh.n_nodes)
-        z[f.nodes] = getattr(f, attr)
+        z[f.nodes] = show(getattr(f, attr), STRESS)
         out.append((result.materials.group == f.group if result.composite else None, z))
     return out
 
@@ -110,19 +110,18 @@ def _draw_corners(ax: object, corners: Sequence[Corner]) -> list[Line2D]:
                          "(stress there depends on the mesh; dashed circle left out of the maximum)")]
 
 
-def _loads_text(loads: Loads, result: SectionResult) -> str:
-    force = system(result.units).force
-    units = {"N": force, "Vx": force, "Vy": force, "Mx": f"{force}*{result.units}",
-             "My": f"{force}*{result.units}", "T": f"{force}*{result.units}"}
-    shown = [f"{k} = {parts.fmt(getattr(loads, k))} {units[k]}" for k in ("N", "Mx", "My", "Vx", "Vy", "T")
-             if getattr(loads, k)]
+def _loads_text(loads: Loads, show: Converter) -> str:
+    dims = {"N": FORCE, "Vx": FORCE, "Vy": FORCE, "Mx": MOMENT, "My": MOMENT, "T": MOMENT}
+    shown = [f"{k} = {parts.fmt(show(getattr(loads, k), dims[k]))} {show.unit(dims[k])}"
+             for k in ("N", "Mx", "My", "Vx", "Vy", "T") if getattr(loads, k)]
     return ", ".join(shown)
 
 
 # ----------------------------------------------------------------------------------------------
 # figures
 
-def figure_torsion(result: SectionResult, stress: TorsionStress, *, width: float = parts.WIDTH) -> Figure:
+def figure_torsion(result: SectionResult, stress: TorsionStress, *, width: float = parts.WIDTH,
+                   units: str | None = None) -> Figure:
     """Contours of the resultant torsion shear stress, with arrows and the largest value.
 
     Parameters
@@ -134,6 +133,8 @@ def figure_torsion(result: SectionResult, stress: TorsionStress, *, width: float
         stresses force / L^2); the title gives the twist rate when it is known.
     width : float
         Figure width, inches.
+    units : str, optional
+        Unit system the picture shows its values in (default the profile's).
 
     Returns
     -------
@@ -145,34 +146,35 @@ def figure_torsion(result: SectionResult, stress: TorsionStress, *, width: float
         circle left out of the maximum.
 
     """
-    top, at = stress.tau_max, stress.tau_max_at
-    fig, ax = parts.new_figure(result)
-    fill = _draw_fields(ax, result, _nodal_fields(result, stress.by_material, "tau"),
+    show = Converter.of(result.units, units)
+    top, at = show(stress.tau_max, STRESS), stress.tau_max_at
+    fig, ax = parts.new_figure(result, show)
+    fill = _draw_fields(ax, result, _nodal_fields(result, stress.by_material, "tau", show),
                         parts.contour_levels(0.0, top, signed=False), parts.MAGNITUDE_MAP, "max")
     parts.draw_boundary(ax, result)
-    unit, L = parts.stress_unit(result), result.units
+    unit = show.unit(STRESS)
     handles = [
         _mark_peak(ax, at, f"largest shear stress {parts.fmt(top)} {unit} at "
-                           f"({parts.fmt(at[0])}, {parts.fmt(at[1])}) {L}", ms=15),
+                           f"{parts.point_text(show, at)}", ms=15),
         _draw_arrows(ax, result, stress),
         *_draw_corners(ax, result.corners),
-        parts.mark_shear_centre(ax, result),
+        parts.mark_shear_centre(ax, result, show),
     ]
     parts.colour_bar(fig, ax, fill, f"resultant shear stress tau ({unit})")
-    force = system(L).force
     title = (f"{parts.profile_name(result)}: torsion shear stress for "
-             f"T = {parts.fmt(stress.torque)} {force}*{L}")
+             f"T = {parts.fmt(show(stress.torque, MOMENT))} {show.unit(MOMENT)}")
     if stress.twist_rate is not None:
-        title += (f"\ntwist rate theta = {stress.twist_rate:.4g} rad/{L} "
-                  f"(G = {parts.fmt(stress.shear_modulus)} {unit})")
+        title += (f"\ntwist rate theta = {show(stress.twist_rate, TWIST):.4g} {show.unit(TWIST)} "
+                  f"(G = {parts.fmt(show(stress.shear_modulus, STRESS))} {unit})")
     parts.finish(fig, ax, result, title, handles, ncols=1, colour_bar=True, width=width)
     return fig
 
 
-def _peak_handles(ax: object, result: SectionResult, stress: CombinedStress, quantity: str) -> list[Line2D]:
+def _peak_handles(ax: object, result: SectionResult, stress: CombinedStress, quantity: str,
+                  show: Converter) -> list[Line2D]:
     """Mark the largest value of each material; return the legend entries."""
     attr, label = COMBINED_QUANTITIES[quantity]
-    unit, nodes = parts.stress_unit(result), result.mesh.nodes
+    unit, nodes = show.unit(STRESS), result.mesh.nodes
     handles = []
     for ms in stress.by_material:
         if quantity == "von_mises":
@@ -185,12 +187,13 @@ def _peak_handles(ax: object, result: SectionResult, stress: CombinedStress, qua
         extra = ""
         if quantity == "von_mises" and ms.utilisation is not None:
             extra = f", {100 * ms.utilisation:.3g}% of fy (informative, not a code check)"
-        handles.append(_mark_peak(ax, at, f"largest {label}{name}: {parts.fmt(value)} {unit}{extra}"))
+        handles.append(_mark_peak(
+            ax, at, f"largest {label}{name}: {parts.fmt(show(value, STRESS))} {unit}{extra}"))
     return handles
 
 
 def figure_combined(result: SectionResult, stress: CombinedStress, quantity: str = "von_mises", *,
-                    width: float = parts.WIDTH) -> Figure:
+                    width: float = parts.WIDTH, units: str | None = None) -> Figure:
     """Stress contours for combined loads, each material on its own nodal values.
 
     Parameters
@@ -205,6 +208,8 @@ def figure_combined(result: SectionResult, stress: CombinedStress, quantity: str
         line of zero stress drawn) or ``tau`` (resultant shear stress).
     width : float
         Figure width, inches.
+    units : str, optional
+        Unit system the picture shows its values in (default the profile's).
 
     Returns
     -------
@@ -221,16 +226,17 @@ def figure_combined(result: SectionResult, stress: CombinedStress, quantity: str
     if quantity not in COMBINED_QUANTITIES:
         raise UsageError(f"unknown stress picture {quantity!r} (use {', '.join(COMBINED_QUANTITIES)})")
     attr, label = COMBINED_QUANTITIES[quantity]
-    fields = _nodal_fields(result, [ms.field for ms in stress.by_material], attr)
+    show = Converter.of(result.units, units)
+    fields = _nodal_fields(result, [ms.field for ms in stress.by_material], attr, show)
     signed = quantity == "sigma"
-    lo = min(float(getattr(ms, attr).min()) for ms in stress.by_material)
-    hi = max(float(getattr(ms, attr).max()) for ms in stress.by_material)
+    lo = show(min(float(getattr(ms, attr).min()) for ms in stress.by_material), STRESS)
+    hi = show(max(float(getattr(ms, attr).max()) for ms in stress.by_material), STRESS)
     if signed:
         levels = parts.contour_levels(lo, hi, signed=True)
     else:
-        levels = parts.contour_levels(0.0, max(getattr(ms, f"{attr}_max") for ms in stress.by_material),
-                                signed=False)
-    fig, ax = parts.new_figure(result)
+        top = max(getattr(ms, f"{attr}_max") for ms in stress.by_material)
+        levels = parts.contour_levels(0.0, show(top, STRESS), signed=False)
+    fig, ax = parts.new_figure(result, show)
     fill = _draw_fields(ax, result, fields, levels, parts.SIGNED_MAP if signed else parts.MAGNITUDE_MAP,
                         "neither" if signed else "max")
     handles = []
@@ -241,9 +247,9 @@ def figure_combined(result: SectionResult, stress: CombinedStress, quantity: str
         handles.append(Line2D([], [], color=parts.EDGE_COLOUR, lw=1.0, ls="dashed",
                               label="zero normal stress (neutral axis)"))
     parts.draw_boundary(ax, result)
-    handles += _peak_handles(ax, result, stress, quantity)
+    handles += _peak_handles(ax, result, stress, quantity, show)
     handles += [] if signed else _draw_corners(ax, result.corners)
-    parts.colour_bar(fig, ax, fill, f"{label} ({parts.stress_unit(result)})")
-    title = f"{parts.profile_name(result)}: {label}\nloads {_loads_text(stress.loads, result)}"
+    parts.colour_bar(fig, ax, fill, f"{label} ({show.unit(STRESS)})")
+    title = f"{parts.profile_name(result)}: {label}\nloads {_loads_text(stress.loads, show)}"
     parts.finish(fig, ax, result, title, handles, ncols=1, colour_bar=True, width=width)
     return fig

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 
+from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult
 from ..units import LENGTH, convert
 from .quantities import QUANTITIES, values
@@ -33,11 +34,15 @@ class Record:
     mesh_size : float
         Largest element size, length unit.
     notes : tuple of str
-        Remarks (assumed units, sharp corners...).
+        Remarks of the reader (assumed units, repairs...).
     materials : tuple of str
         Material names ("" entries for geometry only).
     reference : str
         Reference material of the transformed section ("" for geometry only).
+    extra : dict of str to float
+        Further values of a caller's own.
+    corners : tuple of Corner
+        Sharp re-entrant corners (coordinates and radius in ``units``).
     """
 
     source: str
@@ -51,6 +56,12 @@ class Record:
     materials: tuple[str, ...] = ()
     reference: str = ""
     extra: dict[str, float] = field(default_factory=dict)
+    corners: tuple[Corner, ...] = ()
+
+    @property
+    def remarks(self) -> tuple[str, ...]:
+        """Every note to print: the reader's, then one per sharp corner, in ``units``."""
+        return (*self.notes, *(corner_note(c, self.units) for c in self.corners))
 
     def in_units(self, length: str) -> Record:
         """The same record in the unit system of ``length`` (every value converted).
@@ -65,20 +76,25 @@ class Record:
             return self
         out = {q.key: convert(self.values[q.key], q.dimension, self.units, length)
                for q in QUANTITIES}
-        return replace(self, units=length, values=out,
-                       mesh_size=convert(self.mesh_size, LENGTH, self.units, length))
+        def scaled(v: float) -> float:
+            return convert(v, LENGTH, self.units, length)
+
+        corners = tuple(replace(c, x=scaled(c.x), y=scaled(c.y), radius=scaled(c.radius))
+                        for c in self.corners)
+        return replace(self, units=length, values=out, mesh_size=scaled(self.mesh_size),
+                       corners=corners)
 
 
 def record_of(result: SectionResult) -> Record:
     """The record of an analysed section."""
-    notes = [*result.profile.notes, *(corner_note(c, result.units) for c in result.corners)]
     m = result.materials
     return Record(
         source=result.profile.source, units=result.units, values=values(result),
         errors=None if result.errors is None else dict(result.errors),
         nodes=result.mesh.n_nodes, elements=result.mesh.n_elements, mesh_size=result.mesh.size,
-        notes=tuple(notes), materials=tuple(m.names) if m.E_ref is not None else (),
-        reference=m.reference,
+        notes=tuple(result.profile.notes),
+        materials=tuple(m.names) if m.E_ref is not None else (), reference=m.reference,
+        corners=tuple(result.corners),
     )
 
 

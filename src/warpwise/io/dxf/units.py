@@ -14,10 +14,10 @@ from ...geometry.profile import LENGTH_UNITS
 
 #: $INSUNITS codes: (name, profile unit, factor to that unit); None where not supported.
 INSUNITS: dict[int, tuple[str, tuple[str, float] | None]] = {
-    1: ("inches", ("in", 1.0)), 2: ("feet", ("in", 12.0)), 3: ("miles", None),
+    1: ("inches", ("in", 1.0)), 2: ("feet", ("ft", 1.0)), 3: ("miles", None),
     4: ("millimetres", ("mm", 1.0)), 5: ("centimetres", ("cm", 1.0)), 6: ("metres", ("m", 1.0)),
     7: ("kilometres", ("m", 1000.0)), 8: ("microinches", ("in", 1e-6)), 9: ("mils", ("in", 1e-3)),
-    10: ("yards", ("in", 36.0)), 11: ("angstroms", ("mm", 1e-7)), 12: ("nanometres", ("mm", 1e-6)),
+    10: ("yards", ("ft", 3.0)), 11: ("angstroms", ("mm", 1e-7)), 12: ("nanometres", ("mm", 1e-6)),
     13: ("micrometres", ("mm", 1e-3)), 14: ("decimetres", ("cm", 10.0)),
     15: ("decametres", ("m", 10.0)), 16: ("hectometres", ("m", 100.0)),
     17: ("gigametres", None), 18: ("astronomical units", None), 19: ("light years", None),
@@ -66,8 +66,8 @@ def resolve_units(insunits: int | None, override: str | None, *, file: str | Non
     --------
     >>> resolve_units(1, None).unit, resolve_units(1, "mm").unit, resolve_units(None, None).origin
     ('in', 'mm', 'assumed')
-    >>> resolve_units(2, None).factor
-    12.0
+    >>> resolve_units(10, None).unit, resolve_units(10, None).factor
+    ('ft', 3.0)
 
     """
     if override is not None:
