@@ -65,6 +65,7 @@ def run_props(args: argparse.Namespace) -> int:
     profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
     results = [run_analysis(p, options) for p in profiles]
     records = [record_of(r) for r in results]
+    _warn(records)
     if args.csv:
         atomic_write(args.csv, csv_text(records, units=_table_units(records, args.report_units)))
     shown = [r.in_units(args.report_units or r.units) for r in records]
@@ -73,6 +74,13 @@ def run_props(args: argparse.Namespace) -> int:
     else:
         sys.stdout.write("\n".join(property_table(r) for r in shown))
     return 0
+
+
+def _warn(records: list[Record]) -> None:
+    """Every doubt about the inputs, one line each on stderr."""
+    for rec in records:
+        for w in rec.warnings:
+            print(f"warpwise: warning: {rec.source}: {w}", file=sys.stderr)
 
 
 def _table_units(records: list[Record], chosen: str | None) -> str:
@@ -92,6 +100,7 @@ def run_stress(args: argparse.Namespace) -> int:
                          "and/or --moment-y")
     _given_modulus(args)  # a bad modulus is refused before the analysis
     result = _analyse_file(args.file, args, bounds=False)
+    _warn([record_of(result)])
     loads, G = _in_profile_units(args, result)
     G = reference_shear_modulus(result, G)
     if loads.T != 0 and G is None:
@@ -161,6 +170,7 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     outcomes = run_catalogue(files, options, jobs=args.jobs, on_done=_Progress(len(files)))
     good = [o for o in outcomes if o.ok]
     bad = [o for o in outcomes if not o.ok]
+    _warn([o.record for o in good])
     units = _table_units([o.record for o in good], args.report_units) if good else "mm"
     if good and args.csv:
         atomic_write(args.csv, csv_text([o.record for o in good], units=units))

@@ -59,6 +59,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
         "tau_max_torsion": v(s.tau_max_torsion, STRESS),
         "tau_max_shear": v(s.tau_max_shear, STRESS),
         "twist_rate": v(s.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(s.twist_rate),
+        "warnings": list(result.profile.warnings),
     }
     return json.dumps(obj, indent=2) + "\n"
 
@@ -72,6 +73,7 @@ def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None
     x, y = v.point(s.tau_max_at)
     xs, ys = v.point(result.torsion.shear_centre)
     lines = [f"Shear stresses in {file}  (units {L}, {v.unit(FORCE)}, {stress})",
+             *[f"  WARNING: {w}" for w in result.profile.warnings],
              f"  loads act through the shear centre ({format_value(xs)}, {format_value(ys)}) {L}",
              row("torque", "T", v(s.torque, MOMENT), v.unit(MOMENT)),
              row("shear force along x", "Vx", v(s.vx, FORCE), v.unit(FORCE)),
@@ -108,6 +110,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
                        "tau_max": v(m.tau_max, STRESS), "von_mises_max": v(m.von_mises_max, STRESS),
                        "von_mises_at": v.point(m.von_mises_at), "fy": v(m.fy, STRESS),
                        "utilisation": m.utilisation} for m in c.by_material],
+        "warnings": list(result.profile.warnings),
     }
     return json.dumps(obj, indent=2) + "\n"
 
@@ -121,6 +124,7 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress,
     row = _row(40)
     xs, ys = v.point(result.torsion.shear_centre)
     lines = [f"Stresses in {file}  (units {L}, {force}, {stress})",
+             *[f"  WARNING: {w}" for w in result.profile.warnings],
              f"  shear forces and torque act through the shear centre ({format_value(xs)}, "
              f"{format_value(ys)}) {L}; N through the centroid",
              row("axial force", "N", v(loads.N, FORCE), force),

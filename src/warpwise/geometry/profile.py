@@ -141,6 +141,9 @@ class Profile:
         Remarks made while reading (assumed units, repaired gaps...).
     arcs : tuple of Arc
         Circular arcs of the true outline (the loops are their polygon approximations).
+    warnings : tuple of str
+        Doubts about the input every report must show (an implausible size for an assumed
+        unit...), one line each.
     """
 
     regions: tuple[Region, ...]
@@ -148,6 +151,7 @@ class Profile:
     units: str = "mm"
     notes: tuple[str, ...] = field(default=())
     arcs: tuple[Arc, ...] = field(default=())
+    warnings: tuple[str, ...] = field(default=())
 
     @property
     def area(self) -> float:
@@ -211,7 +215,7 @@ class Profile:
             for r in self.regions
         )
         arcs = tuple(a.moved(rot, off, scale) for a in self.arcs)
-        return Profile(regions, self.source, self.units, self.notes, arcs)
+        return Profile(regions, self.source, self.units, self.notes, arcs, self.warnings)
 
 
 def profile_from_loops(

@@ -155,7 +155,8 @@ def cut(profile: Profile, axes: list[Axis]) -> tuple[Profile, list[int]]:
                 holes.append(h[::-1] if signed_area(h) > 0 else h)
             regions.append(Region(outer, tuple(holes), reg.material))
             origin.append(k)
-    return Profile(tuple(regions), profile.source, profile.units, profile.notes, profile.arcs), origin
+    return Profile(tuple(regions), profile.source, profile.units, profile.notes, profile.arcs,
+                   profile.warnings), origin
 
 
 def mirror_mesh(nodes: np.ndarray, elements: np.ndarray, region: np.ndarray, axis: Axis,

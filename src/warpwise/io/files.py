@@ -16,9 +16,11 @@ warpwise.errors.InputFileError: a.txt: is a binary file, not a text outline file
 
 from __future__ import annotations
 
+from dataclasses import replace
 from pathlib import Path
 
 from ..errors import InputFileError
+from ..geometry.profile import LENGTH_UNITS, Profile
 
 #: Largest input file accepted, bytes.
 MAX_FILE_BYTES = 50 * 1024 * 1024
@@ -68,3 +70,30 @@ def refuse_binary(data: bytes, name: str, expected: str, head: int | None = None
     """
     if b"\x00" in (data if head is None else data[:head]):
         raise InputFileError(f"is a binary file, not {expected}", file=name)
+
+
+#: Sizes (largest dimension, mm) outside which a section drawn without a unit is probably not
+#: in millimetres: below 0.1 mm, above 10 m.
+PLAUSIBLE_MM = (0.1, 10_000.0)
+
+
+def check_assumed_size(profile: Profile) -> Profile:
+    """The profile, with a warning when its size is implausible for the assumed millimetres.
+
+    Call it only for a profile whose unit was assumed (neither the file nor ``--units`` gave
+    one).
+
+    Examples
+    --------
+    >>> from warpwise.geometry.shapes import rectangle
+    >>> check_assumed_size(rectangle(0.05, 0.02)).warnings  # doctest: +NORMALIZE_WHITESPACE
+    ('the section is 0.05 mm across, implausible for the assumed millimetres: give its unit
+    with --units (mm, cm, m, in, ft)',)
+    """
+    lo, hi = PLAUSIBLE_MM
+    size = profile.size
+    if lo <= size <= hi:
+        return profile
+    text = (f"the section is {size:.6g} mm across, implausible for the assumed millimetres: "
+            f"give its unit with --units ({', '.join(LENGTH_UNITS)})")
+    return replace(profile, warnings=(*profile.warnings, text))

@@ -28,7 +28,7 @@ import numpy as np
 
 from ..errors import InputFileError, UsageError
 from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
-from .files import MAX_FILE_BYTES, read_input, refuse_binary
+from .files import MAX_FILE_BYTES, check_assumed_size, read_input, refuse_binary
 
 _SPLIT = re.compile(r"[,;\s]+")
 
@@ -144,7 +144,8 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     elif any(m is None for m in materials):
         raise InputFileError("some loops have a material and some do not: give every loop one "
                              "(a 'material:' line before the first loop)", file=source)
-    return profile_from_loops(loops, materials, source=source, units=chosen, notes=notes)
+    profile = profile_from_loops(loops, materials, source=source, units=chosen, notes=notes)
+    return profile if (units or file_units) else check_assumed_size(profile)
 
 
 def read_outline(path: str | Path, units: str | None = None) -> Profile:

@@ -141,6 +141,14 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
              '<p class="meta">Each name links to the full datasheet. Second moments are about '
              "centroidal axes parallel to x and y; xs, ys is the shear centre in drawing "
              "coordinates.</p></section>"]
+    doubts = [(e, rec) for e, rec in zip(done, records, strict=True) if rec.warnings]
+    if doubts:
+        items = "".join(f'<tr><td>{escape(e.source)}</td><td class="failed">'
+                        f'{escape("; ".join(rec.warnings))}</td></tr>' for e, rec in doubts)
+        parts.append('<section id="warnings"><h2>Profiles with warnings</h2>'
+                     '<table class="properties" id="warning-table"><thead><tr><th scope="col">'
+                     'File</th><th scope="col">Warning</th></tr></thead>'
+                     f"<tbody>{items}</tbody></table></section>")
     if failed:
         items = "".join(f'<tr><td>{escape(e.source)}</td><td class="failed">'
                         f'{escape(e.error or "not analysed")}</td></tr>' for e in failed)

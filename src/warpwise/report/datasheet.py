@@ -30,6 +30,7 @@ from .html_parts import (
     safe_name,
     symbol_html,
     unit_html,
+    warning_box,
 )
 from .plot_files import svg_text
 from .plot_parts import profile_name
@@ -258,6 +259,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     parts = [
         f'<header><h1>{escape(heading)}</h1><p class="meta">'
         + "".join(f"<span>{m}</span>" for m in meta) + "</p></header>",
+        warning_box(rec.warnings),
         f'<section id="overview"><h2>Outline and principal axes</h2><div class="{layout}">'
         f'<figure class="picture" id="outline-picture">{outline}<figcaption>The section to scale '
         f"in {escape(u)}: C centroid, S shear centre, principal axes 1 (major) and 2 (minor) "

@@ -91,6 +91,7 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
     obj["mesh"] = {"nodes": rec.nodes, "elements": rec.elements, "size": rec.mesh_size}
     obj["notes"] = list(rec.remarks)
+    obj["warnings"] = list(rec.warnings)
     if rec.errors is not None:
         obj["relative_error"] = dict(rec.errors)
     return obj
@@ -105,7 +106,7 @@ def json_text(items: list[SectionResult] | list[Record]) -> str:
 def csv_header(length: str) -> list[str]:
     """CSV column headers, each with its unit, e.g. ``A (mm2)``."""
     return ["file", "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
-            "mesh nodes (count)", "mesh elements (count)"]
+            "mesh nodes (count)", "mesh elements (count)", "warnings (text)"]
 
 
 def csv_text(items: list[SectionResult] | list[Record], units: str | None = None) -> str:
@@ -134,7 +135,8 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     for r in recs:
         v = r.values
         row = [r.source, r.units, *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}"
-                                    for q in QUANTITIES], r.nodes, r.elements]
+                                    for q in QUANTITIES], r.nodes, r.elements,
+               "; ".join(r.warnings)]
         if with_errors:
             row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
         w.writerow(row)

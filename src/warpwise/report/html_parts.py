@@ -276,6 +276,14 @@ def footer() -> str:
             "Values in the drawing's length unit.</footer>")
 
 
+def warning_box(warnings: Sequence[str]) -> str:
+    """A box of doubts about the input (empty text when there are none)."""
+    if not warnings:
+        return ""
+    paras = "".join(f"<p>{escape(w)}</p>" for w in warnings)
+    return f'<section class="caution" id="warnings"><h2>Warning</h2>{paras}</section>'
+
+
 def caution_box() -> str:
     """The box of :data:`CAUTIONS`."""
     paras = "".join(f"<p>{escape(c)}</p>" for c in CAUTIONS)

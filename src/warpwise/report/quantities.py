@@ -163,7 +163,7 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("Mpl_x", "Mpl,x", "plastic moment about x", 1,
          "integral of fy |y - ypl| dA, ypl balancing fy over the section", "moment"),
         ("Mpl_y", "Mpl,y", "plastic moment about y", 1, "integral of fy |x - xpl| dA", "moment"),
-        ("mass", "m", "mass per metre", 0, "sum of density x area", "mass"),
+        ("mass", "m", "mass per length", 0, "sum of density x area (per metre or per foot)", "mass"),
     ),
 }
 
@@ -212,11 +212,32 @@ def values(result: SectionResult) -> dict[str, float]:
                     "Wpl_1": pl.Wpl_1, "Wpl_2": pl.Wpl_2, "shape_x": pl.Wpl_x / g.Wel["x"],
                     "shape_y": pl.Wpl_y / g.Wel["y"]})
     out.update(_material_values(result))
-    tiny = 1e-12 * result.profile.size  # round-off of a coordinate that is zero
-    for k in ("xc", "yc", "xs", "ys", "xse", "yse", "beta_1", "beta_2", "xe", "ye"):
-        if abs(out[k]) < tiny:
-            out[k] = 0.0
+    _zero_round_off(out, result.profile.size, g.A)
     return {q.key: float(out[q.key]) for q in QUANTITIES}
+
+
+#: Relative size below which a value that is zero by symmetry is round-off and printed as 0
+#: (common practice, no source): 1e-12 of the section's size for exact integrals, 1e-9 for
+#: values from the finite-element solves (their relative residual is checked to 1e-8).
+EXACT_ROUND_OFF, SOLVED_ROUND_OFF = 1e-12, 1e-9
+
+
+def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
+    """Set to 0 every value that is round-off relative to the section's size (in place).
+
+    Coordinates against the size; product moments against the polar moments; omega against
+    size^2 and Cw against (size^2)^2 A, the square of omega's round-off over the area.
+    """
+    omega_tiny = EXACT_ROUND_OFF * size**2
+    scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y"), EXACT_ROUND_OFF * size),
+             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2"), SOLVED_ROUND_OFF * size),
+             "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
+             "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
+             "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
+             "ECw": omega_tiny**2 * area * abs(out["E_ref"])}
+    for key, tiny in scale.items():
+        if abs(out[key]) < tiny:  # nan (not computed) stays nan
+            out[key] = 0.0
 
 
 def _material_values(result: SectionResult) -> dict[str, float]:

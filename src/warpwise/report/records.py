@@ -43,6 +43,8 @@ class Record:
         Further values of a caller's own.
     corners : tuple of Corner
         Sharp re-entrant corners (coordinates and radius in ``units``).
+    warnings : tuple of str
+        Doubts about the input that every report shows (see ``Profile.warnings``).
     """
 
     source: str
@@ -57,6 +59,7 @@ class Record:
     reference: str = ""
     extra: dict[str, float] = field(default_factory=dict)
     corners: tuple[Corner, ...] = ()
+    warnings: tuple[str, ...] = ()
 
     @property
     def remarks(self) -> tuple[str, ...]:
@@ -94,7 +97,7 @@ def record_of(result: SectionResult) -> Record:
         nodes=result.mesh.n_nodes, elements=result.mesh.n_elements, mesh_size=result.mesh.size,
         notes=tuple(result.profile.notes),
         materials=tuple(m.names) if m.E_ref is not None else (), reference=m.reference,
-        corners=tuple(result.corners),
+        corners=tuple(result.corners), warnings=tuple(result.profile.warnings),
     )
 
 

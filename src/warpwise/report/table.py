@@ -83,6 +83,7 @@ def property_table(rec: Record) -> str:
         f"  unit system {system_text(unit)}; mesh of {rec.elements} six-node triangles, "
         f"{rec.nodes} nodes, largest element size {rec.mesh_size:.3g} {unit}",
     ]
+    lines += [f"  WARNING: {w}" for w in rec.warnings]
     lines += [f"  note: {n}" for n in rec.remarks]
     group = None
     for q in QUANTITIES:

@@ -18,6 +18,7 @@ from ...errors import ProfileError, UsageError
 from ...geometry.profile import Profile, default_element_size, profile_from_loops
 from ..chords import arcs_for_mesh, chord_error, loop_points
 from ..defects import Defect, fmt, plural
+from ..files import check_assumed_size
 from ..nesting import Part, describe_part
 from ..pieces import Piece
 from .layout import JOIN_TOLERANCE, Layout, Loop
@@ -217,6 +218,8 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     same = 1e-9 * layout.tolerance / JOIN_TOLERANCE  # centres and radii equal to round-off
     profile = profile_from_loops(loops, materials, source=name, units=d.units.unit, notes=notes,
                                  arcs=arcs_for_mesh(arcs, same))
+    if d.units.origin == "assumed":
+        profile = check_assumed_size(profile)
     return DxfProfile(profile, tuple(layers), float(s), layout.tolerance, part)
 
 
