@@ -273,7 +273,7 @@ def footer() -> str:
     """The footer every page ends with: program, version and method."""
     return (f"<footer>Computed with warpwise {escape(__version__)}: six-node triangle finite "
             "elements on the drawn outline (Saint-Venant warping, Trefftz shear centre). "
-            "Values in the drawing's length unit.</footer>")
+            "Every value is shown with its unit.</footer>")
 
 
 def warning_box(warnings: Sequence[str]) -> str:
