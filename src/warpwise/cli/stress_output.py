@@ -8,15 +8,28 @@ from __future__ import annotations
 
 import json
 from collections.abc import Callable
+from dataclasses import dataclass
 
 from ..properties.analysis import SectionResult
+from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
 from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
 
 
+@dataclass(frozen=True)
 class _View(Converter):
     """Values of one result in the report's unit system, and their unit texts."""
+
+    tiny: float = 0.0  # a coordinate below this (profile units) is round-off of 0
+
+    @classmethod
+    def of_result(cls, result: SectionResult, units: str | None) -> _View:
+        base = Converter.of(result.units, units)
+        return cls(base.source, base.target, SOLVED_ROUND_OFF * result.profile.size)
+
+    def point(self, xy) -> list[float]:
+        return super().point([0.0 if abs(v) < self.tiny else v for v in xy])
 
     def twist_deg(self, rate: float | None) -> float | None:
         return None if rate is None else twist_in_degrees(self(rate, TWIST), self.target)
@@ -48,7 +61,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
     ``G`` is in the profile's stress unit; ``units`` names the report's unit system (default
     the profile's).
     """
-    v = _View.of(result.units, units)
+    v = _View.of_result(result, units)
     obj = {
         "file": file, "units": v.names(),
         "torque": v(s.torque, MOMENT), "shear_x": v(s.vx, FORCE), "shear_y": v(s.vy, FORCE),
@@ -67,7 +80,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
 def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None,
                units: str | None = None) -> str:
     """Readable table of the shear stresses from a torque and shear forces (see shear_json)."""
-    v = _View.of(result.units, units)
+    v = _View.of_result(result, units)
     L, stress = v.system.length, v.unit(STRESS)
     row = _row(38)
     x, y = v.point(s.tau_max_at)
@@ -92,7 +105,7 @@ def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None
 def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float | None,
                   units: str | None = None) -> str:
     """JSON of the stresses under combined loads, per material, in the report's units."""
-    v = _View.of(result.units, units)
+    v = _View.of_result(result, units)
     loads = c.loads
     top = max(c.by_material, key=lambda m: m.von_mises_max)
     obj = {
@@ -118,7 +131,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
 def combined_text(file: str, result: SectionResult, c: CombinedStress,
                   units: str | None = None) -> str:
     """Readable table of the stresses under combined loads, per material (see combined_json)."""
-    v = _View.of(result.units, units)
+    v = _View.of_result(result, units)
     loads, L = c.loads, v.system.length
     force, moment, stress = v.unit(FORCE), v.unit(MOMENT), v.unit(STRESS)
     row = _row(40)

@@ -67,6 +67,11 @@ def atomic_write(path: str | Path, data: str | bytes) -> None:
         raise
 
 
+#: JSON keys of points: [x, y] arrays of two quantities (the CSV has the two columns).
+JSON_POINTS = {"centroid": ("xc", "yc"), "shear_centre": ("xs", "ys"),
+               "shear_centre_elastic": ("xse", "yse")}
+
+
 def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     """JSON object of one result, keys as in the design contract, values in the length unit.
 
@@ -81,14 +86,12 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
                              "mass": u.linear_mass})
         obj["materials"] = list(rec.materials)
         obj["reference_material"] = rec.reference
+    in_points = {k for pair in JSON_POINTS.values() for k in pair}
     for q in QUANTITIES:
-        if q.key in ("xc", "yc", "xs", "ys", "xse", "yse"):
-            continue
-        if v[q.key] == v[q.key]:
+        if q.key not in in_points and v[q.key] == v[q.key]:
             obj[q.key] = v[q.key]
-    obj["centroid"] = [v["xc"], v["yc"]]
-    obj["shear_centre"] = [v["xs"], v["ys"]]
-    obj["shear_centre_elastic"] = [v["xse"], v["yse"]]
+    for name, (kx, ky) in JSON_POINTS.items():
+        obj[name] = [v[kx], v[ky]]
     obj["mesh"] = {"nodes": rec.nodes, "elements": rec.elements, "size": rec.mesh_size}
     obj["notes"] = list(rec.remarks)
     obj["warnings"] = list(rec.warnings)
