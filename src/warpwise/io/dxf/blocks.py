@@ -1,54 +1,329 @@
-"""Block references (INSERT): the entities of a block, placed by the reference's transform.
+"""Block references (INSERT, MINSERT): the entities of a block, placed by the composed transform.
 
-:func:`block_entities` expands one reference, a grid of them (MINSERT) included, into ezdxf's
-virtual entities with the layer and the label each is read with: an entity on layer 0 takes the
-layer of the reference, and its label names the block and the reference it came through.
-References nested deeper than :data:`MAX_BLOCK_DEPTH` are left out with a warning.
+:func:`block_entities` expands one model-space reference, at any depth of nesting, into
+entities in the drawing's coordinates, each with the layer and the label it is read with: an
+entity on layer 0 takes the layer of the reference it comes through, and its label names the
+block, the reference and the blocks between.
+
+Each level's transform is ezdxf's ``Insert.matrix44()`` (insertion point, block base point,
+scale, rotation and extrusion), each cell of a MINSERT array one of ezdxf's ``multi_insert()``
+references; the levels are composed into one matrix and every leaf entity is placed once by
+it, exactly, whatever the mirror, non-uniform scale or shear (rotation between non-uniform
+scales) of the composition:
+
+- CIRCLE, ARC and ELLIPSE become an ELLIPSE (an ellipse arc) of the transformed centre and
+  conjugate semi-diameters, brought to its principal axes; the ellipse reader reads one whose
+  axes came out equal as a circle or a circular arc (under a similarity);
+- LWPOLYLINE and 2D POLYLINE vertices are transformed; under a similarity a bulge keeps its
+  value (its sign flips under a mirror), under any other transform each bulge arc becomes an
+  ellipse arc and the straight segments lines;
+- SPLINE control points are transformed (a fit-point spline first gets its control points in
+  the block's coordinates, as its interpolation is not affine invariant);
+- every other entity (LINE, 3D POLYLINE, text, hatches...) by its own ezdxf ``transform``.
+
+A mirror (negative determinant) reverses the direction of the arcs, so each placed arc is
+given counter-clockwise from its transformed end. References nested deeper than
+:data:`MAX_BLOCK_DEPTH` and a block reached again through itself are left out with a warning;
+a drawing whose references expand to more than :data:`MAX_BLOCK_ENTITIES` entities is refused.
 """
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+import math
+from collections.abc import Collection, Iterator, Sequence
+from dataclasses import dataclass, field
 
-from .collect import PieceCollector
+import numpy as np
+
+from ...errors import InputFileError
+from ..pieces import bulge_arc
+from .collect import MAX_PIECES, PieceCollector
+from .document import why
 
 #: Deepest nesting of block references followed.
 MAX_BLOCK_DEPTH = 16
 
+#: Most entities (MINSERT cells counted) the block references of one drawing may expand to,
+#: as many as pieces are read (so that a reference bomb is refused within seconds).
+MAX_BLOCK_ENTITIES = MAX_PIECES
 
-def block_entities(out: PieceCollector, e: object, layer: str, label: str,
-                   depth: int) -> Iterator[tuple[object, str, str]]:
-    """The entities of a block reference, in the drawing's coordinates.
+#: Relative round-off below which two axes count as equal, or as perpendicular, or out of plane.
+_ROUND_OFF = 1e-9
+
+#: Flattest ellipse ezdxf keeps (axis ratio).
+_MIN_RATIO = 1e-6
+
+
+@dataclass
+class _Walk:
+    """One model-space reference being expanded."""
+
+    out: PieceCollector
+    top: str  # label of the model-space reference
+    budget: int  # entities (and MINSERT cells) still allowed
+    readable: Collection[str] | None  # types read as geometry (None: all)
+    warned: set[str] = field(default_factory=set)
+
+    def warn(self, key: str, text: str, layer: str) -> None:
+        """A warning, once per expansion."""
+        if key not in self.warned:
+            self.warned.add(key)
+            self.out.warn("unreadable", text, layer=layer)
+
+    def spend(self, n: int) -> None:
+        """Count n entities or cells against :data:`MAX_BLOCK_ENTITIES`."""
+        self.budget -= n
+        if self.budget < 0:
+            raise InputFileError(f"its block references expand to more than {MAX_BLOCK_ENTITIES:,} "
+                                 "entities; this is not a section drawing", file=self.out.source)
+
+
+def block_entities(out: PieceCollector, e: object, layer: str, label: str, depth: int = 0,
+                   readable: Collection[str] | None = None) -> Iterator[tuple[object, str, str]]:
+    """The entities of a block reference, nested ones expanded, in the drawing's coordinates.
 
     Parameters
     ----------
     out : PieceCollector
-        Counts the entities met in blocks; takes the warning for a reference nested too deep.
+        Counts the entities met in blocks; takes the warnings (a reference nested too deep, a
+        block that references itself, an entity that cannot be placed or is tilted).
     e : ezdxf INSERT entity
-        The reference.
+        The reference (a MINSERT array included).
     layer, label : str
         Layer and label of the reference.
     depth : int
         How many references it is met in (0 in model space).
+    readable : collection of str, optional
+        Entity types read as geometry (default: every type). An entity of another type that
+        ezdxf cannot transform (a dimension under shear, say) is yielded as it stands in the
+        block, to be counted and left out; one of these types is left out with a warning.
 
     Yields
     ------
     (entity, layer, label)
-        Each virtual entity with the layer and label to read it with.
+        Each leaf entity (never an INSERT), placed, with the layer and label to read it with.
+
+    Raises
+    ------
+    InputFileError
+        When the references expand to more than :data:`MAX_BLOCK_ENTITIES` entities.
 
     """
-    name = e.dxf.get("name", "?")
+    from ezdxf.math import Matrix44
+
+    walk = _Walk(out, label, MAX_BLOCK_ENTITIES - sum(out.in_blocks.values()), readable)
+    yield from _expand(walk, e, Matrix44(), layer, (), depth)
+
+
+def _where(walk: _Walk, path: Sequence[str]) -> str:
+    """The model-space reference and the blocks it leads through, for labels."""
+    return walk.top + (" via " + " > ".join(repr(n) for n in path) if path else "")
+
+
+def _cells(walk: _Walk, ins: object) -> list:
+    """The references of an INSERT: itself, or one per cell of a MINSERT array."""
+    if ins.mcount <= 1:
+        return [ins]
+    walk.spend(int(ins.dxf.row_count) * int(ins.dxf.column_count))  # before ezdxf loops over them
+    return list(ins.multi_insert())
+
+
+def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[str, ...],
+            depth: int) -> Iterator[tuple[object, str, str]]:
+    """The leaf entities of one reference met through the blocks ``path``, ``parent`` above it."""
+    name = ins.dxf.get("name", "?")
+    where = _where(walk, path)
     if depth >= MAX_BLOCK_DEPTH:
-        out.warn("unreadable", f"{label} (block {name!r}) nests blocks more than "
-                 f"{MAX_BLOCK_DEPTH} deep: left out", layer=layer)
+        walk.warn(f"depth {name}", f"{where} (block {name!r}) nests blocks more than "
+                  f"{MAX_BLOCK_DEPTH} deep: left out", layer)
         return
-    grid = list(e.multi_insert()) if e.mcount > 1 else [e]
-    for ins in grid:
-        for v in ins.virtual_entities():
-            t = v.dxftype()
-            out.in_blocks[t] += 1
-            sub_layer = v.dxf.get("layer", "0")
+    blk = ins.block()
+    if blk is None:
+        walk.warn(f"missing {name}", f"{where} refers to block {name!r}, which the drawing does "
+                  "not define: left out", layer)
+        return
+    keys = [p.upper() for p in path]  # block names are case-insensitive
+    if blk.name.upper() in keys:
+        loop = " > ".join(repr(n) for n in (*path[keys.index(blk.name.upper()):], blk.name))
+        walk.warn(f"cycle {blk.name}", f"block {blk.name!r} references itself ({loop}): that "
+                  f"reference ({where}) is left out", layer)
+        return
+    inner = (*path, blk.name)
+    cells = _cells(walk, ins)
+    for k, cell in enumerate(cells):
+        m = cell.matrix44() @ parent  # ezdxf matrices act on row vectors: inner level first
+        at = where if len(cells) == 1 else f"{where}, cell {k + 1} of {len(cells)}"
+        for ent in blk:
+            t = ent.dxftype()
+            if t == "ATTDEF":  # attribute definitions are not drawn
+                continue
+            walk.spend(1)
+            walk.out.in_blocks[t] += 1
+            sub_layer = ent.dxf.get("layer", "0") or "0"
             if sub_layer == "0":  # entities on layer 0 take the layer of the reference
                 sub_layer = layer
-            where = label if depth == 0 else label.split(" in block ")[0]
-            yield v, sub_layer, f"{t} in block {name!r} ({where})"
+            if t == "INSERT":
+                yield from _expand(walk, ent, m, sub_layer, inner, depth + 1)
+                continue
+            sub_label = f"{t} in block {blk.name!r} ({at})"
+            try:
+                placed = _place(ent, m)
+            except InputFileError:
+                raise
+            except Exception as exc:  # a damaged entity, or one ezdxf cannot transform
+                if walk.readable is not None and t not in walk.readable:
+                    yield ent, sub_layer, sub_label  # not geometry: only counted, where it stands
+                    continue
+                walk.out.warn("unreadable", f"{sub_label} on layer {sub_layer} cannot be placed "
+                              f"({why(exc)}): left out", layer=sub_layer)
+                continue
+            if placed is None:
+                walk.out.tilted(sub_label, sub_layer)
+                continue
+            for v in placed:
+                yield v, sub_layer, sub_label
+
+
+def _place(e: object, m: object) -> list | None:
+    """Entity e of a block placed by matrix m: new entities, or None if out of the x-y plane."""
+    t = e.dxftype()
+    if t in ("CIRCLE", "ARC"):
+        return _one(_placed_conic(*_circle_conic(e), m))
+    if t == "ELLIPSE":
+        ct = e.construction_tool()
+        span = float(ct.param_span)
+        full = span >= 2 * math.pi - 1e-12 or span <= 1e-12
+        t0 = float(ct.start_param)
+        return _one(_placed_conic(_vec(ct.center), _vec(ct.major_axis), _vec(ct.minor_axis),
+                                  t0, t0 + span, full, m))
+    if t == "LWPOLYLINE":
+        pts = np.asarray(e.get_points("xyb"), dtype=float).reshape(-1, 3)
+        elev = float(e.dxf.get("elevation", 0.0) or 0.0)
+        loc = np.column_stack([pts[:, :2], np.full(len(pts), elev)])
+        return _placed_polyline(loc, pts[:, 2], bool(e.closed), _extrusion(e), m)
+    if t == "POLYLINE" and not (e.is_3d_polyline or e.is_poly_face_mesh or e.is_polygon_mesh):
+        verts = [v for v in e.vertices if not (int(v.dxf.get("flags", 0)) & 16)]
+        loc = np.asarray([tuple(v.dxf.location) for v in verts], dtype=float).reshape(-1, 3)
+        bulge = np.asarray([float(v.dxf.get("bulge", 0.0) or 0.0) for v in verts], dtype=float)
+        return _placed_polyline(loc, bulge, bool(e.is_closed), _extrusion(e), m)
+    if t == "SPLINE":
+        from ezdxf.entities import Spline
+
+        v = Spline.new(dxfattribs={"layer": e.dxf.get("layer", "0")})
+        v.apply_construction_tool(e.construction_tool().transform(m))
+        return [v]
+    v = e.copy()
+    v.transform(m)
+    return [v]
+
+
+def _one(v: object | None) -> list | None:
+    return None if v is None else [v]
+
+
+def _vec(p: object) -> np.ndarray:
+    return np.asarray(tuple(p)[:3], dtype=float)
+
+
+def _extrusion(e: object) -> tuple[float, float, float]:
+    ex = tuple(e.dxf.get("extrusion", (0.0, 0.0, 1.0)))
+    return ex if len(ex) == 3 and any(ex) and all(map(math.isfinite, ex)) else (0.0, 0.0, 1.0)
+
+
+def _ocs_axes(extrusion: Sequence[float]) -> tuple:
+    """WCS map of an OCS point (a function) and the OCS x and y axes in the WCS."""
+    from ezdxf.math import OCS
+
+    ocs = OCS(extrusion)
+    return (lambda p: _vec(ocs.to_wcs(tuple(float(x) for x in p)))), _vec(ocs.ux), _vec(ocs.uy)
+
+
+def _circle_conic(e: object) -> tuple:
+    """CIRCLE or ARC as (centre, u, v, t0, t1, full): c + u cos t + v sin t, WCS, t0 <= t <= t1."""
+    from ezdxf.math import arc_angle_span_deg
+
+    to_wcs, ux, uy = _ocs_axes(_extrusion(e))
+    r = float(e.dxf.radius)
+    c = to_wcs(tuple(e.dxf.center))
+    if e.dxftype() == "CIRCLE":
+        return c, r * ux, r * uy, 0.0, 2 * math.pi, True
+    a0, a1 = float(e.dxf.start_angle), float(e.dxf.end_angle)
+    span = math.radians(arc_angle_span_deg(a0, a1))
+    t0 = math.radians(a0)
+    return c, r * ux, r * uy, t0, t0 + span, span >= 2 * math.pi - 1e-12
+
+
+def _placed_conic(c: np.ndarray, u: np.ndarray, v: np.ndarray, t0: float, t1: float, full: bool,
+                  m: object) -> object | None:
+    """The ELLIPSE of c + u cos t + v sin t (t0 <= t <= t1, WCS) placed by m, or None if tilted.
+
+    The transformed conjugate semi-diameters u, v are turned to the principal axes: with
+    tan 2 phi = 2 u.v / (u.u - v.v), p = u cos phi + v sin phi is the major semi-axis and
+    q = -u sin phi + v cos phi the minor one, and the parameter shifts by phi. A mirror (u x v
+    pointing down) negates v and the parameter, so that the ellipse runs counter-clockwise
+    about +z from the placed arc's end to its start.
+    """
+    from ezdxf.entities import Ellipse
+
+    c = _vec(m.transform(tuple(c)))
+    u, v = _vec(m.transform_direction(tuple(u))), _vec(m.transform_direction(tuple(v)))
+    size = max(float(np.linalg.norm(u)), float(np.linalg.norm(v)))
+    if not size > 0:
+        raise ValueError("the reference's scale shrinks it to a point")
+    if abs(u[2]) > _ROUND_OFF * size or abs(v[2]) > _ROUND_OFF * size:
+        return None
+    u, v = u[:2], v[:2]
+    if u[0] * v[1] - u[1] * v[0] < 0:  # mirrored: run the other way round
+        v, t0, t1 = -v, -t1, -t0
+    phi = 0.5 * math.atan2(2.0 * float(u @ v), float(u @ u - v @ v))
+    p = u * math.cos(phi) + v * math.sin(phi)
+    q = -u * math.sin(phi) + v * math.cos(phi)
+    ratio = min(float(np.linalg.norm(q) / np.linalg.norm(p)), 1.0)
+    if ratio < _MIN_RATIO:
+        raise ValueError("the reference's scale squashes it flat")
+    s0, s1 = (0.0, 2 * math.pi) if full else (t0 - phi, t1 - phi)
+    return Ellipse.new(dxfattribs={"center": tuple(c), "major_axis": (p[0], p[1], 0.0),
+                                   "ratio": ratio, "start_param": s0, "end_param": s1,
+                                   "extrusion": (0.0, 0.0, 1.0)})
+
+
+def _placed_polyline(loc: np.ndarray, bulges: np.ndarray, closed: bool,
+                     extrusion: Sequence[float], m: object) -> list | None:
+    """A 2D polyline (OCS vertices, bulges) placed by m: an LWPOLYLINE, or lines and ellipse arcs.
+
+    Returns None when its plane is placed out of the x-y plane.
+    """
+    from ezdxf.entities import Line, LWPolyline
+
+    to_wcs, ux, uy = _ocs_axes(extrusion)
+    ax, ay = _vec(m.transform_direction(tuple(ux))), _vec(m.transform_direction(tuple(uy)))
+    size = max(float(np.linalg.norm(ax)), float(np.linalg.norm(ay)))
+    if size > 0 and (abs(ax[2]) > _ROUND_OFF * size or abs(ay[2]) > _ROUND_OFF * size):
+        return None
+    xyz = np.array([_vec(m.transform(tuple(to_wcs(p)))) for p in loc]).reshape(-1, 3)
+    det = float(ax[0] * ay[1] - ax[1] * ay[0])
+    similar = (abs(float(ax @ ax - ay @ ay)) <= _ROUND_OFF * size * size
+               and abs(float(ax @ ay)) <= _ROUND_OFF * size * size)
+    arcs = np.isfinite(bulges) & (np.abs(bulges) > 1e-12)
+    if similar or not arcs.any():
+        v = LWPolyline.new(dxfattribs={"elevation": float(xyz[0, 2]) if len(xyz) else 0.0,
+                                       "extrusion": (0.0, 0.0, 1.0)})
+        b = np.where(arcs, bulges, 0.0) * (-1.0 if det < 0 else 1.0)
+        v.set_points([(x, y, bb) for (x, y), bb in zip(xyz[:, :2].tolist(), b.tolist(),
+                                                        strict=True)], format="xyb")
+        v.closed = closed
+        return [v]
+    out: list = []
+    n = len(loc)
+    for k in range(n if closed else n - 1):
+        j = (k + 1) % n
+        p, q = loc[k, :2], loc[j, :2]
+        if arcs[k] and np.hypot(*(q - p)) > 0:
+            c2, r, t0, sweep, _, _ = bulge_arc(p, q, float(bulges[k]))
+            c = to_wcs((c2[0], c2[1], loc[k, 2]))
+            lo, hi = (t0, t0 + sweep) if sweep > 0 else (t0 + sweep, t0)
+            piece = _placed_conic(c, r * ux, r * uy, lo, hi, False, m)
+        else:
+            piece = Line.new(dxfattribs={"start": tuple(xyz[k]), "end": tuple(xyz[j])})
+        out.append(piece)
+    return out

@@ -192,8 +192,8 @@ def read_polyline(out: PieceCollector, e: object, layer: str, label: str, depth:
 
 
 def read_insert(out: PieceCollector, e: object, layer: str, label: str, depth: int = 0) -> None:
-    """INSERT: every entity of the block, read as if it stood in model space."""
-    for v, sub_layer, sub_label in block_entities(out, e, layer, label, depth):
+    """INSERT: every entity of the block (nested ones too), placed by :mod:`.blocks`, then read."""
+    for v, sub_layer, sub_label in block_entities(out, e, layer, label, depth, READERS):
         read_entity(out, v, sub_layer, sub_label, depth + 1)
 
 
