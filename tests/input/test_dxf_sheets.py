@@ -128,7 +128,7 @@ def new_sheet():
 def add_frame_and_title_block(msp, layer="frame"):
     """A4 landscape: the trimmed sheet edge, the frame inside it, and a title block of
     overlapping rectangles in its lower right corner (they share edges with the frame and each
-    other), with text."""
+    other), with text and a solid-filled logo (a hatch, but not a section)."""
     msp.add_lwpolyline([(0, 0), (297, 0), (297, 210), (0, 210)], close=True, dxfattribs={"layer": layer})
     msp.add_lwpolyline([(20, 10), (287, 10), (287, 200), (20, 200)], close=True, dxfattribs={"layer": layer})
     cells = [(187, 10, 287, 46), (187, 10, 237, 28), (237, 10, 287, 28), (187, 28, 287, 46),
@@ -138,6 +138,8 @@ def add_frame_and_title_block(msp, layer="frame"):
                            dxfattribs={"layer": layer})
     for k, text in enumerate(("HOLLOW RAIL HR-60", "scale 1:1", "drawn: nobody", "sheet 1 of 1")):
         msp.add_text(text, height=3, dxfattribs={"layer": "text"}).set_placement((190, 13 + 9 * k))
+    logo = msp.add_hatch(color=1, dxfattribs={"layer": layer})  # a filled triangle in a cell
+    logo.paths.add_polyline_path([(277, 39), (284, 39), (280.5, 44)], is_closed=True)
 
 
 def full_sheet(tmp_path, name="sheet.dxf"):
@@ -174,7 +176,7 @@ def test_full_sheet_gives_the_hatched_section_without_options(tmp_path, cli):
     assert len(p.regions) == 1 and len(p.regions[0].holes) == 1
     notes = " | ".join(p.notes)
     assert "taken as the drawing frame and left out" in notes
-    assert "title block (5 loops" in notes
+    assert "title block (6 loops" in notes  # 5 cells and the logo
     # the side view (100 x 40 mm) is the larger part, part 1; the hatched section is part 2
     assert "part 2 of 2 taken as the section: the only hatched part" in notes and result.part == 2
     assert_section(p, rail_exact(), CURVED)
@@ -438,3 +440,42 @@ def test_frame_is_kept_when_leaving_it_out_would_make_the_hatch_a_hole(tmp_path)
     result = import_dxf(drawn(tmp_path, "window.dxf", build))
     assert not any("frame" in n for n in result.profile.notes)
     assert result.profile.area == pytest.approx(math.pi * 64, rel=POLYGON)  # closed form: the bar
+
+
+def test_layers_of_a_sheet(tmp_path):
+    path = full_sheet(tmp_path)
+    # the contour layer alone: no frame; the hatch (on a layer not chosen) still marks the section
+    result = import_dxf(path, layers=["contour"])
+    assert result.part == 2 and not any("frame" in n for n in result.profile.notes)
+    assert result.profile.area == pytest.approx(rail_exact().area, rel=POLYGON)
+    # the hatch layer alone: the section read from the hatch's bulge paths
+    p = import_dxf(path, layers=["hatch"]).profile
+    assert any("outline read from the boundary of HATCH" in n for n in p.notes)
+    assert_section(p, rail_exact(), CURVED)
+
+
+RECT = [(0, 0), (50, 0), (50, 30), (0, 30)]
+
+
+@pytest.mark.parametrize(("style", "loops"), [(0, 3), (1, 2), (2, 1)])
+def test_hatch_style_decides_its_holes(tmp_path, style, loops):
+    # DXF hatch styles: 0 fills between every other boundary, 1 the outermost area only (the
+    # hole stays a hole, the island in it is not filled), 2 everything inside the outermost
+    def fill(paths):
+        paths.add_polyline_path(RECT, is_closed=True)
+        paths.add_polyline_path([(15, 15, 1), (35, 15, 1)], is_closed=True)  # a 10 mm hole
+        paths.add_polyline_path([(20, 15, 1), (30, 15, 1)], is_closed=True)  # a 5 mm island in it
+        paths.add_polyline_path([(2, 2), (8, 2), (8, 5), (2, 5)], is_closed=True, flags=8)  # text box
+
+    doc, msp = new_sheet()
+    hatch = msp.add_hatch(dxfattribs={"hatch_style": style})
+    fill(hatch.paths)
+    path = tmp_path / f"style{style}.dxf"
+    doc.saveas(path)
+    layout = lay_out(read_drawing(path))
+    assert len(layout.loops) == loops  # the text box is never a loop
+    solids = sum(1 for lp in layout.loops if lp.depth % 2 == 0)
+    assert solids == (2 if style == 0 else 1)
+    # closed forms: 1500 - pi 10^2 (+ pi 5^2 for the island of style 0); 1500 for style 2
+    exact = {0: 1500 - math.pi * 100 + math.pi * 25, 1: 1500 - math.pi * 100, 2: 1500.0}[style]
+    assert sum(p.area for p in layout.parts) == pytest.approx(exact, rel=POLYGON)

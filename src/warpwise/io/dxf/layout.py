@@ -273,13 +273,11 @@ def _loops_of(drawing: Drawing, chains: Sequence[Chain], tol: float,
             marks.setdefault(j, h.hatch)
     loops = [Loop(c, drawn[k], c.layer, f"{c.labels(pieces, 2)}, layer {c.layer}",
                   hatch=marks.get(k, "")) for k, c in enumerate(chains)]
-    extra: list[Loop] = []
-    for h, j in zip(hatch, repeats, strict=True):
-        if j >= 0 or (layers is not None and h.layer not in layers):
-            continue
-        if match_hatches([lp.points for lp in extra], [h.points], tol)[0] < 0:
-            extra.append(Loop(h.chain, h.points, h.layer, f"{h.label}, layer {h.layer}",
-                              hatch="" if h.hole else h.hatch))
+    own = [h for h, j in zip(hatch, repeats, strict=True)
+           if j < 0 and (layers is None or h.layer in layers)]
+    again = match_hatches([h.points for h in own], [h.points for h in own], tol, earlier=True)
+    extra = [Loop(h.chain, h.points, h.layer, f"{h.label}, layer {h.layer}", hatch="" if h.hole else h.hatch)
+             for h, j in zip(own, again, strict=True) if j < 0]
     return loops + extra, defects
 
 

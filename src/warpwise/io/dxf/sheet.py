@@ -48,7 +48,8 @@ def _size(points: np.ndarray) -> float:
     return float(np.hypot(*np.ptp(points, axis=0)))
 
 
-def match_hatches(drawn: Sequence[np.ndarray], hatch: Sequence[np.ndarray], tol: float) -> list[int]:
+def match_hatches(drawn: Sequence[np.ndarray], hatch: Sequence[np.ndarray], tol: float, *,
+                  earlier: bool = False) -> list[int]:
     """The drawn loop each hatch boundary repeats.
 
     Parameters
@@ -59,12 +60,15 @@ def match_hatches(drawn: Sequence[np.ndarray], hatch: Sequence[np.ndarray], tol:
         Polygons (n, 2) of the hatch boundaries, profile unit.
     tol : float
         Joining tolerance, profile unit.
+    earlier : bool
+        ``drawn`` and ``hatch`` are the same loops: look for a repeat among the loops before
+        each one.
 
     Returns
     -------
     list of int
-        For each hatch boundary, the index of the drawn loop within :data:`HATCH_MATCH` of it
-        (Hausdorff distance), -1 for none.
+        For each hatch boundary, the index of the first drawn loop within :data:`HATCH_MATCH`
+        of it (Hausdorff distance), -1 for none.
 
     """
     out = [-1] * len(hatch)
@@ -78,10 +82,11 @@ def match_hatches(drawn: Sequence[np.ndarray], hatch: Sequence[np.ndarray], tol:
             continue
         ring = LinearRing(pts)
         limit = max(HATCH_MATCH * _size(pts), HATCH_MATCH_JOINS * tol)
-        for j in tree.query(ring, predicate="dwithin", distance=limit):
-            other = rings[int(j)]
-            if shapely.hausdorff_distance(ring, other, densify=0.25) <= limit:
-                out[h] = good[int(j)]
+        for j in sorted(int(j) for j in tree.query(ring, predicate="dwithin", distance=limit)):
+            if earlier and good[j] >= h:
+                break
+            if shapely.hausdorff_distance(ring, rings[j], densify=0.25) <= limit:
+                out[h] = good[j]
                 break
     return out
 
@@ -168,6 +173,33 @@ def _evidence(k: int, rest: list[int], loops: Sequence[np.ndarray], hatched: Seq
     return ""
 
 
+def _frame_of(k: int, alive: list[int], lines: list[int], loops: Sequence[np.ndarray],
+              chains: Sequence[np.ndarray], hatched: Sequence[bool], tol: float) -> Frame | None:
+    """Loop k as a frame around the other loops and lines alive, or None when it is not one."""
+    ring = LinearRing(loops[k])
+    others = [i for i in alive if i != k]
+    geoms = [LinearRing(loops[i]) for i in others] + [LineString(chains[j]) for j in lines]
+    frame = Polygon(ring)
+    if not bool(np.all(shapely.covers(frame.buffer(tol), geoms))):
+        return None
+    mask = _attached(ring, geoms, tol)
+    if any(hatched[i] and m and ring.distance(g) <= tol
+           for i, m, g in zip(others, mask, geoms, strict=False)):
+        return None  # a hatched section touching the rectangle: it is not a frame around it
+    title = _title_block(frame, [g for g, m in zip(geoms, mask, strict=True) if m], tol)
+    if title:  # what lies in the title block's cells (text strokes, filled logos) belongs to it
+        cells = shapely.union_all([Polygon(loops[i]) for i, m in zip(others, mask, strict=False) if m])
+        mask |= np.asarray(shapely.covers(cells.buffer(tol), geoms), dtype=bool)
+    rest = [i for i, m in zip(others, mask, strict=False) if not m]
+    why = _evidence(k, rest, loops, hatched, title)
+    if not rest or not why:
+        return None
+    x0, y0, x1, y1 = ring.bounds
+    return Frame(k, tuple(i for i, m in zip(others, mask, strict=False) if m),
+                 tuple(j for j, m in zip(lines, mask[len(others):], strict=True) if m),
+                 (x1 - x0, y1 - y0), (x0, y0), why)
+
+
 def find_frames(loops: Sequence[np.ndarray], straight: Sequence[bool], hatched: Sequence[bool],
                 chains: Sequence[np.ndarray], tol: float) -> list[Frame]:
     """The drawing frames of a sheet (outermost first) and their title blocks.
@@ -200,27 +232,13 @@ def find_frames(loops: Sequence[np.ndarray], straight: Sequence[bool], hatched: 
         k = max(alive, key=lambda i: abs(Polygon(loops[i]).area))
         if not straight[k] or hatched[k] or not _is_rectangle(loops[k]):
             break
-        ring = LinearRing(loops[k])
-        others = [i for i in alive if i != k]
-        geoms = [LinearRing(loops[i]) for i in others] + [LineString(chains[j]) for j in lines]
-        inside = Polygon(ring).buffer(tol)
-        if not bool(np.all(shapely.covers(inside, geoms))):
+        frame = _frame_of(k, alive, lines, loops, chains, hatched, tol)
+        if frame is None:
             break
-        mask = _attached(ring, geoms, tol)
-        title_loops = [i for i, m in zip(others, mask, strict=False) if m]
-        title_chains = [j for j, m in zip(lines, mask[len(others):], strict=True) if m]
-        rest = [i for i, m in zip(others, mask, strict=False) if not m]
-        if not rest or any(hatched[i] for i in title_loops):
-            break
-        title = _title_block(Polygon(ring), [g for g, m in zip(geoms, mask, strict=True) if m], tol)
-        why = _evidence(k, rest, loops, hatched, title)
-        if not why:
-            break
-        x0, y0, x1, y1 = ring.bounds
-        frames.append(Frame(k, tuple(title_loops), tuple(title_chains), (x1 - x0, y1 - y0), (x0, y0),
-                            why))
-        alive = rest
-        lines = [j for j in lines if j not in set(title_chains)]
+        frames.append(frame)
+        gone = {k, *frame.loops}
+        alive = [i for i in alive if i not in gone]
+        lines = [j for j in lines if j not in set(frame.chains)]
     return _agreeing_with_hatches(frames, loops, hatched)
 
 
