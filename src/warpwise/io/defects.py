@@ -42,7 +42,7 @@ class Defect:
     kind : str
         Short name: ``open chain``, ``branch``, ``self-crossing``, ``crossing loops``,
         ``duplicate``, ``zero length``, ``too short``, ``no area``, ``unreadable``,
-        ``not flat``, ``truncated``.
+        ``not flat``, ``truncated``, ``drawing frame`` (a warning: left out).
     text : str
         What is wrong, one line, drawing unit.
     where : tuple of (float, float)

@@ -7,14 +7,17 @@ Reading goes in three steps, each usable on its own:
    expands block references with their transforms (:mod:`.blocks`) and turns every curve of
    model space into a :class:`~warpwise.io.pieces.Piece` (:mod:`.entities`, one reader per
    entity type): LINE, ARC, CIRCLE, ELLIPSE (full and partial), SPLINE, LWPOLYLINE and 2D
-   POLYLINE (bulges become true arcs), flat 3D POLYLINE. Everything else (text, dimensions,
-   hatches, points...) is counted and left out. Coordinates are converted to the profile's
-   length unit here (:mod:`.units`).
+   POLYLINE (bulges become true arcs), flat 3D POLYLINE, and the boundary paths of HATCH
+   (:mod:`.hatch`). Everything else (text, dimensions, points...) is counted and left out.
+   Coordinates are converted to the profile's length unit here (:mod:`.units`).
 2. :func:`lay_out` (:mod:`.layout`) joins the pieces of the chosen layers into closed loops
-   within a joining tolerance tied to the drawing size, checks the loops and nests them
-   even-odd into parts, listing every defect on the way.
-3. :func:`build_profile` (:mod:`.build`) draws the loops of the chosen part(s) as polygons at a
-   chord tolerance tied to the mesh size and validates them with
+   within a joining tolerance tied to the drawing size, takes the hatch boundaries (one that
+   repeats a drawn loop marks it as hatched, a cut section), leaves out a drawing frame and its
+   title block (:mod:`.sheet`), checks the loops and nests them even-odd into parts, listing
+   every defect on the way.
+3. :func:`build_profile` (:mod:`.build`) takes the part asked for, else the only hatched part
+   of several, draws the loops of the chosen part(s) as polygons at a chord tolerance tied to
+   the mesh size and validates them with
    :func:`warpwise.geometry.profile_from_loops`.
 
 :func:`read_dxf` does all three. Layer names are kept per loop (``DxfProfile.loop_layers``);

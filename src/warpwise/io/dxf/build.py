@@ -1,6 +1,8 @@
 """Step 3 of reading a DXF drawing: the profile of the chosen part(s).
 
-:func:`build_profile` refuses a laid-out drawing with defects in the chosen geometry (the first
+:func:`build_profile` takes the part asked for or, of several parts, the only hatched one (a cut
+section is drawn hatched; common practice, no source), refuses a drawing that is still
+ambiguous (naming the options that choose) or that has defects in the chosen geometry (the first
 defect, with its point and how to choose layers or parts), draws the loops of the chosen
 part(s) as polygons at a chord tolerance tied to the mesh size
 (:func:`choose_chord_tolerance`) and validates them with
@@ -21,7 +23,7 @@ from ..defects import Defect, fmt, plural
 from ..files import check_assumed_size
 from ..nesting import Part, describe_part
 from ..pieces import Piece
-from .layout import JOIN_TOLERANCE, Layout, Loop
+from .layout import FRAME, JOIN_TOLERANCE, Layout, Loop
 
 #: Chord tolerance to start from, as a fraction of the mesh size.
 CHORD_PER_MESH_SIZE = 0.01
@@ -150,7 +152,8 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     layout : Layout
         From :func:`~warpwise.io.dxf.layout.lay_out`.
     part : int, optional
-        Analyse only this part (1-based, largest area first).
+        Analyse only this part (1-based, largest area first); default the only part, else the
+        only hatched part.
     all_parts : bool
         Analyse every part together as one section.
     chord_tolerance : float, optional
@@ -171,7 +174,8 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     ------
     ProfileError
         No closed loop, any defect of the chosen geometry (open chain, crossing, branching,
-        truncated file), or several parts when neither ``part`` nor ``all_parts`` is given.
+        truncated file), or several parts when neither ``part`` nor ``all_parts`` is given
+        and not exactly one of them is hatched.
     UsageError
         A part number out of range, or both ``part`` and ``all_parts``.
 
@@ -189,17 +193,21 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     if part is not None and not 1 <= part <= len(parts):
         raise UsageError(f"part {part} does not exist: the drawing has {len(parts)} "
                          f"part{'s' if len(parts) != 1 else ''}", file=name)
-    chosen = parts[part - 1] if part is not None else None
+    number = part
+    if part is None and not all_parts and len(parts) > 1 and len(layout.hatched) == 1:
+        number = layout.hatched[0] + 1  # the one cut section of the sheet
+    chosen = parts[number - 1] if number is not None else None
     errors = _errors_of_choice(layout, chosen, bool(layer_materials))
     if errors:
         first = errors[0]
         lead = f"{len(errors)} defects ({hint}); the first: " if len(errors) > 1 else ""
+        if number is not None and part is None:
+            lead = (f"the section (part {number} of {len(parts)}, the only hatched part) has "
+                    + (lead or "a defect: "))
         raise DrawingError(f"{lead}{first.text}", file=name, where=first.point,
                            advice=layer_hint if first.layer else "")
-    if part is None and not all_parts and len(parts) > 1:
-        raise ProfileError(
-            f"the drawing holds {len(parts)} separate parts ({_parts_text(layout)}); analyse one "
-            "with --part N, or all as one section with --all-parts", file=name)
+    if number is None and not all_parts and len(parts) > 1:
+        raise _several_parts_error(layout, layer_hint)
     picked = list(chosen.loops) if chosen is not None else [k for p in parts for k in p.loops]
     area = chosen.area if chosen is not None else sum(p.area for p in parts)
     curved = sum(d.pieces[i].curved_length for k in picked for i, _ in layout.loops[k].chain.steps)
@@ -214,13 +222,14 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     if layer_materials:
         table = layer_materials if isinstance(layer_materials, Mapping) else {}
         materials = [table.get(name_, name_) for name_ in layers]
-    notes = _notes(layout, part, s, curved, hint)
+    notes = _notes(layout, number, part is None, s, curved, hint)
+    notes += _hatch_notes(layout, picked)
     same = 1e-9 * layout.tolerance / JOIN_TOLERANCE  # centres and radii equal to round-off
     profile = profile_from_loops(loops, materials, source=name, units=d.units.unit, notes=notes,
                                  arcs=arcs_for_mesh(arcs, same))
     if d.units.origin == "assumed":
         profile = check_assumed_size(profile)
-    return DxfProfile(profile, tuple(layers), float(s), layout.tolerance, part)
+    return DxfProfile(profile, tuple(layers), float(s), layout.tolerance, number)
 
 
 def _no_loop_error(layout: Layout, layer_hint: str) -> ProfileError:
@@ -232,7 +241,7 @@ def _no_loop_error(layout: Layout, layer_hint: str) -> ProfileError:
                             advice=layer_hint)
     what = "no lines, arcs or curves found" if not d.pieces else "no closed loop found"
     skipped = ", ".join(f"{n} {t}" for t, n in sorted(d.skipped.items()))
-    bad = [x for x in d.defects if x.kind in ("unreadable", "not flat")]
+    bad = [x for x in layout.defects if x.kind in ("unreadable", "not flat")]
     extra = [f"left out, not geometry: {skipped}"] if skipped else []
     if bad:
         extra.append(f"{len(bad)} entit{'y' if len(bad) == 1 else 'ies'} could not be used, "
@@ -272,13 +281,36 @@ def _chord_tolerance(layout: Layout, picked: Sequence[int], curved: float,
     return s
 
 
-def _notes(layout: Layout, part: int | None, s: float, curved: float, hint: str) -> list[str]:
+def _several_parts_error(layout: Layout, layer_hint: str) -> ProfileError:
+    """The error for a drawing of several parts where no single hatched part is the section."""
+    d = layout.drawing
+    parts, hatched = layout.parts, layout.hatched
+    listing = f"numbered as 'warpwise check {d.source}' lists them"
+    frame = ("; the drawing frame around them is left out"
+             if any(x.kind == FRAME for x in layout.defects) else "")
+    if len(hatched) > 1:
+        which = "; ".join(describe_part(k + 1, parts[k].bounds, parts[k].area, d.units.unit)
+                          for k in hatched[:PARTS_IN_MESSAGE])
+        return ProfileError(
+            f"the drawing holds {len(hatched)} hatched sections ({which}) among {len(parts)} parts"
+            f"{frame}; analyse one with --part N ({listing}), or every part as one section with "
+            "--all-parts", file=d.source)
+    return ProfileError(
+        f"the drawing holds {len(parts)} separate parts ({_parts_text(layout)}) and no hatch marks "
+        f"one as the section{frame}; analyse one with --part N ({listing}), or all as one section "
+        f"with --all-parts{layer_hint}", file=d.source)
+
+
+def _notes(layout: Layout, part: int | None, asked: bool, s: float, curved: float, hint: str) -> list[str]:
     """What was decided on the way, one line each, for the profile's notes."""
     d = layout.drawing
     notes = [d.units.note]
     if curved > 0:
         notes.append(f"curves drawn as chords at most {fmt(s)} {d.units.unit} from the true curve")
-    if part is not None:
+    if part is not None and asked:
+        notes.append(f"part {part} of {len(layout.parts)} taken as the section: the only hatched part "
+                     "(a cut section is drawn hatched); choose another with --part N")
+    elif part is not None:
         notes.append(f"part {part} of {len(layout.parts)}")
     elif len(layout.parts) > 1:
         notes.append(f"all {len(layout.parts)} parts analysed as one section")
@@ -287,8 +319,18 @@ def _notes(layout: Layout, part: int | None, s: float, curved: float, hint: str)
             f"{n} {t}" for t, n in sorted(d.skipped.items())))
     if layout.left_out:
         notes.append("left out (no closed geometry): layer " + ", ".join(sorted(layout.left_out)))
-    repaired = Counter(x.kind for x in layout.defects if not x.fatal)
+    notes += [x.text for x in layout.defects if x.kind == FRAME]
+    repaired = Counter(x.kind for x in layout.defects if not x.fatal and x.kind != FRAME)
     if repaired:
         notes.append("repaired: " + ", ".join(f"{n} {k}" for k, n in sorted(repaired.items()))
                      + f" ({hint})")
     return notes
+
+
+def _hatch_notes(layout: Layout, picked: Sequence[int]) -> list[str]:
+    """Which loops of the profile were read from hatch boundaries alone."""
+    owner = {i: h.label for h in layout.drawing.hatches for path in h.paths for i in path}
+    names = sorted({owner[i] for k in picked for i, _ in layout.loops[k].chain.steps if i in owner})
+    if not names:
+        return []
+    return [f"outline read from the boundary of {', '.join(names)} (no lines are drawn along it)"]

@@ -3,13 +3,15 @@
 A :class:`PieceCollector` takes drawing coordinates, converts them to the profile's length
 unit and keeps every usable piece (a line, an arc, a polyline of lines and bulge arcs, any
 other curve), leaving out with a warning what is not finite or beyond the coordinate limit. It
-also counts the entities met inside block references and those left out.
+also counts the entities met inside block references and those left out, and records which
+pieces are the boundary paths of each hatch (:class:`HatchBoundary`).
 """
 
 from __future__ import annotations
 
 from collections import Counter
 from collections.abc import Sequence
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -20,6 +22,29 @@ from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyl
 
 #: Largest number of pieces read from one drawing.
 MAX_PIECES = 200_000
+
+
+@dataclass(frozen=True)
+class HatchBoundary:
+    """The boundary of one HATCH: its paths as pieces of the drawing.
+
+    Attributes
+    ----------
+    label : str
+        Name of the hatch in messages, e.g. ``HATCH #2A``.
+    layer : str
+        Its layer.
+    style : int
+        DXF hatch style: 0 fills between every other boundary (even-odd), 1 only the outermost
+        area, 2 everything inside the outermost boundaries.
+    paths : tuple of tuple of int
+        For each boundary path (text boxes left out), the indices of its pieces.
+    """
+
+    label: str
+    layer: str
+    style: int
+    paths: tuple[tuple[int, ...], ...]
 
 
 class PieceCollector:
@@ -41,6 +66,7 @@ class PieceCollector:
         self.in_blocks: Counter[str] = Counter()
         self.skipped: Counter[str] = Counter()
         self.unreadable: Counter[str] = Counter()
+        self.hatches: list[HatchBoundary] = []
 
     def warn(self, kind: str, text: str, where: Sequence[tuple[float, float]] = (),
              layer: str | None = None) -> None:

@@ -14,7 +14,7 @@ from pathlib import Path
 from ...errors import InputFileError
 from ..defects import ERROR, WARNING, Defect
 from ..pieces import Piece
-from .collect import PieceCollector
+from .collect import HatchBoundary, PieceCollector
 from .document import load_document, why
 from .entities import read_entity
 from .units import Units, resolve_units
@@ -45,6 +45,8 @@ class Drawing:
         failed).
     defects : tuple of Defect
         Entities that could not be used, and a truncated file.
+    hatches : tuple of HatchBoundary
+        The boundary of each hatch, as indices into ``pieces``.
     """
 
     source: str
@@ -56,11 +58,17 @@ class Drawing:
     skipped: dict[str, int] = field(default_factory=dict)
     repairs: tuple[str, ...] = ()
     defects: tuple[Defect, ...] = ()
+    hatches: tuple[HatchBoundary, ...] = ()
 
     @property
     def layers(self) -> tuple[str, ...]:
         """Layers that hold curves, sorted."""
         return tuple(sorted({p.layer for p in self.pieces}))
+
+    @property
+    def hatch_pieces(self) -> frozenset[int]:
+        """Indices of the pieces that are hatch boundaries (not drawn lines)."""
+        return frozenset(i for h in self.hatches for path in h.paths for i in path)
 
 
 def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
@@ -114,4 +122,4 @@ def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
                               (), ERROR))
     version = str(doc.header.get("$ACADVER", "") or getattr(doc, "acad_release", ""))
     return Drawing(name, tuple(out.pieces), u, version, found,
-                   dict(out.in_blocks), dict(out.skipped), repairs, tuple(defects))
+                   dict(out.in_blocks), dict(out.skipped), repairs, tuple(defects), tuple(out.hatches))

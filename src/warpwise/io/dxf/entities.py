@@ -1,10 +1,11 @@
 """DXF entities to pieces: one reader per entity type, chosen by :data:`READERS`.
 
 LINE, ARC, CIRCLE, ELLIPSE (full and partial), SPLINE, LWPOLYLINE and 2D POLYLINE (bulges
-become true arcs), flat 3D POLYLINE and block references (INSERT, through
-:mod:`.blocks`) are read; entities in a plane other than x-y are left out with a warning.
+become true arcs), flat 3D POLYLINE, block references (INSERT, through
+:mod:`.blocks`) and hatch boundaries (HATCH, through :mod:`.hatch`) are read; entities in a
+plane other than x-y are left out with a warning.
 :func:`read_entity` looks the reader up by the entity's type name; an entity of any other type
-(text, dimensions, hatches, points...) is counted and left out, those in :data:`UNREADABLE`
+(text, dimensions, points...) is counted and left out, those in :data:`UNREADABLE`
 with a warning, and a damaged entity is left out with a warning that says why.
 """
 
@@ -20,6 +21,7 @@ from ..pieces import Piece, point_piece
 from .blocks import block_entities
 from .collect import PieceCollector
 from .document import why
+from .hatch import read_hatch
 
 #: Entities that hold geometry warpwise cannot read: left out with a warning.
 UNREADABLE = {"REGION", "3DSOLID", "BODY", "SURFACE", "MESH", "MLINE", "HELIX", "SOLID", "TRACE",
@@ -207,6 +209,7 @@ READERS: dict[str, EntityReader] = {
     "SPLINE": read_spline,
     "LWPOLYLINE": read_lwpolyline,
     "POLYLINE": read_polyline,
+    "HATCH": read_hatch,
 }
 
 
