@@ -11,13 +11,16 @@ import pytest
 from conftest import SAMPLES
 from warpwise.io import load_profile
 from warpwise.properties.analysis import analyse
+from warpwise.properties.run import geometry_only
 
 FILES = sorted(p for p in SAMPLES.iterdir() if p.suffix in (".dxf", ".txt"))
 
 
 @pytest.mark.parametrize("path", FILES, ids=[p.name for p in FILES])
 def test_j_bracket_is_tight(path):
-    r = analyse(load_profile(path), bounds=True)
+    # the bracket is of the geometry's J (the composite sample's materials are left out: its
+    # transformed section has no stress-function bound)
+    r = analyse(geometry_only(load_profile(path)), bounds=True)
     J, J_low = r.torsion.J, r.torsion.J_low
     assert 0 < J_low <= J
     # 0.2%: twice DESIGN.md's 0.1% target, since the bracket is about twice the true error

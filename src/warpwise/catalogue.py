@@ -5,6 +5,11 @@ by default; pass a Dask ``distributed`` client's executor to spread a big catalo
 cluster) and returns one :class:`Outcome` per file in input order. A profile that fails gives an
 outcome with its one-line error; the others are unaffected.
 
+:func:`collect_files` finds the profile files of folders (searched recursively);
+:func:`catalogue_items` also reads manifests (:func:`read_manifest`, a TOML file of our own
+naming each drawing with how it is read, its material, name and description) into
+:class:`Item` s, each with its own options.
+
 Examples
 --------
 >>> from pathlib import Path
@@ -15,18 +20,28 @@ True
 
 from __future__ import annotations
 
+import sys
 import time
 from collections.abc import Callable, Iterable, Sequence
 from concurrent.futures import Executor, ProcessPoolExecutor
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
-from .errors import UsageError, WarpwiseError
+from .errors import InputFileError, UsageError, WarpwiseError
+from .geometry.profile import LENGTH_UNITS
+from .io.files import read_input
 from .io.options import ReadOptions
 from .properties.run import AnalysisOptions
 
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover - Python 3.10
+    import tomli as tomllib
+
 #: File endings taken from a folder: DXF drawings and coordinate outlines.
 PROFILE_ENDINGS = (".dxf", ".txt", ".xy", ".csv", ".dat")
+#: File ending of a catalogue manifest.
+MANIFEST_ENDING = ".toml"
 
 
 @dataclass(frozen=True)
@@ -85,22 +100,41 @@ class Outcome:
         return self.error is None
 
 
-def collect_files(items: Iterable[str | Path]) -> list[Path]:
-    """Files of a catalogue: each folder's profile files (sorted by name), then the files given.
+def _profile_files(folder: Path) -> list[Path]:
+    """Profile files in a folder and its subfolders, by path; hidden files and folders skipped."""
+    found = []
+    for f in folder.rglob("*"):
+        rel = f.relative_to(folder).parts
+        if f.is_file() and f.suffix.lower() in PROFILE_ENDINGS \
+                and not any(part.startswith(".") for part in rel):
+            found.append(f)
+    return sorted(found, key=lambda f: f.relative_to(folder).parts)
+
+
+def collect_files(items: Iterable[str | Path], exclude: Iterable[str | Path] = ()) -> list[Path]:
+    """Files of a catalogue: each folder's profile files (recursively, by path), or the file.
+
+    Parameters
+    ----------
+    items : iterable of str or Path
+        Folders and files.
+    exclude : iterable of str or Path
+        Files not to take from folders (the run's own outputs).
 
     Raises
     ------
     UsageError
         For a path that does not exist or a folder without profile files.
     """
+    skip = {Path(e).resolve() for e in exclude}
     out: list[Path] = []
     for item in items:
         p = Path(item)
         if p.is_dir():
-            found = sorted(f for f in p.iterdir() if f.is_file() and f.suffix.lower() in PROFILE_ENDINGS)
+            found = [f for f in _profile_files(p) if f.resolve() not in skip]
             if not found:
-                raise UsageError(f"no profile files ({', '.join(PROFILE_ENDINGS)}) in the folder",
-                                 file=str(p))
+                raise UsageError(f"no profile files ({', '.join(PROFILE_ENDINGS)}) in the folder "
+                                 "or its subfolders", file=str(p))
             out.extend(found)
         elif p.exists():
             out.append(p)
@@ -109,14 +143,157 @@ def collect_files(items: Iterable[str | Path]) -> list[Path]:
     return out
 
 
-def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -> Outcome:
+@dataclass(frozen=True)
+class Item:
+    """One profile of a catalogue: its file and, from a manifest, its own options and name.
+
+    Attributes
+    ----------
+    path : str
+        The file.
+    options : RunOptions or None
+        How it is read and analysed (None: the run's options).
+    name : str
+        Name or part number ("" : none; reports then show the file name).
+    description : str
+        What it is, in words.
+    """
+
+    path: str
+    options: RunOptions | None = None
+    name: str = ""
+    description: str = ""
+
+    @property
+    def title(self) -> str | None:
+        """Heading of its datasheet: name and description (None: none given)."""
+        return ": ".join(t for t in (self.name, self.description) if t) or None
+
+
+#: Keys of a manifest entry and the type of each value.
+MANIFEST_KEYS: dict[str, type | tuple[type, ...]] = {
+    "file": str, "name": str, "description": str, "part": int, "all_parts": bool,
+    "layers": list, "layer_materials": dict, "material": str, "units": str,
+    "join_tolerance": (int, float), "chord_tolerance": (int, float)}
+
+
+def _entry_item(entry: object, k: int, folder: Path, base: RunOptions, where: str) -> Item:
+    """The item of manifest entry ``k`` (1-based): the run's options changed as it says."""
+    def bad(text: str) -> InputFileError:
+        return InputFileError(f"profile {k}: {text}", file=where)
+
+    if not isinstance(entry, dict):
+        raise bad("is not a table of keys")
+    for key, value in entry.items():
+        kind = MANIFEST_KEYS.get(key)
+        if kind is None:
+            raise bad(f"unknown key {key!r} (keys: {', '.join(MANIFEST_KEYS)})")
+        if not isinstance(value, kind) or (kind is int and isinstance(value, bool)):
+            raise bad(f"{key} has a value of the wrong kind: {value!r}")
+    if "file" not in entry:
+        raise bad("'file' is missing")
+    names = entry.get("layers", [])
+    table = entry.get("layer_materials", {})
+    if not all(isinstance(n, str) for n in [*names, *table, *table.values()]):
+        raise bad("layer and material names must be text")
+    if entry.get("units", "mm") not in LENGTH_UNITS:
+        raise bad(f"unknown unit {entry['units']!r} (use {', '.join(LENGTH_UNITS)})")
+    read = {"units": entry.get("units"), "layers": tuple(names) or None,
+            "join_tolerance": entry.get("join_tolerance"), "layer_materials": table or None,
+            "chord_tolerance": entry.get("chord_tolerance"), "other_layers_material": entry.get("material")}
+    changes = {key: value for key, value in read.items() if value is not None}
+    if "part" in entry or "all_parts" in entry:
+        changes.update(part=entry.get("part"), all_parts=entry.get("all_parts", False))
+    try:
+        options = replace(base, read=replace(base.read, **changes))
+        if "material" in entry:
+            options = replace(options, analysis=replace(base.analysis, material=entry["material"]))
+    except UsageError as exc:
+        raise bad(exc.message) from None
+    path = Path(entry["file"]).expanduser()
+    return Item(str(path if path.is_absolute() else folder / path), options,
+                entry.get("name", ""), entry.get("description", ""))
+
+
+def read_manifest(path: str | Path, options: RunOptions | None = None) -> list[Item]:
+    """The items of a catalogue manifest.
+
+    A manifest is a TOML file with one ``[[profile]]`` table per drawing: ``file`` (required;
+    relative to the manifest's folder), ``name`` (or part number), ``description``, and how
+    it is read and analysed: ``part`` or ``all_parts``, ``layers``, ``layer_materials``
+    (a table of layer = material name), ``material``, ``units``, ``join_tolerance``,
+    ``chord_tolerance``. What an entry gives replaces the run's option for that drawing.
+
+    Parameters
+    ----------
+    path : str or Path
+        The manifest.
+    options : RunOptions, optional
+        The run's options (the command line's).
+
+    Returns
+    -------
+    list of Item
+
+    Raises
+    ------
+    InputFileError
+        For a file that is not such a manifest (naming the entry and key at fault).
+    """
+    where = str(path)
+    base = options or RunOptions()
+    try:
+        data = tomllib.loads(read_input(path).decode("utf-8"))
+    except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
+        raise InputFileError(f"not a valid TOML manifest ({exc})", file=where) from None
+    unknown = sorted(set(data) - {"profile"})
+    if unknown:
+        raise InputFileError(f"unknown top-level keys {unknown} (a manifest holds [[profile]] "
+                             "tables)", file=where)
+    entries = data.get("profile")
+    if not isinstance(entries, list) or not entries:
+        raise InputFileError("no [[profile]] tables found", file=where)
+    folder = Path(path).parent
+    return [_entry_item(e, k, folder, base, where) for k, e in enumerate(entries, start=1)]
+
+
+def catalogue_items(items: Iterable[str | Path], options: RunOptions | None = None,
+                    exclude: Iterable[str | Path] = ()) -> list[Item]:
+    """Items of a catalogue run: manifests (``.toml``) read, folders searched, files taken.
+
+    Parameters
+    ----------
+    items : iterable of str or Path
+        Manifests, folders and files, in the order wanted.
+    options : RunOptions, optional
+        The run's options (manifest entries change them per drawing).
+    exclude : iterable of str or Path
+        Files not to take from folders (the run's own outputs).
+
+    Returns
+    -------
+    list of Item
+    """
+    out: list[Item] = []
+    for item in items:
+        if Path(item).suffix.lower() == MANIFEST_ENDING and Path(item).is_file():
+            out.extend(read_manifest(item, options))
+        else:
+            out.extend(Item(str(f), options) for f in collect_files([item], exclude))
+    return out
+
+
+def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = None) -> Outcome:
     """Read and analyse one file; every user-input error is caught into the outcome.
 
-    This is the worker function of a catalogue (picklable, top level).
+    This is the worker function of a catalogue (picklable, top level). An :class:`Item` brings
+    its own options (else ``options``), name and description.
     """
     from .properties.run import run_analysis
     from .report.records import record_of
 
+    item = path if isinstance(path, Item) else Item(str(path))
+    path, options = item.path, item.options or options
     start = time.perf_counter()
     try:
         result = run_analysis(options.read.load(path), options.analysis)
@@ -130,9 +307,11 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
             unit_torque = convert(1.0, MOMENT, shown, result.units)  # 1 in the page's units
             sheet = str(write_datasheet(result, options.datasheet_dir,
                                         torsion=torsion_stress(result, unit_torque),
-                                        nominal_torque=True, filename=sheet_name, units=shown))
+                                        nominal_torque=True, filename=sheet_name, units=shown,
+                                        title=item.title))
             thumb = thumbnail_svg(result)
-        return Outcome(path, record_of(result), None, time.perf_counter() - start, sheet, thumb)
+        record = replace(record_of(result), name=item.name, description=item.description)
+        return Outcome(path, record, None, time.perf_counter() - start, sheet, thumb)
     except WarpwiseError as exc:
         return Outcome(path, None, str(exc.with_file(path)), time.perf_counter() - start)
     except MemoryError:
@@ -143,17 +322,17 @@ def analyse_one(path: str, options: RunOptions, sheet_name: str | None = None) -
                        time.perf_counter() - start)
 
 
-def run_catalogue(files: Sequence[str | Path], options: RunOptions | None = None, *,
+def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None = None, *,
                   executor: Executor | None = None, jobs: int | None = None,
                   on_done: Callable[[Outcome, int, int], None] | None = None) -> list[Outcome]:
     """Analyse every file; return the outcomes in the order of ``files``.
 
     Parameters
     ----------
-    files : sequence of str or Path
-        Profile files.
+    files : sequence of str, Path or Item
+        Profile files, or items with their own options and names (:func:`catalogue_items`).
     options : RunOptions, optional
-        Reading and analysis options.
+        Reading and analysis options (of the files and of items without their own).
     executor : concurrent.futures.Executor, optional
         Where to run the work (any executor: a process pool, a thread pool, a Dask
         ``distributed.Client.get_executor()``). Default: a process pool of ``jobs`` workers,
@@ -168,7 +347,8 @@ def run_catalogue(files: Sequence[str | Path], options: RunOptions | None = None
     list of Outcome
     """
     options = options or RunOptions()
-    paths = [str(f) for f in files]
+    items = [f if isinstance(f, Item) else Item(str(f)) for f in files]
+    paths = [it.path for it in items]
     names: list[str | None] = [None] * len(paths)
     if options.datasheet_dir:
         from .report.html import unique_filenames
@@ -186,13 +366,13 @@ def run_catalogue(files: Sequence[str | Path], options: RunOptions | None = None
             on_done(out, done, total)
 
     if executor is None and (jobs == 1 or total <= 1):
-        for i, p in enumerate(paths):
-            finished(i, analyse_one(p, options, names[i]))
+        for i, it in enumerate(items):
+            finished(i, analyse_one(it, options, names[i]))
         return outcomes  # type: ignore[return-value]
     own = executor is None
     pool = executor if executor is not None else ProcessPoolExecutor(max_workers=jobs)
     try:
-        futures = {pool.submit(analyse_one, p, options, names[i]): i for i, p in enumerate(paths)}
+        futures = {pool.submit(analyse_one, it, options, names[i]): i for i, it in enumerate(items)}
         from concurrent.futures import as_completed
 
         for fut in as_completed(futures):

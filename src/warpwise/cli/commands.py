@@ -10,7 +10,7 @@ from collections.abc import Sequence
 from dataclasses import replace
 from pathlib import Path
 
-from ..catalogue import Outcome, RunOptions, collect_files, run_catalogue
+from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
@@ -121,17 +121,17 @@ def run_stress(args: argparse.Namespace) -> int:
 
 def run_check(args: argparse.Namespace) -> int:
     """``warpwise check``: the report on stdout; exit code 1 when not analysable."""
-    o = read_options(args)
-    report = check_file(args.file, units=o.units, layers=args.layer, part=o.part,
-                        all_parts=o.all_parts, chord_tolerance=o.chord_tolerance,
-                        mesh_size=o.mesh_size)
+    report = check_file(args.file, read_options(args))
     if args.plot:
         from ..report.check_plot import plot_report
 
         plot_report(report, args.plot)
     sys.stdout.write(format_report(report))
     if not report.ok:
-        print(f"warpwise: error: {report.verdict}", file=sys.stderr)
+        fix = f"; analysable with {report.remedies[0].text}" if report.remedies else ""
+        more = f" (or {len(report.remedies) - 1} more choices in the report)" \
+            if len(report.remedies) > 1 else ""
+        print(f"warpwise: error: {report.verdict}{fix}{more}", file=sys.stderr)
         return EXIT_INPUT
     return 0
 
@@ -162,12 +162,13 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     """``warpwise catalogue``: every profile analysed; good rows written; failures listed."""
     if not (args.csv or args.json or args.html):
         raise UsageError("say where the results go: --csv OUT, --json OUT and/or --html DIR")
-    files = collect_files(args.items)
     options = RunOptions(read=read_options(args), analysis=analysis_options(args))
     if args.html:
-        Path(args.html).mkdir(parents=True, exist_ok=True)
         options = replace(options, datasheet_dir=args.html, report_units=args.report_units)
-    outcomes = run_catalogue(files, options, jobs=args.jobs, on_done=_Progress(len(files)))
+    items = catalogue_items(args.items, options, exclude=[f for f in (args.csv, args.json) if f])
+    if args.html:
+        Path(args.html).mkdir(parents=True, exist_ok=True)
+    outcomes = run_catalogue(items, options, jobs=args.jobs, on_done=_Progress(len(items)))
     good = [o for o in outcomes if o.ok]
     bad = [o for o in outcomes if not o.ok]
     _warn([o.record for o in good])

@@ -58,7 +58,21 @@ def positive_int(text: str) -> int:
     return v
 
 
-def _input_options(p: argparse.ArgumentParser, *, one_part: bool = True) -> None:
+def layer_material(text: str) -> tuple[str, str]:
+    """A ``LAYER=MATERIAL`` pair from the command line.
+
+    Examples
+    --------
+    >>> layer_material("insert=steel-S235")
+    ('insert', 'steel-S235')
+    """
+    layer, sep, material = text.partition("=")
+    if not sep or not layer.strip() or not material.strip():
+        raise argparse.ArgumentTypeError(f"give LAYER=MATERIAL, got {text!r}")
+    return layer.strip(), material.strip()
+
+
+def _input_options(p: argparse.ArgumentParser) -> None:
     """Mesh size, input unit and what of a DXF drawing is the profile."""
     p.add_argument("--mesh-size", type=positive_float, metavar="H",
                    help="largest element size in the drawing unit (default: chosen from the profile)")
@@ -67,16 +81,22 @@ def _input_options(p: argparse.ArgumentParser, *, one_part: bool = True) -> None
     p.add_argument("--layer", action="append", metavar="NAME",
                    help="DXF: take the profile from this layer (repeat for several; default: every "
                         "layer with closed geometry)")
+    p.add_argument("--layer-material", action="append", type=layer_material,
+                   metavar="LAYER=MATERIAL",
+                   help="DXF: the loops on LAYER are of MATERIAL (repeat for several layers; the "
+                        "other layers are of --material): a composite drawn by layers")
     which = p.add_mutually_exclusive_group()
-    if one_part:
-        which.add_argument("--part", type=positive_int, metavar="N",
-                           help="DXF: analyse only part N of a drawing with several (numbers as "
-                                "listed by 'warpwise check', largest area first)")
+    which.add_argument("--part", type=positive_int, metavar="N",
+                       help="DXF: analyse only part N of a drawing with several (numbers as "
+                            "listed by 'warpwise check', largest area first)")
     which.add_argument("--all-parts", action="store_true",
                        help="DXF: analyse all separate parts together as one section")
     p.add_argument("--chord-tolerance", type=positive_float, metavar="S",
                    help="DXF: largest distance between a curve and its chords, drawing unit "
                         "(default: tied to the mesh size)")
+    p.add_argument("--join-tolerance", type=positive_float, metavar="D",
+                   help="DXF: join ends closer than D, drawing unit (default: 1e-5 of the "
+                        "drawing's diagonal; 'warpwise check' suggests one for small gaps)")
 
 
 def _report_options(p: argparse.ArgumentParser, *, loads: bool = False) -> None:
@@ -122,6 +142,8 @@ def _analysis_options(p: argparse.ArgumentParser, *, estimate: bool = False) -> 
         p.add_argument("--estimate-errors", action="store_true",
                        help="estimate the error of J, Cw, shear centre, moduli and shear areas from "
                             "two finer meshes (Richardson extrapolation; about 7 times the work)")
+        p.add_argument("--target-error", type=positive_float, metavar="TOL",
+                       help="refine the mesh adaptively until J is certainly within TOL (relative)")
 
 
 def _moduli_options(p: argparse.ArgumentParser, *, youngs: bool = True) -> None:
@@ -142,8 +164,6 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
                         "lists them with their parameters)")
     p.add_argument("--json", action="store_true", help="print JSON instead of the table")
     p.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")
-    p.add_argument("--target-error", type=positive_float, metavar="TOL",
-                   help="refine the mesh adaptively until J is certainly within TOL (relative)")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)
@@ -166,17 +186,20 @@ def _add_stress(sub: argparse._SubParsersAction) -> None:
 def _add_catalogue(sub: argparse._SubParsersAction) -> None:
     p = sub.add_parser(
         "catalogue", help="a folder of profiles to one property table and datasheets",
-        description="Analyse every profile (folders: their .dxf, .txt, .xy, .csv, .dat files) and "
-                    "write one row per profile. A profile that fails is listed at the end and "
-                    "does not stop the run; the exit code is then 1.")
-    p.add_argument("items", nargs="+", metavar="DIR_OR_FILE")
+        description="Analyse every profile (folders and their subfolders: their .dxf, .txt, .xy, "
+                    ".csv, .dat files; a .toml manifest: the drawings it lists, each with its "
+                    "own options, name and description) and write one row per profile. The "
+                    "options below apply to every profile; a manifest entry's keys replace them "
+                    "for its drawing. A profile that fails is listed at the end and does not "
+                    "stop the run; the exit code is then 1.")
+    p.add_argument("items", nargs="+", metavar="DIR_FILE_OR_MANIFEST")
     p.add_argument("--csv", metavar="OUT", help="property table, one row per profile")
     p.add_argument("--json", metavar="OUT", help="the same as a JSON list")
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
     _report_options(p)
-    _input_options(p, one_part=False)
+    _input_options(p)
     _analysis_options(p, estimate=True)
 
 
@@ -220,9 +243,11 @@ def build_parser() -> argparse.ArgumentParser:
 
 def read_options(args: argparse.Namespace) -> ReadOptions:
     """How the command's files are read."""
-    return ReadOptions(units=args.units, layers=tuple(args.layer or ()),
-                       part=getattr(args, "part", None), all_parts=args.all_parts,
-                       chord_tolerance=args.chord_tolerance, mesh_size=args.mesh_size)
+    return ReadOptions(units=args.units, layers=tuple(args.layer or ()), part=args.part,
+                       all_parts=args.all_parts, chord_tolerance=args.chord_tolerance,
+                       mesh_size=args.mesh_size, join_tolerance=args.join_tolerance,
+                       layer_materials=tuple(args.layer_material or ()),
+                       other_layers_material=getattr(args, "material", None))
 
 
 def analysis_options(args: argparse.Namespace, *, bounds: bool = True) -> AnalysisOptions:

@@ -3,41 +3,40 @@
 :func:`load_profile` chooses the reader by the file's ending with one look-up in
 :data:`READERS`: ``.dxf`` (any case) is a DXF drawing (:mod:`warpwise.io.dxf`), anything else a
 coordinate outline (:mod:`warpwise.io.outline`, :data:`DEFAULT_READER`). Every reader takes the
-same arguments; the outline reader refuses the options that apply to drawings only.
+file and one :class:`~warpwise.io.options.ReadOptions`; the outline reader refuses the options
+that apply to drawings only.
 """
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Protocol
 
 from ..geometry.profile import Profile
 from .dxf import import_dxf, read_drawing, read_dxf
+from .options import ReadOptions
 from .outline import parse_outline, read_outline, refuse_dxf_options
 
 
 class ProfileReader(Protocol):
-    """What a reader of one kind of file takes and gives (the arguments of :func:`load_profile`)."""
+    """What a reader of one kind of file takes and gives."""
 
-    def __call__(self, path: str | Path, units: str | None, *, layers: Sequence[str] | None,
-                 part: int | None, all_parts: bool, chord_tolerance: float | None,
-                 mesh_size: float | None) -> Profile:
+    def __call__(self, path: str | Path, options: ReadOptions) -> Profile:
         """Read the file at ``path`` into a validated profile."""
 
 
-def _dxf_reader(path: str | Path, units: str | None, *, layers: Sequence[str] | None,
-                part: int | None, all_parts: bool, chord_tolerance: float | None,
-                mesh_size: float | None) -> Profile:
-    return read_dxf(path, units, layers=layers, part=part, all_parts=all_parts,
-                    chord_tolerance=chord_tolerance, mesh_size=mesh_size)
+def _dxf_reader(path: str | Path, options: ReadOptions) -> Profile:
+    return read_dxf(path, options.units, layers=options.layers or None, part=options.part,
+                    all_parts=options.all_parts, chord_tolerance=options.chord_tolerance,
+                    mesh_size=options.mesh_size, join_tolerance=options.join_tolerance,
+                    layer_materials=dict(options.layer_materials),
+                    other_layers_material=options.other_layers_material)
 
 
-def _outline_reader(path: str | Path, units: str | None, *, layers: Sequence[str] | None,
-                    part: int | None, all_parts: bool, chord_tolerance: float | None,
-                    mesh_size: float | None) -> Profile:
-    refuse_dxf_options(path, layers=layers, part=part, chord_tolerance=chord_tolerance)
-    return read_outline(path, units)  # an outline file is always taken whole
+def _outline_reader(path: str | Path, options: ReadOptions) -> Profile:
+    refuse_dxf_options(path, options)
+    return read_outline(path, options.units)  # an outline file is always taken whole
 
 
 #: File ending (lower case) -> the reader of such files.
@@ -65,8 +64,16 @@ def is_dxf(path: str | Path) -> bool:
 
 def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
                  part: int | None = None, all_parts: bool = False,
-                 chord_tolerance: float | None = None, mesh_size: float | None = None) -> Profile:
+                 chord_tolerance: float | None = None, mesh_size: float | None = None,
+                 join_tolerance: float | None = None,
+                 layer_materials: Mapping[str, str] | None = None,
+                 other_layers_material: str | None = None) -> Profile:
     """Read a profile from a file, choosing the reader by the file's ending.
+
+    The arguments are the fields of :class:`~warpwise.io.options.ReadOptions`; the command
+    line reads every file through the same options, so a file means the same here and there
+    (units, parts, layers; the materials named in the file are resolved by
+    :func:`warpwise.analyse` and :func:`warpwise.properties.run.run_analysis` alike).
 
     Parameters
     ----------
@@ -85,6 +92,13 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
         to the mesh size).
     mesh_size : float, optional
         The mesh size the profile is for, drawing unit (sets the default chord tolerance).
+    join_tolerance : float, optional
+        DXF only: ends closer than this are one point, drawing unit (default 1e-5 of the
+        drawing's diagonal).
+    layer_materials : mapping of str to str, optional
+        DXF only: material name by layer; the drawing becomes a composite by layers.
+    other_layers_material : str, optional
+        DXF only, with ``layer_materials``: material name of the loops on the other layers.
 
     Returns
     -------
@@ -96,10 +110,13 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
         DXF-only options given for an outline file.
 
     """
-    read = reader_for(path)
-    return read(path, units, layers=layers, part=part, all_parts=all_parts,
-                chord_tolerance=chord_tolerance, mesh_size=mesh_size)
+    options = ReadOptions(units=units, layers=tuple(layers or ()), part=part, all_parts=all_parts,
+                          chord_tolerance=chord_tolerance, mesh_size=mesh_size,
+                          join_tolerance=join_tolerance, layer_materials=layer_materials or (),
+                          other_layers_material=other_layers_material)
+    return options.load(path)
 
 
-__all__ = ["DEFAULT_READER", "READERS", "ProfileReader", "import_dxf", "is_dxf", "load_profile",
-           "parse_outline", "read_drawing", "read_dxf", "read_outline", "reader_for"]
+__all__ = ["DEFAULT_READER", "READERS", "ProfileReader", "ReadOptions", "import_dxf", "is_dxf",
+           "load_profile", "parse_outline", "read_drawing", "read_dxf", "read_outline",
+           "reader_for"]

@@ -6,7 +6,8 @@ points, self-crossing and crossing loops, duplicate and zero-length pieces, enti
 not be used, a truncated file. :func:`format_report` prints the findings, and
 :func:`warpwise.report.check_plot.plot_report` draws the outline with every defect marked.
 The verdict (``CheckReport.ok``) is True exactly when the profile can be analysed with the same
-options.
+options; when it is not, the report names the options that would make it analysable (other
+parts, layers or joining tolerance, each tried: :mod:`warpwise.io.remedies`).
 
 Examples
 --------
@@ -24,7 +25,6 @@ Examples
 
 from __future__ import annotations
 
-from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -35,9 +35,18 @@ from ..geometry.profile import Profile
 from . import is_dxf
 from .chords import loop_points
 from .defects import ERROR, Defect, fmt, plural
-from .dxf import DxfProfile, LayerSummary, build_profile, lay_out, read_drawing
+from .dxf import (
+    DxfProfile,
+    LayerSummary,
+    lay_out,
+    layer_material_table,
+    profile_of_layout,
+    read_drawing,
+)
 from .nesting import describe_part
+from .options import ReadOptions
 from .outline import read_outline, refuse_dxf_options
+from .remedies import Remedy, find_remedies
 
 #: Repairs made by ezdxf listed one by one in the report (the rest are counted).
 REPAIRS_SHOWN = 5
@@ -87,6 +96,8 @@ class CheckReport:
         Where the unit came from.
     join_tolerance : float or None
         Ends closer than this were joined, length unit.
+    join_given : bool
+        True when the joining tolerance was given (``--join-tolerance``).
     chord_tolerance : float or None
         Largest distance of a chord from its curve in the profile, length unit (None when the
         profile could not be built or has no curves).
@@ -110,6 +121,8 @@ class CheckReport:
         Open chains on the layers used (for the plot).
     ignored_paths : tuple of numpy.ndarray
         Open chains on layers left out (for the plot).
+    remedies : tuple of Remedy
+        When not analysable: options that make it analysable, each tried.
     """
 
     source: str
@@ -135,6 +148,8 @@ class CheckReport:
     depth: tuple[int, ...] = ()
     open_paths: tuple[np.ndarray, ...] = ()
     ignored_paths: tuple[np.ndarray, ...] = ()
+    remedies: tuple[Remedy, ...] = ()
+    join_given: bool = False
 
     @property
     def errors(self) -> tuple[Defect, ...]:
@@ -147,18 +162,22 @@ class CheckReport:
         return tuple(d for d in self.defects if not d.fatal)
 
 
-def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | None,
-               part: int | None, all_parts: bool, chord_tolerance: float | None,
-               mesh_size: float | None) -> CheckReport:
-    drawing = read_drawing(path, units)
-    layout = lay_out(drawing, layers)
+def _check_dxf(path: str | Path, o: ReadOptions) -> CheckReport:
+    drawing = read_drawing(path, o.units)
+    layout = lay_out(drawing, o.layers or None, tolerance=o.join_tolerance)
+    if o.layer_materials:  # a layer given a material that the profile lacks is a usage error
+        layer_material_table(layout, dict(o.layer_materials), o.other_layers_material)
     built: DxfProfile | None = None
+    remedies: tuple[Remedy, ...] = ()
     try:
-        built = build_profile(layout, part=part, all_parts=all_parts, chord_tolerance=chord_tolerance,
-                              mesh_size=mesh_size)
+        built = profile_of_layout(layout, part=o.part, all_parts=o.all_parts,
+                                  chord_tolerance=o.chord_tolerance, mesh_size=o.mesh_size,
+                                  layer_materials=dict(o.layer_materials),
+                                  other_layers_material=o.other_layers_material)
         verdict = "analysable"
     except (ProfileError, UsageError) as exc:
         verdict = str(exc)
+        remedies = find_remedies(drawing, o, layout)
     defects = list(layout.defects)
     depth = [lp.depth for lp in layout.loops]
     curved = built is not None and any(
@@ -177,13 +196,13 @@ def _check_dxf(path: str | Path, *, units: str | None, layers: Sequence[str] | N
         outline=tuple(lp.points for lp in layout.loops), depth=tuple(depth),
         open_paths=tuple(loop_points(c, pieces, layout.tolerance)[0] for c in layout.open_chains),
         ignored_paths=tuple(loop_points(c, pieces, layout.tolerance)[0] for c in layout.ignored),
+        remedies=remedies, join_given=o.join_tolerance is not None,
     )
 
 
-def _check_outline(path: str | Path, *, units: str | None, layers: Sequence[str] | None,
-                   part: int | None, all_parts: bool, chord_tolerance: float | None,
-                   mesh_size: float | None) -> CheckReport:
-    refuse_dxf_options(path, layers=layers, part=part, chord_tolerance=chord_tolerance)
+def _check_outline(path: str | Path, o: ReadOptions) -> CheckReport:
+    refuse_dxf_options(path, o)
+    units = o.units
     profile: Profile | None = None
     try:
         profile = read_outline(path, units)
@@ -215,27 +234,19 @@ def _check_outline(path: str | Path, *, units: str | None, layers: Sequence[str]
         outline=loops, depth=depth)
 
 
-def check_file(path: str | Path, *, units: str | None = None, layers: Sequence[str] | None = None,
-               part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
-               mesh_size: float | None = None) -> CheckReport:
+def check_file(path: str | Path, options: ReadOptions | None = None, **choices: object) -> CheckReport:
     """Read a drawing or outline and report what it holds and every defect.
 
     Parameters
     ----------
     path : str or Path
         DXF drawing (``.dxf``) or coordinate outline.
-    units : str, optional
-        Length unit overriding the file's.
-    layers : sequence of str, optional
-        DXF layers to use (default every layer with closed geometry).
-    part : int, optional
-        Part to analyse (1-based, largest first).
-    all_parts : bool
-        Take all parts as one section.
-    chord_tolerance : float, optional
-        Chord tolerance for curves, length unit.
-    mesh_size : float, optional
-        Mesh size meant for the analysis, length unit.
+    options : ReadOptions, optional
+        How the file is read, as for the analysis (default: ``ReadOptions(**choices)``).
+    **choices
+        Fields of :class:`~warpwise.io.options.ReadOptions` (units, layers, part, all_parts,
+        chord_tolerance, mesh_size, join_tolerance, layer_materials) when ``options`` is not
+        given.
 
     Returns
     -------
@@ -249,9 +260,10 @@ def check_file(path: str | Path, *, units: str | None = None, layers: Sequence[s
         For an unknown layer, or DXF-only options on an outline.
 
     """
+    if options is None:
+        options = ReadOptions(**choices)  # type: ignore[arg-type]
     check = _check_dxf if is_dxf(path) else _check_outline
-    return check(path, units=units, layers=layers, part=part, all_parts=all_parts,
-                 chord_tolerance=chord_tolerance, mesh_size=mesh_size)
+    return check(path, options)
 
 
 def _counts(counts: dict[str, int]) -> str:
@@ -290,8 +302,9 @@ def format_report(report: CheckReport) -> str:
     if report.skipped:
         lines.append(f"  left out, not geometry: {_counts(report.skipped)}")
     if report.join_tolerance is not None:
+        given = ", given" if report.join_given else ""
         lines.append(f"  joining tolerance: {fmt(report.join_tolerance)} {u} (ends closer than this "
-                     "are joined)")
+                     f"are joined{given})")
     if report.layers:
         lines.append("  layers:")
         for layer in report.layers:
@@ -316,7 +329,12 @@ def format_report(report: CheckReport) -> str:
         lines.append(f"    {k}. {d.severity}: {d.message}")
     verdict = report.verdict.removeprefix(f"{report.source}: ")
     lines.append("  result: analysable" if report.ok else f"  result: not analysable: {verdict}")
+    if report.remedies:
+        lines.append("  analysable with (each tried; in place of any --layer, --part, --all-parts "
+                     "and --join-tolerance given):")
+        width = max(len(r.text) for r in report.remedies)
+        lines += [f"    {r.text:<{width}}  {r.what}" for r in report.remedies]
     return "\n".join(lines) + "\n"
 
 
-__all__ = ["CheckReport", "LayerSummary", "PartSummary", "check_file", "format_report"]
+__all__ = ["CheckReport", "LayerSummary", "PartSummary", "Remedy", "check_file", "format_report"]

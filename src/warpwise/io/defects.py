@@ -55,6 +55,10 @@ class Defect:
         True when the first point of ``where`` completes the text as `` at (x, y)``.
     layers : tuple of str
         For defects between two loops, the layer of each.
+    size : float or None
+        A length the defect measures, drawing unit: for an open chain, the largest distance
+        from one of its free ends to the nearest other free end (a joining tolerance above it
+        joins them).
     """
 
     kind: str
@@ -64,6 +68,7 @@ class Defect:
     layer: str | None = None
     anchor: bool = False
     layers: tuple[str, ...] = ()
+    size: float | None = None
 
     @property
     def fatal(self) -> bool:

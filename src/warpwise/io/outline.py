@@ -1,10 +1,12 @@
 r"""Reader for the plain-text coordinate outline format.
 
-One vertex per line as ``x, y`` (comma, semicolon or white space between the numbers); lines
-starting with ``#`` are comments; a blank line ends a loop (the first point need not be
-repeated). Nesting is even-odd. ``material: NAME`` before a loop gives that loop (and the
-following ones, until the next such line) a material; ``units: mm|cm|m|in`` anywhere sets the
-length unit.
+One vertex per line as ``x, y`` (comma, semicolon or white space between the numbers, decimal
+points); lines starting with ``#`` are comments; a blank line ends a loop (the first point need
+not be repeated). Nesting is even-odd. ``material: NAME`` before a loop gives that loop (and the
+following ones, until the next such line) a material; ``units: mm|cm|m|in|ft`` anywhere sets
+the length unit. A UTF-8 byte-order mark and one line of column names ``x`` and ``y`` before
+the first coordinates (as spreadsheets write them) are skipped with a note; decimal commas
+(``1,5;2,5``) are refused, since a comma also separates the numbers.
 
 Examples
 --------
@@ -16,6 +18,12 @@ Examples
 Traceback (most recent call last):
 ...
 warpwise.errors.InputFileError: bad.txt: line 2 is not a pair of numbers: '1 x'
+>>> parse_outline("x;y\n0;0\n2;0\n2;1\n", source="sheet.csv").notes[0]
+"line 1: column names 'x;y' skipped"
+>>> parse_outline("0;0\n2,5;0\n", source="comma.csv")
+Traceback (most recent call last):
+...
+warpwise.errors.InputFileError: comma.csv: line 2 has a decimal comma: '2,5;0' (write decimal points: 2.5 0)
 
 """
 
@@ -29,8 +37,16 @@ import numpy as np
 from ..errors import InputFileError, UsageError
 from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
 from .files import MAX_FILE_BYTES, check_assumed_size, read_input, refuse_binary
+from .options import ReadOptions
 
 _SPLIT = re.compile(r"[,;\s]+")
+#: A comma between two digits: a decimal comma when the line is then two numbers.
+_DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
+#: Column names accepted as the one header line (not case-sensitive).
+HEADER_NAMES = ("x", "y")
+#: Byte-order marks of UTF-16 and UTF-32 text, which is refused with its name.
+_WIDE_BOMS = {b"\xff\xfe\x00\x00": "UTF-32", b"\x00\x00\xfe\xff": "UTF-32",
+              b"\xff\xfe": "UTF-16", b"\xfe\xff": "UTF-16"}
 
 
 def read_text(path: str | Path, kind: str = "outline") -> str:
@@ -55,8 +71,44 @@ def read_text(path: str | Path, kind: str = "outline") -> str:
 
     """
     data = read_input(path)
+    for bom, name in _WIDE_BOMS.items():
+        if data.startswith(bom):
+            raise InputFileError(f"is {name} text; save it as UTF-8 (or plain ASCII) text",
+                                 file=str(path))
     refuse_binary(data, str(path), f"a text {kind} file")
     return data.decode("utf-8", errors="replace")
+
+
+def _numbers(line: str) -> tuple[float, float] | None:
+    """The two numbers of a coordinate line, or None when it is not two numbers."""
+    parts = [p for p in _SPLIT.split(line) if p]
+    if len(parts) != 2:
+        return None
+    try:
+        return float(parts[0]), float(parts[1])
+    except ValueError:
+        return None
+
+
+def _refuse_line(line: str, number: int, source: str, first: bool) -> InputFileError:
+    """The error for a line that is not a pair of numbers, saying what it seems to be."""
+    dotted = _DECIMAL_COMMA.sub(".", line)
+    pair = _numbers(dotted) if dotted != line else None
+    if pair is not None:
+        return InputFileError(f"line {number} has a decimal comma: {line!r} (write decimal "
+                              f"points: {pair[0]:g} {pair[1]:g})", file=source)
+    words = [p for p in _SPLIT.split(line) if p]
+    if first and words and all(_numbers(f"{w} 0") is None for w in words):
+        return InputFileError(f"line {number} is not a pair of numbers: {line!r} (a header line "
+                              f"may only name the columns {' and '.join(HEADER_NAMES)}; give the "
+                              "unit with a 'units:' line)", file=source)
+    hint = " (if a comma is a decimal comma, write a decimal point)" if dotted != line else ""
+    return InputFileError(f"line {number} is not a pair of numbers: {line!r}{hint}", file=source)
+
+
+def _is_header(line: str) -> bool:
+    """True for a line of the column names x and y (any case, any separator)."""
+    return [p.lower() for p in _SPLIT.split(line) if p] == list(HEADER_NAMES)
 
 
 def parse_outline(text: str, *, source: str = "<text>", units: str | None = None) -> Profile:
@@ -88,6 +140,11 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     current: list[tuple[float, float]] = []
     material: str | None = None
     file_units: str | None = None
+    notes: list[str] = []
+    if text.startswith("\ufeff"):
+        text = text[1:]
+        notes.append("UTF-8 byte-order mark at the start of the file skipped")
+    first = True  # no coordinate line read yet: one header line of column names may come
 
     def close() -> None:
         if current:
@@ -111,34 +168,22 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
                     raise InputFileError(f"line {number}: material name is missing", file=source)
                 material = value
             elif key == "units":
-                if value not in LENGTH_UNITS:
-                    raise InputFileError(
-                        f"line {number}: unknown unit {value!r} (use {', '.join(LENGTH_UNITS)})",
-                        file=source)
-                if file_units is not None and file_units != value:
-                    raise InputFileError(f"line {number}: a second 'units:' line ({value}) "
-                                         f"contradicts the first ({file_units})", file=source)
-                file_units = value
+                file_units = _unit_line(value, number, source, file_units)
             else:
                 raise InputFileError(f"line {number}: unknown directive {key!r}", file=source)
             continue
-        parts = [p for p in _SPLIT.split(line) if p]
-        try:
-            if len(parts) != 2:
-                raise ValueError
-            x, y = float(parts[0]), float(parts[1])
-        except ValueError:
-            raise InputFileError(f"line {number} is not a pair of numbers: {line!r}",
-                                 file=source) from None
-        if not (np.isfinite(x) and np.isfinite(y)):
-            raise InputFileError(f"line {number} has a non-finite coordinate: {line!r}",
-                                 file=source)
-        current.append((x, y))
+        if first and _is_header(line):
+            notes.append(f"line {number}: column names {line!r} skipped")
+            first = False
+            continue
+        current.append(_coordinate(line, number, source, first))
+        first = False
     close()
     if not loops:
         raise InputFileError("no coordinates found", file=source)
     chosen = units or file_units or "mm"
-    notes = () if (units or file_units) else ("length unit not given: millimetres assumed",)
+    if not (units or file_units):
+        notes.append("length unit not given: millimetres assumed")
     if all(m is None for m in materials):
         materials = None
     elif any(m is None for m in materials):
@@ -146,6 +191,27 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
                              "(a 'material:' line before the first loop)", file=source)
     profile = profile_from_loops(loops, materials, source=source, units=chosen, notes=notes)
     return profile if (units or file_units) else check_assumed_size(profile)
+
+
+def _unit_line(value: str, number: int, source: str, before: str | None) -> str:
+    """The unit of a ``units:`` line, checked against the table and an earlier such line."""
+    if value not in LENGTH_UNITS:
+        raise InputFileError(f"line {number}: unknown unit {value!r} (use {', '.join(LENGTH_UNITS)})",
+                             file=source)
+    if before is not None and before != value:
+        raise InputFileError(f"line {number}: a second 'units:' line ({value}) contradicts the "
+                             f"first ({before})", file=source)
+    return value
+
+
+def _coordinate(line: str, number: int, source: str, first: bool) -> tuple[float, float]:
+    """The point of a coordinate line (``first``: no coordinate line came before it)."""
+    pair = _numbers(line)
+    if pair is None:
+        raise _refuse_line(line, number, source, first)
+    if not (np.isfinite(pair[0]) and np.isfinite(pair[1])):
+        raise InputFileError(f"line {number} has a non-finite coordinate: {line!r}", file=source)
+    return pair
 
 
 def read_outline(path: str | Path, units: str | None = None) -> Profile:
@@ -166,24 +232,23 @@ def read_outline(path: str | Path, units: str | None = None) -> Profile:
     return parse_outline(read_text(path), source=str(path), units=units)
 
 
-def refuse_dxf_options(path: str | Path, *, layers: object = None, part: object = None,
-                       chord_tolerance: object = None) -> None:
+def refuse_dxf_options(path: str | Path, options: ReadOptions) -> None:
     """Refuse, for an outline file, the options that apply to DXF drawings only.
 
     Raises
     ------
     UsageError
-        Naming the first such option given (``--layer``, ``--part`` or ``--chord-tolerance``).
+        Naming the first such option given (:attr:`ReadOptions.dxf_only`).
 
     Examples
     --------
-    >>> refuse_dxf_options("bar.txt", part=2)
+    >>> refuse_dxf_options("bar.txt", ReadOptions(part=2))
     Traceback (most recent call last):
     ...
     warpwise.errors.UsageError: bar.txt: --part applies to DXF drawings only
 
     """
-    for flag, value in (("--layer", layers), ("--part", part), ("--chord-tolerance", chord_tolerance)):
+    for flag, value in options.dxf_only:
         if value:
             raise UsageError(f"{flag} applies to DXF drawings only", file=str(path))
 

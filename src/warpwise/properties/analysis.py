@@ -26,7 +26,7 @@ from ..fem.p2 import ElementValues, element_values, integrate, stiffness_matrix
 from ..fem.solve import PinnedSolver
 from ..geometry.corners import Corner, reentrant_corners
 from ..geometry.profile import Profile
-from ..materials import ElementMaterials, Material, check_poisson
+from ..materials import ElementMaterials, Material, check_poisson, resolve
 from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
 from .geometric import GeometricProperties, geometric_properties
@@ -153,7 +153,14 @@ def element_materials(profile: Profile, mesh: Mesh, poisson: float,
     Returns
     -------
     ElementMaterials
+
+    Raises
+    ------
+    UsageError
+        Without ``materials``, for a region material name that is not built in.
     """
+    if materials is None:  # what the profile names (an outline's material: lines, DXF layers)
+        materials = resolve(list(profile.materials), source=profile.source)
     if materials is None:
         return ElementMaterials.single(mesh.n_elements, poisson, None)
     # the one place a material meets a profile: its values into the profile's unit system
@@ -204,7 +211,11 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         Poisson's ratio for the shear functions when no material is given (only shear areas
         and the elastic shear centre depend on it).
     materials : Material or sequence of Material, optional
-        One material for the whole profile, or one per region (``profile.regions``).
+        One material for the whole profile, or one per region (``profile.regions``). Default:
+        the materials the profile's regions name, from the built-in table (a file's
+        ``material:`` lines, a drawing's layer materials), as the command line reads them;
+        geometry only when they name none. Use
+        :func:`~warpwise.properties.run.run_analysis` for materials of your own table.
     reference : str, optional
         Reference material of the transformed section (default: that of the first region).
     refine : float
@@ -223,7 +234,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     Raises
     ------
     UsageError
-        For a Poisson's ratio outside (-1, 0.5).
+        For a Poisson's ratio outside (-1, 0.5), or (without ``materials``) a region material
+        name that is not built in.
     AnalysisError
         When the solve fails its residual check or J falls outside (0, Ix + Iy].
 

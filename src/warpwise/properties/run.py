@@ -106,6 +106,21 @@ def profile_materials(profile: Profile, options: AnalysisOptions) -> Material | 
     return mats
 
 
+def geometry_only(profile: Profile) -> Profile:
+    """The profile without material names: for the runs that judge the mesh, not the materials.
+
+    Examples
+    --------
+    >>> from warpwise.geometry import profile_from_loops
+    >>> p = profile_from_loops([[(0, 0), (4, 0), (4, 2)]], ["steel-S235"])
+    >>> p.materials, geometry_only(p).materials
+    (('steel-S235',), (None,))
+    """
+    if not any(profile.materials):
+        return profile
+    return replace(profile, regions=tuple(replace(r, material=None) for r in profile.regions))
+
+
 def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> SectionResult:
     """Analyse a profile with the given options.
 
@@ -133,12 +148,12 @@ def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> Se
         kwargs = {"poisson": nu, "materials": mats, "reference": options.reference,
                   "solver": options.solver, "bounds": options.bounds}
         if options.target_error:
-            run = refine_adaptively(profile, options.target_error, options.mesh_size, poisson=nu,
-                                    solver=options.solver)
+            run = refine_adaptively(geometry_only(profile), options.target_error,
+                                    options.mesh_size, poisson=nu, solver=options.solver)
             return analyse(profile, mesh=run.result.mesh, **kwargs)
         if options.estimate_errors:
-            est = estimate_errors(profile, options.mesh_size, refine=refine, poisson=nu,
-                                  bounds=options.bounds, solver=options.solver)
+            est = estimate_errors(geometry_only(profile), options.mesh_size, refine=refine,
+                                  poisson=nu, bounds=options.bounds, solver=options.solver)
             if mats is None:
                 return est.result
             res = analyse(profile, options.mesh_size, refine=refine, **kwargs)

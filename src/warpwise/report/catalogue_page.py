@@ -117,11 +117,12 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
     for e, rec in zip(done, records, strict=True):
         r = e.result
         v, length = rec.values, rec.units
-        name = profile_name(r) if r is not None else (Path(e.source).name or e.source)
+        name = rec.name or (profile_name(r) if r is not None else (Path(e.source).name or e.source))
         thumb = thumbnail_svg(r) if r is not None else (e.thumbnail or "")
         href = e.href if e.href is not None else datasheet_filename(e.source)
+        about = f'<br><span class="meta">{escape(rec.description)}</span>' if rec.description else ""
         cells = [f"<td>{thumb}</td>",
-                 f'<td><a href="{escape(href, quote=True)}">{escape(name)}</a></td>']
+                 f'<td><a href="{escape(href, quote=True)}">{escape(name)}</a>{about}</td>']
         for q in qs:
             unit = "" if common else f"\u202f{unit_html(unit_of(q, length))}"
             cells.append(f'<td class="num">{number_html(v[q.key], 5)}{unit}</td>'

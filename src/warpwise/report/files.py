@@ -80,7 +80,10 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     rec = item if isinstance(item, Record) else record_of(item)
     v = rec.values
     u = system(rec.units)
-    obj: dict[str, Any] = {"file": rec.source, "units": {"length": rec.units}}
+    obj: dict[str, Any] = {"file": rec.source}
+    obj.update({key: text for key, text in (("name", rec.name), ("description", rec.description))
+                if text})
+    obj["units"] = {"length": rec.units}
     if rec.materials:
         obj["units"].update({"force": u.force, "stress": u.stress, "moment": u.text(MOMENT),
                              "mass": u.linear_mass})
@@ -106,9 +109,13 @@ def json_text(items: list[SectionResult] | list[Record]) -> str:
     return json.dumps(objs[0] if len(objs) == 1 else objs, indent=2) + "\n"
 
 
-def csv_header(length: str) -> list[str]:
-    """CSV column headers, each with its unit, e.g. ``A (mm2)``."""
-    return ["file", "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
+def csv_header(length: str, named: bool = False) -> list[str]:
+    """CSV column headers, each with its unit, e.g. ``A (mm2)``.
+
+    ``named`` adds the columns of the names and descriptions given to the profiles.
+    """
+    names = ["name (text)", "description (text)"] if named else []
+    return ["file", *names, "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
             "mesh nodes (count)", "mesh elements (count)", "warnings (text)"]
 
 
@@ -122,6 +129,8 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     units : str, optional
         Unit system of the table (see :func:`~warpwise.report.records.report_units` for the
         default); every row is converted to it.
+
+    A name and a description column follow the file's when any profile has one.
     """
     recs = [r if isinstance(r, Record) else record_of(r) for r in items]
     if not recs:
@@ -131,15 +140,17 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
     with_errors = any(r.errors is not None for r in recs)
-    header = csv_header(length)
+    named = any(r.name or r.description for r in recs)
+    header = csv_header(length, named)
     if with_errors:
         header += [f"{k} est. rel. error (-)" for k in ERROR_KEYS]
     w.writerow(header)
     for r in recs:
         v = r.values
-        row = [r.source, r.units, *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}"
-                                    for q in QUANTITIES], r.nodes, r.elements,
-               "; ".join(r.warnings)]
+        names = [r.name, r.description] if named else []
+        row = [r.source, *names, r.units,
+               *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}" for q in QUANTITIES],
+               r.nodes, r.elements, "; ".join(r.warnings)]
         if with_errors:
             row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
         w.writerow(row)

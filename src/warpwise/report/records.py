@@ -45,6 +45,10 @@ class Record:
         Sharp re-entrant corners (coordinates and radius in ``units``).
     warnings : tuple of str
         Doubts about the input that every report shows (see ``Profile.warnings``).
+    name : str
+        Name or part number given to the profile (a catalogue manifest's), "" for none.
+    description : str
+        Its description, "" for none.
     """
 
     source: str
@@ -60,6 +64,8 @@ class Record:
     extra: dict[str, float] = field(default_factory=dict)
     corners: tuple[Corner, ...] = ()
     warnings: tuple[str, ...] = ()
+    name: str = ""
+    description: str = ""
 
     @property
     def remarks(self) -> tuple[str, ...]:

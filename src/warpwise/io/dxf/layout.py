@@ -346,5 +346,6 @@ def open_chain_defects(chains: Sequence[Chain], pieces: Sequence[Piece]) -> list
         gap_text = f"; the nearest other free end is {fmt(gap)} away" if math.isfinite(gap) else ""
         layer = c.layer if len(c.layers) <= 1 else ", ".join(c.layers)
         out.append(Defect("open chain", f"open chain on layer {layer} ({what}) with free ends at "
-                          f"{fmt_point(a)} and {fmt_point(b)}{gap_text}", (a, b), ERROR, c.layer))
+                          f"{fmt_point(a)} and {fmt_point(b)}{gap_text}", (a, b), ERROR, c.layer,
+                          size=max(gaps)))
     return out
