@@ -479,6 +479,7 @@ class Sample:
     other_layers: tuple[str, ...] = ()         # layers holding annotations only
     setup: bool = False                        # load ezdxf's standard styles (dimension styles)
     notes: list[str] = field(default_factory=list)
+    sheet: bool = False                        # a drawing sheet: frame, views, hatch on other layers
 
     def exact(self):
         """Exact area and centroid (x, y) of the true outline, drawing unit."""
@@ -736,8 +737,70 @@ def grip_ellipse():
                   notes=["full ELLIPSE outside; bore = half ELLIPSE (parameters 0 to pi) + LINE"])
 
 
+def rail_sheet():
+    """Hollow rail 60 x 40 x 5 on a whole A4 drawing sheet, as it leaves CAD.
+
+    The sheet edge and frame, a title block of rectangles sharing edges (with text), the cut
+    section hatched, a side view, hidden and centre lines, dimensions: warpwise must leave the
+    frame out and take the hatched section (common practice, no source: a cut section is
+    hatched, ISO 128).
+    """
+    x0, y0, w, h, r, t = 40.0, 90.0, 60.0, 40.0, 5.0, 5.0
+    q = math.tan(math.pi / 8)
+    outer = bulge_loop([(x0 + r, y0, 0), (x0 + w - r, y0, q), (x0 + w, y0 + r, 0),
+                        (x0 + w, y0 + h - r, q), (x0 + w - r, y0 + h, 0), (x0 + r, y0 + h, q),
+                        (x0, y0 + h - r, 0), (x0, y0 + r, q)])
+    cavity = bulge_loop([(x0 + t, y0 + t, 0), (x0 + w - t, y0 + t, 0), (x0 + w - t, y0 + h - t, 0),
+                         (x0 + t, y0 + h - t, 0)])
+
+    def box(msp, x_0, y_0, x_1, y_1, layer):
+        msp.add_lwpolyline([(x_0, y_0), (x_1, y_0), (x_1, y_1), (x_0, y_1)], close=True,
+                           dxfattribs={"layer": layer})
+
+    def draw(msp):
+        doc = msp.doc
+        for name, colour in (("frame", 7), ("hatch", 8), ("views", 7), ("hidden", 6), ("centre", 1),
+                             ("dimensions", 3), ("notes", 2)):
+            doc.layers.add(name, color=colour)
+        box(msp, 0, 0, 297, 210, "frame")                 # the trimmed A4 sheet
+        box(msp, 20, 10, 287, 200, "frame")               # the drawing frame
+        for cell in ((187, 10, 287, 46), (187, 10, 237, 28), (237, 10, 287, 28), (187, 28, 287, 46)):
+            box(msp, *cell, "frame")                      # the title block's cells
+        for k, text in enumerate(("HOLLOW RAIL HR-60 (invented sample)", "scale 1:1",
+                                  "dimensions in mm", "sheet 1 of 1")):
+            msp.add_text(text, height=3, dxfattribs={"layer": "notes"}).set_placement((190, 13 + 9 * k))
+        for loop in (outer, cavity):
+            add_lwpolyline(msp, loop)
+        hatch = msp.add_hatch(dxfattribs={"layer": "hatch"})
+        hatch.set_pattern_fill("ANSI31", scale=0.5)
+        for loop in (outer, cavity):
+            hatch.paths.add_polyline_path(bulge_vertices(loop), is_closed=True)
+        box(msp, 140, 90, 240, 130, "views")             # the side view, 100 long
+        for y in (y0 + t, y0 + h - t):
+            msp.add_line((140, y), (240, y), dxfattribs={"layer": "hidden"})
+        cx, cy = x0 + w / 2, y0 + h / 2
+        for a, b in (((cx - 36, cy), (cx + 36, cy)), ((cx, cy - 26), (cx, cy + 26)),
+                     ((134, cy), (246, cy))):
+            msp.add_line(a, b, dxfattribs={"layer": "centre"})
+        dims = {"layer": "dimensions"}
+        msp.add_linear_dim(base=(0, y0 - 10), p1=(x0, y0), p2=(x0 + w, y0), dxfattribs=dims).render()
+        msp.add_linear_dim(base=(x0 - 10, 0), p1=(x0, y0), p2=(x0, y0 + h), angle=90,
+                           dxfattribs=dims).render()
+        msp.add_linear_dim(base=(0, 140), p1=(140, 130), p2=(240, 130), dxfattribs=dims).render()
+        msp.add_text("A-A", height=5, dxfattribs={"layer": "notes"}).set_placement((60, 140))
+
+    return Sample("rail_drawing_sheet_a4.dxf",
+                  "hollow rail 60 x 40 x 5 on an A4 drawing sheet with frame, title block and side view",
+                  ("LWPOLYLINE",), [outer], [cavity], draw,
+                  other_layers=("frame", "hatch", "views", "hidden", "centre", "dimensions", "notes"),
+                  setup=True, sheet=True,
+                  notes=["a whole sheet: frame and title block (layer frame), the section hatched"
+                         " (layer hatch), a side view 100 x 40 (layer views), hidden and centre"
+                         " lines, dimensions and text"])
+
+
 SAMPLES = (mullion, heat_sink, hollow_shaft_with_keyway, handrail, purlin, solar_rail, thick_angle,
-           box_inches, strut_spline, grip_ellipse)
+           box_inches, strut_spline, grip_ellipse, rail_sheet)
 
 
 def samples() -> list[Sample]:
@@ -751,7 +814,7 @@ def catalogue() -> dict[str, dict]:
     Returns
     -------
     dict
-        ``{file name: {"title", "units", "entities", "other_layers", "A", "centroid",
+        ``{file name: {"title", "units", "entities", "other_layers", "sheet", "A", "centroid",
         "regions", "holes", "notes"}}``; ``A`` and ``centroid`` are exact for the true curved
         outline, in the drawing's unit.
     """
@@ -759,7 +822,7 @@ def catalogue() -> dict[str, dict]:
     for s in samples():
         area, centroid = s.exact()
         out[s.name] = {"title": s.title, "units": s.units, "entities": s.entities,
-                       "other_layers": s.other_layers, "A": area, "centroid": centroid,
+                       "other_layers": s.other_layers, "sheet": s.sheet, "A": area, "centroid": centroid,
                        "regions": len(s.solids), "holes": len(s.holes), "notes": tuple(s.notes)}
     return out
 
