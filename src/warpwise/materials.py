@@ -130,7 +130,8 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
     Raises
     ------
     UsageError
-        For missing or out-of-range values (``where`` names the file or table).
+        For missing, out-of-range or implausible values, and for E, nu and G given together
+        that disagree by more than :data:`G_AGREEMENT` (``where`` names the file or table).
     """
     def bad(msg: str) -> UsageError:
         return UsageError(f"material {name!r}: {msg}", file=where)
@@ -140,6 +141,7 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
             raise bad(f"{label} must be a number, got {v!r}")
         if v is not None and not np.isfinite(v):
             raise bad(f"{label} must be a finite number, got {v}")
+    given_nu, given_G = nu, G
     try:
         E = float(E)
         nu = None if nu is None else float(nu)
@@ -166,7 +168,57 @@ def make_material(name: str, E: float, nu: float | None = None, G: float | None 
         raise bad(f"fy must be positive, got {fy}")
     if density is not None and not density > 0:
         raise bad(f"density must be positive, got {density}")
+    if given_nu is not None and given_G is not None:
+        implied = E / (2.0 * (1.0 + given_nu))
+        if abs(given_G - implied) > G_AGREEMENT * implied:
+            raise bad(f"E = {E:g} MPa, nu = {given_nu:g} and G = {given_G:g} MPa contradict each "
+                      f"other (E / (2 (1 + nu)) = {implied:.6g} MPa): give two of the three")
+    for label, v in (("E", E), ("G", G), ("fy", fy), ("density", density)):
+        check_plausible(label, v, where=f"material {name!r}", file=where)
     return Material(name, E, nu, G, fy, density, source)
+
+
+#: Largest relative difference between a given G and E / (2 (1 + nu)) accepted (common practice,
+#: no source: the rounding of tabulated values).
+G_AGREEMENT = 0.01
+
+#: Plausible ranges of material values of solids, (low, high, unit) (from memory: the softest
+#: foams and gels near 1 kPa to diamond near 1.2e6 MPa for moduli; strengths of the strongest
+#: wires below 2e4 MPa; densities from light foams near 1 kg/m^3 to osmium near 22600 kg/m^3).
+PLAUSIBLE = {"E": (1e-3, 2e6, "MPa"), "G": (1e-3, 2e6, "MPa"), "fy": (1e-3, 2e4, "MPa"),
+             "density": (1.0, 25000.0, "kg/m3")}
+
+
+def check_plausible(label: str, value: float | None, *, where: str = "",
+                    file: str | None = None) -> None:
+    """Refuse a material value outside :data:`PLAUSIBLE` (None passes).
+
+    Parameters
+    ----------
+    label : str
+        ``E``, ``G`` or ``fy`` (value in MPa) or ``density`` (kg/m^3).
+    value : float or None
+        The value.
+    where : str
+        What it belongs to, for the message.
+    file : str, optional
+        Source named in the message.
+
+    Examples
+    --------
+    >>> check_plausible("E", 210000.0)
+    >>> check_plausible("E", 1e308, where="material 'x'")
+    Traceback (most recent call last):
+    ...
+    warpwise.errors.UsageError: material 'x': E = 1e+308 MPa is outside the plausible range 0.001 to 2e+06 MPa
+    """
+    if value is None:
+        return
+    lo, hi, unit = PLAUSIBLE[label]
+    if not lo <= value <= hi:
+        lead = f"{where}: " if where else ""
+        raise UsageError(f"{lead}{label} = {value:g} {unit} is outside the plausible range "
+                         f"{lo:g} to {hi:g} {unit}", file=file)
 
 
 _EN1999 = "EN 1999-1-1:2007, 3.2.5 (E, G, nu, density) and Table 3.2b (f0.2, extrusions, from memory)"
@@ -247,9 +299,12 @@ def read_materials(path: str | Path) -> dict[str, Material]:
         if "E" not in v:
             raise InputFileError(f"[materials.{name}] needs E", file=str(path))
         scaled = {k: _scaled(v.get(k), stress_factor) for k in ("E", "G", "fy")}
-        out[name] = make_material(name, scaled["E"], v.get("nu"), scaled["G"], scaled["fy"],
-                                  _scaled(v.get("density"), density_factor),
-                                  str(v.get("source", str(path))), where=str(path))
+        try:
+            out[name] = make_material(name, scaled["E"], v.get("nu"), scaled["G"], scaled["fy"],
+                                      _scaled(v.get("density"), density_factor),
+                                      str(v.get("source", str(path))), where=str(path))
+        except UsageError as exc:  # a bad value in a file is a defect of the file (exit 1)
+            raise InputFileError(exc.message, file=str(path)) from None
     return out
 
 

@@ -244,14 +244,22 @@ def test_read_materials(tmp_path):
     ("[materials]\na = 3\n", InputFileError, "must be a table"),
     ("[materials.a]\nnu = 0.3\n", InputFileError, "needs E"),
     ("[materials.a]\nE = 1000\nnu = 0.3\nYoung = 3\n", InputFileError, "unknown keys ['Young']"),
-    ("[materials.a]\nE = \"stiff\"\nnu = 0.3\n", UsageError, "must be a number"),
-    ("[materials.a]\nE = 1000\nnu = 0.5\n", UsageError, "Poisson's ratio"),
-    ("[materials.a]\nE = 1000\n", UsageError, "give Poisson's ratio nu or the shear modulus G"),
-    ("[materials.a]\nE = 0\nnu = 0.3\n", UsageError, "E must be positive"),
-    ("[materials.a]\nE = nan\nnu = 0.3\n", UsageError, "must be a finite number"),
-    ("[materials.a]\nE = 1000\nG = 300\n", UsageError, "outside (-1, 0.5)"),  # nu = 0.67
-    ("[materials.a]\nE = 1000\nnu = 0.3\nfy = -5\n", UsageError, "fy must be positive"),
-    ("[materials.a]\nE = 1000\nnu = 0.3\ndensity = 0\n", UsageError, "density must be positive"),
+    ("[materials.a]\nE = \"stiff\"\nnu = 0.3\n", InputFileError, "must be a number"),
+    ("[materials.a]\nE = 1000\nnu = 0.5\n", InputFileError, "Poisson's ratio"),
+    ("[materials.a]\nE = 1000\n", InputFileError, "give Poisson's ratio nu or the shear modulus G"),
+    ("[materials.a]\nE = 0\nnu = 0.3\n", InputFileError, "E must be positive"),
+    ("[materials.a]\nE = nan\nnu = 0.3\n", InputFileError, "must be a finite number"),
+    ("[materials.a]\nE = 1000\nG = 300\n", InputFileError, "outside (-1, 0.5)"),  # nu = 0.67
+    ("[materials.a]\nE = 1000\nnu = 0.3\nfy = -5\n", InputFileError, "fy must be positive"),
+    ("[materials.a]\nE = 1000\nnu = 0.3\ndensity = 0\n", InputFileError, "density must be positive"),
+    ("[materials.a]\nE = 1e308\nnu = 0.3\n", InputFileError,
+     "E = 1e+308 MPa is outside the plausible range"),
+    ("[materials.a]\nE = 70000\nnu = 0.3\ndensity = 2.7e6\n", InputFileError,
+     "density = 2.7e+06 kg/m3 is outside"),  # g/m3 typed as kg/m3
+    ("[materials.a]\nE = 70000\nnu = 0.33\nG = 20000\n", InputFileError,
+     "contradict each other"),  # E / 2(1 + nu) = 26316 MPa, 24 % off
+    ("stress_unit = 'GPa'\n[materials.a]\nE = 70000\nnu = 0.33\n", InputFileError,
+     "E = 7e+07 MPa is outside"),  # MPa values under a GPa header
 ])
 def test_bad_materials_tables(tmp_path, text, error, words):
     f = tmp_path / "bad.toml"

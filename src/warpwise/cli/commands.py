@@ -14,6 +14,7 @@ from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
+from ..materials import check_plausible
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
 from ..report.files import atomic_write, csv_text, json_text
@@ -52,7 +53,9 @@ def _in_profile_units(args: argparse.Namespace, result: SectionResult) -> tuple[
     """Loads and the given G from the report's unit system into the profile's."""
     given = args.report_units or result.units
     G = _given_modulus(args)
-    G = None if G is None else convert(G, STRESS, given, result.units)
+    if G is not None:
+        check_plausible("G", convert(G, STRESS, given, "mm"), where="the shear modulus given")
+        G = convert(G, STRESS, given, result.units)
     return _loads(args).converted(given, result.units), G
 
 

@@ -6,11 +6,11 @@ The stresses are computed in the profile's unit system; every number is converte
 
 from __future__ import annotations
 
-import json
 from collections.abc import Callable
 from dataclasses import dataclass
 
 from ..properties.analysis import SectionResult
+from ..report.files import standard_json
 from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
@@ -74,7 +74,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
         "twist_rate": v(s.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(s.twist_rate),
         "warnings": list(result.profile.warnings),
     }
-    return json.dumps(obj, indent=2) + "\n"
+    return standard_json(obj, file=file)
 
 
 def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None,
@@ -125,7 +125,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
                        "utilisation": m.utilisation} for m in c.by_material],
         "warnings": list(result.profile.warnings),
     }
-    return json.dumps(obj, indent=2) + "\n"
+    return standard_json(obj, file=file)
 
 
 def combined_text(file: str, result: SectionResult, c: CombinedStress,

@@ -9,12 +9,13 @@ from __future__ import annotations
 import csv
 import io
 import json
+import math
 import os
 import tempfile
 from pathlib import Path
 from typing import Any
 
-from ..errors import UsageError
+from ..errors import AnalysisError, UsageError
 from ..properties.accuracy import ERROR_KEYS
 from ..properties.analysis import SectionResult
 from ..units import MOMENT, system
@@ -106,7 +107,68 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
 def json_text(items: list[SectionResult] | list[Record]) -> str:
     """JSON text: one object for one result, a list for several."""
     objs = [to_json_object(r) for r in items]
-    return json.dumps(objs[0] if len(objs) == 1 else objs, indent=2) + "\n"
+    for obj in objs:
+        standard_json(obj, file=obj["file"])  # names the profile of a non-finite value
+    return standard_json(objs[0] if len(objs) == 1 else objs)
+
+
+def standard_json(obj: Any, file: str | None = None) -> str:
+    """Standard JSON text of ``obj`` (indented, a final newline): the one JSON writer.
+
+    Parameters
+    ----------
+    obj : dict or list
+        Plain data: dicts, lists, str, int, float, bool, None.
+    file : str, optional
+        Input named in the message of a refusal.
+
+    Raises
+    ------
+    AnalysisError
+        For a NaN or infinite number (standard JSON has none), naming where it is.
+
+    Examples
+    --------
+    >>> standard_json({"A": 1.5})
+    '{\\n  "A": 1.5\\n}\\n'
+    >>> standard_json({"EA": float("inf")})
+    Traceback (most recent call last):
+    ...
+    warpwise.errors.AnalysisError: EA is not a finite number (inf): check the inputs it comes from (material values, moduli, loads)
+    """
+    bad = _non_finite(obj)
+    if bad is not None:
+        where, value = bad
+        raise AnalysisError(f"{where} is not a finite number ({value}): check the inputs it comes "
+                            "from (material values, moduli, loads)", file=file)
+    return json.dumps(obj, indent=2, allow_nan=False) + "\n"
+
+
+def _non_finite(obj: Any, where: str = "") -> tuple[str, float] | None:
+    """(key path, value) of the first NaN or infinite number in nested lists and dicts."""
+    if isinstance(obj, float):
+        return None if math.isfinite(obj) else (where or "a value", obj)
+    items = obj.items() if isinstance(obj, dict) else enumerate(obj) if isinstance(obj, list) else ()
+    for k, v in items:
+        found = _non_finite(v, f"{where}[{k}]" if isinstance(k, int) else (f"{where}.{k}" if where else k))
+        if found is not None:
+            return found
+    return None
+
+
+#: First characters that make a spreadsheet read a cell as a formula (or a command).
+FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+
+
+def csv_safe(text: str) -> str:
+    """A text cell that no spreadsheet runs as a formula: a leading apostrophe where needed.
+
+    Examples
+    --------
+    >>> csv_safe("=1+2.txt"), csv_safe("bar.txt"), csv_safe("-2+3.txt")
+    ("'=1+2.txt", 'bar.txt', "'-2+3.txt")
+    """
+    return f"'{text}" if text.startswith(FORMULA_STARTS) else text
 
 
 def csv_header(length: str, named: bool = False) -> list[str]:
@@ -147,10 +209,14 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     w.writerow(header)
     for r in recs:
         v = r.values
-        names = [r.name, r.description] if named else []
-        row = [r.source, *names, r.units,
+        for q in QUANTITIES:
+            if abs(v[q.key]) == math.inf:
+                raise AnalysisError(f"{q.key} is not a finite number ({v[q.key]}): check the inputs "
+                                    "it comes from (material values, moduli, loads)", file=r.source)
+        names = [csv_safe(r.name), csv_safe(r.description)] if named else []
+        row = [csv_safe(r.source), *names, r.units,
                *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}" for q in QUANTITIES],
-               r.nodes, r.elements, "; ".join(r.warnings)]
+               r.nodes, r.elements, csv_safe("; ".join(r.warnings))]
         if with_errors:
             row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
         w.writerow(row)

@@ -10,6 +10,7 @@ message.
 from __future__ import annotations
 
 import logging
+import re
 from collections import Counter
 from pathlib import Path
 
@@ -80,7 +81,40 @@ def load_document(path: str | Path) -> tuple[object, tuple[str, ...], bool, dict
         found = Counter(e.dxftype() for e in doc.modelspace())
     repairs = recovered + tuple(str(getattr(f, "message", f))
                                 for f in list(auditor.fixes) + list(auditor.errors))
+    if not states_insunits(data):
+        # ezdxf fills in a default header ($INSUNITS = 6, metres) for a file without one: the
+        # unit must come from what the file itself holds
+        if doc.header.get("$INSUNITS") is not None:
+            del doc.header["$INSUNITS"]
     return doc, repairs, truncated, dict(found)
+
+
+_TAG_END = rb"[ \t]*\r?\n[ \t]*"
+_HEADER_START = re.compile(rb"^[ \t]*0" + _TAG_END + rb"SECTION" + _TAG_END + rb"2" + _TAG_END
+                           + rb"HEADER[ \t]*\r?\n", re.IGNORECASE)
+_SECTION_END = re.compile(rb"\n[ \t]*0" + _TAG_END + rb"ENDSEC[ \t]*\r?\n", re.IGNORECASE)
+_INSUNITS = re.compile(rb"\n[ \t]*9" + _TAG_END + rb"\$INSUNITS[ \t]*\r?\n", re.IGNORECASE)
+_COMMENT = re.compile(rb"^(?:[ \t]*999[ \t]*\r?\n[^\n]*\n)*")
+
+
+def states_insunits(data: bytes) -> bool:
+    r"""True when a text DXF's own HEADER section (the first section) holds ``$INSUNITS``.
+
+    Examples
+    --------
+    >>> states_insunits(b"0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n")
+    True
+    >>> states_insunits(b"0\nSECTION\n2\nENTITIES\n0\nENDSEC\n0\nEOF\n")
+    False
+    """
+    body = data.removeprefix(b"\xef\xbb\xbf")
+    body = body[_COMMENT.match(body).end():]
+    start = _HEADER_START.match(body)
+    if start is None:
+        return False
+    end = _SECTION_END.search(body, start.end() - 1)
+    header = body[start.end() - 1:end.start() + 1 if end else len(body)]
+    return _INSUNITS.search(header) is not None
 
 
 class _Collect(logging.Handler):
