@@ -129,12 +129,14 @@ def standard_json(obj: Any, file: str | None = None) -> str:
 
     Examples
     --------
-    >>> standard_json({"A": 1.5})
-    '{\\n  "A": 1.5\\n}\\n'
-    >>> standard_json({"EA": float("inf")})
+    >>> print(standard_json({"A": 1.5}), end="")
+    {
+      "A": 1.5
+    }
+    >>> standard_json({"EA": float("inf")})  # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
-    warpwise.errors.AnalysisError: EA is not a finite number (inf): check the inputs it comes from (material values, moduli, loads)
+    warpwise.errors.AnalysisError: EA is not a finite number (inf): check the inputs it comes ...
     """
     bad = _non_finite(obj)
     if bad is not None:
