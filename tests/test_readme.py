@@ -123,11 +123,14 @@ def test_unit_systems_and_material_units_are_all_described():
 def test_exit_codes_are_those_of_the_program():
     rows = _table(_section("### Exit codes"), "| code |")
     codes = {int(r[0]): r[1] for r in rows}
-    assert set(codes) == {0, commands.EXIT_INPUT, commands.EXIT_USAGE, commands.EXIT_INTERNAL, 130}
+    assert set(codes) == {0, commands.EXIT_INPUT, commands.EXIT_USAGE, commands.EXIT_INTERNAL,
+                          commands.EXIT_TARGET, 130}
     assert "input file" in codes[commands.EXIT_INPUT]
     assert "command line" in codes[commands.EXIT_USAGE]
     assert "torque without a material" in codes[commands.EXIT_USAGE]
     assert "internal" in codes[commands.EXIT_INTERNAL]
+    assert "--target-error" in codes[commands.EXIT_TARGET]
+    assert "exits with 1" in codes[commands.EXIT_TARGET]  # a failure outranks a missed target
     assert "interrupted" in codes[130]
 
 

@@ -283,11 +283,13 @@ def catalogue_items(items: Iterable[str | Path], options: RunOptions | None = No
     return out
 
 
-def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = None) -> Outcome:
+def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = None,
+                label: str | None = None) -> Outcome:
     """Read and analyse one file; every user-input error is caught into the outcome.
 
     This is the worker function of a catalogue (picklable, top level). An :class:`Item` brings
-    its own options (else ``options``), name and description.
+    its own options (else ``options``), name and description; ``sheet_name`` and ``label`` are
+    its datasheet's file name and the name it shows (default the file's own).
     """
     from .properties.run import run_analysis
     from .report.records import record_of
@@ -308,7 +310,7 @@ def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = 
             sheet = str(write_datasheet(result, options.datasheet_dir,
                                         torsion=torsion_stress(result, unit_torque),
                                         nominal_torque=True, filename=sheet_name, units=shown,
-                                        title=item.title))
+                                        title=item.title, label=label))
             thumb = thumbnail_svg(result)
         record = replace(record_of(result), name=item.name, description=item.description)
         return Outcome(path, record, None, time.perf_counter() - start, sheet, thumb)
@@ -350,10 +352,11 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
     items = [f if isinstance(f, Item) else Item(str(f)) for f in files]
     paths = [it.path for it in items]
     names: list[str | None] = [None] * len(paths)
+    labels: list[str | None] = [None] * len(paths)
     if options.datasheet_dir:
-        from .report.html import unique_filenames
+        from .report.html import relative_names, unique_filenames
 
-        names = list(unique_filenames(paths))
+        names, labels = list(unique_filenames(paths)), list(relative_names(paths))
     total = len(paths)
     outcomes: list[Outcome | None] = [None] * total
     done = 0
@@ -367,12 +370,13 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
 
     if executor is None and (jobs == 1 or total <= 1):
         for i, it in enumerate(items):
-            finished(i, analyse_one(it, options, names[i]))
+            finished(i, analyse_one(it, options, names[i], labels[i]))
         return outcomes  # type: ignore[return-value]
     own = executor is None
     pool = executor if executor is not None else ProcessPoolExecutor(max_workers=jobs)
     try:
-        futures = {pool.submit(analyse_one, it, options, names[i]): i for i, it in enumerate(items)}
+        futures = {pool.submit(analyse_one, it, options, names[i], labels[i]): i
+                   for i, it in enumerate(items)}
         from concurrent.futures import as_completed
 
         for fut in as_completed(futures):

@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import sys
 from collections.abc import Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 import numpy as np
@@ -57,6 +57,9 @@ class Material:
         Where the values come from.
     system : str
         Unit system of the values, a key of :data:`warpwise.units.SYSTEMS`.
+    note : str
+        A remark for every report that uses it ("" for none): a user table's entry that
+        replaces a built-in material says so (:func:`override_note`).
     """
 
     name: str
@@ -67,6 +70,7 @@ class Material:
     density: float | None = None
     source: str = ""
     system: str = "mm"
+    note: str = ""
 
     def in_system(self, system: str) -> Material:
         """The same material with its values in another unit system.
@@ -85,8 +89,8 @@ class Material:
 
         density = None if self.density is None else convert(self.density, DENSITY, self.system,
                                                             system)
-        return Material(self.name, stress(self.E), self.nu, stress(self.G), stress(self.fy),
-                        density, self.source, system)
+        return replace(self, E=stress(self.E), G=stress(self.G), fy=stress(self.fy),
+                       density=density, system=system)
 
 
 #: Open interval of Poisson's ratios of an isotropic, stable elastic material (common practice,
@@ -305,7 +309,26 @@ def read_materials(path: str | Path) -> dict[str, Material]:
                                       str(v.get("source", str(path))), where=str(path))
         except UsageError as exc:  # a bad value in a file is a defect of the file (exit 1)
             raise InputFileError(exc.message, file=str(path)) from None
+        if name in BUILTIN:
+            out[name] = replace(out[name], note=override_note(str(path), BUILTIN[name]))
     return out
+
+
+def override_note(table: str, builtin: Material) -> str:
+    """The note on a table entry that replaces a built-in material, naming the values replaced.
+
+    Examples
+    --------
+    >>> override_note("own.toml", BUILTIN["steel-S235"])  # doctest: +NORMALIZE_WHITESPACE
+    "materials table own.toml replaces the built-in material 'steel-S235' (E = 210000 MPa,
+    G = 81000 MPa, nu = 0.296, fy = 235 MPa, density = 7850 kg/m3): the table's values are used"
+    """
+    m = builtin
+    given = [f"E = {m.E:g} MPa", f"G = {m.G:g} MPa", f"nu = {m.nu:.3g}"]
+    given += [] if m.fy is None else [f"fy = {m.fy:g} MPa"]
+    given += [] if m.density is None else [f"density = {m.density:g} kg/m3"]
+    return (f"materials table {table} replaces the built-in material {m.name!r} "
+            f"({', '.join(given)}): the table's values are used")
 
 
 def _scaled(value: object, factor: float) -> object:

@@ -29,6 +29,9 @@ from .stress_output import combined_json, combined_text, shear_json, shear_text
 EXIT_INPUT = 1
 EXIT_USAGE = 2
 EXIT_INTERNAL = 3
+#: A --target-error that the adaptive refinement did not reach (the results are written).
+#: A catalogue where profiles also failed exits with EXIT_INPUT: a failure outranks a miss.
+EXIT_TARGET = 4
 
 
 def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -> SectionResult:
@@ -76,14 +79,21 @@ def run_props(args: argparse.Namespace) -> int:
         sys.stdout.write(json_text(shown))
     else:
         sys.stdout.write("\n".join(property_table(r) for r in shown))
-    return 0
+    return _missed_exit(records)
+
+
+def _missed_exit(records: list[Record]) -> int:
+    """EXIT_TARGET when any profile missed its target error, else 0."""
+    return EXIT_TARGET if any(r.target_missed for r in records) else 0
 
 
 def _warn(records: list[Record]) -> None:
-    """Every doubt about the inputs, one line each on stderr."""
+    """Every doubt about the inputs, one line each on stderr; each material note once."""
     for rec in records:
         for w in rec.warnings:
             print(f"warpwise: warning: {rec.source}: {w}", file=sys.stderr)
+    for note in dict.fromkeys(n for rec in records for n in rec.material_notes):
+        print(f"warpwise: note: {note}", file=sys.stderr)
 
 
 def _table_units(records: list[Record], chosen: str | None) -> str:
@@ -189,7 +199,7 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
           file=sys.stderr)
     for o in bad:
         print(f"warpwise: error: {o.error}", file=sys.stderr)
-    return EXIT_INPUT if bad else 0
+    return EXIT_INPUT if bad else _missed_exit([o.record for o in good])
 
 
 def run_plot(args: argparse.Namespace) -> int:

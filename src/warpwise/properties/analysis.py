@@ -38,6 +38,62 @@ from .torsion import TorsionProperties, torsion_load, torsion_properties
 MAX_RESIDUAL = 1e-8
 
 
+#: Why an adaptive refinement stopped (:attr:`TargetStatus.stopped`), each with what it means.
+REACHED, STEP_LIMIT, ELEMENT_BUDGET, ROUND_OFF_FLOOR = (
+    "target reached", "step limit", "element budget", "round-off floor")
+STOP_REASONS = {
+    REACHED: "the guaranteed bound is within the target",
+    STEP_LIMIT: "no more meshes are solved",
+    ELEMENT_BUDGET: "the next mesh would have had more elements than allowed",
+    ROUND_OFF_FLOOR: "the warping error indicator is at round-off, so refinement has nothing "
+                     "left to steer by",
+}
+
+
+@dataclass(frozen=True)
+class TargetStatus:
+    """How adaptive refinement towards a requested error of J ended.
+
+    Attributes
+    ----------
+    target : float
+        Requested relative error of J (dimensionless).
+    reached : float
+        Guaranteed bound on the relative error of J on the final mesh, (J - J_low) / J_low.
+    meshes : int
+        Meshes solved (the first one included).
+    stopped : str
+        Why the refinement stopped, a key of :data:`STOP_REASONS`.
+    """
+
+    target: float
+    reached: float
+    meshes: int
+    stopped: str
+
+    @property
+    def met(self) -> bool:
+        """True when the bound is within the target."""
+        return self.reached <= self.target
+
+    @property
+    def text(self) -> str:
+        """One line saying the target, the bound reached, the steps and why it stopped.
+
+        Examples
+        --------
+        >>> TargetStatus(1e-12, 4.5e-9, 12, STEP_LIMIT).text  # doctest: +NORMALIZE_WHITESPACE
+        'target error 1e-12 missed: J is certainly within 4.5e-09 after 12 meshes; stopped at
+        the step limit: no more meshes are solved'
+        """
+        outcome = "met" if self.met else "missed"
+        head = (f"target error {self.target:.3g} {outcome}: J is certainly within "
+                f"{self.reached:.2g} after {self.meshes} mesh{'' if self.meshes == 1 else 'es'}")
+        if self.met:
+            return head
+        return f"{head}; stopped at the {self.stopped}: {STOP_REASONS[self.stopped]}"
+
+
 @dataclass(frozen=True, eq=False)
 class SectionResult:
     """Everything computed for one profile.
@@ -77,6 +133,8 @@ class SectionResult:
     timings : dict of str to float
         Wall time of each stage of the analysis, s (mesh, basis, assembly, factorise, warping,
         bounds, shear, plastic).
+    target : TargetStatus or None
+        How the adaptive refinement ended, when a target error was asked for.
     """
 
     profile: Profile
@@ -93,6 +151,7 @@ class SectionResult:
     corners: tuple[Corner, ...] = ()
     region_areas: tuple[float, ...] = ()
     timings: dict[str, float] = field(default_factory=dict)
+    target: TargetStatus | None = None
 
     @property
     def composite(self) -> bool:

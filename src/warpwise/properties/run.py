@@ -134,7 +134,7 @@ def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> Se
     Returns
     -------
     SectionResult
-        With ``errors`` set when an estimate was asked for.
+        With ``errors`` set when an estimate was asked for, ``target`` when a target error was.
 
     Raises
     ------
@@ -150,7 +150,7 @@ def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> Se
         if options.target_error:
             run = refine_adaptively(geometry_only(profile), options.target_error,
                                     options.mesh_size, poisson=nu, solver=options.solver)
-            return analyse(profile, mesh=run.result.mesh, **kwargs)
+            return replace(analyse(profile, mesh=run.result.mesh, **kwargs), target=run.status)
         if options.estimate_errors:
             est = estimate_errors(geometry_only(profile), options.mesh_size, refine=refine,
                                   poisson=nu, bounds=options.bounds, solver=options.solver)

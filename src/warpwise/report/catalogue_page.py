@@ -21,6 +21,7 @@ from .html_parts import (
     footer,
     number_html,
     page,
+    relative_names,
     safe_name,
     symbol_html,
     unit_html,
@@ -114,10 +115,12 @@ def index_html(entries: Sequence[CatalogueEntry], *, title: str = "Section catal
         unit = f" ({unit_html(unit_of(q, common))})" if common else ""
         head.append(f'<th scope="col" title="{escape(q.label)}">{symbol_html(q.symbol)}{unit}</th>')
     rows = []
+    label = dict(zip(map(id, entries), relative_names([e.source for e in entries]), strict=True))
     for e, rec in zip(done, records, strict=True):
         r = e.result
         v, length = rec.values, rec.units
-        name = rec.name or (profile_name(r) if r is not None else (Path(e.source).name or e.source))
+        name = rec.name or (profile_name(r) if e.source.startswith("<") and r is not None
+                            else label[id(e)])
         thumb = thumbnail_svg(r) if r is not None else (e.thumbnail or "")
         href = e.href if e.href is not None else datasheet_filename(e.source)
         about = f'<br><span class="meta">{escape(rec.description)}</span>' if rec.description else ""

@@ -16,6 +16,7 @@ from ..errors import UsageError
 from ..io.check import CheckReport
 from ..io.defects import ERROR, plural
 from .files import atomic_write
+from .plot_parts import plain_text
 
 
 def plot_report(report: CheckReport, out: str | Path) -> None:
@@ -76,6 +77,7 @@ def plot_report(report: CheckReport, out: str | Path) -> None:
                  f"{plural(len(report.warnings), 'warning')} (numbers as in the report)", fontsize=9)
     ax.grid(True, lw=0.3, alpha=0.5)
     buf = io.BytesIO()
+    plain_text(fig)
     fig.savefig(buf, format=fmt_name)
     atomic_write(out, buf.getvalue())
 

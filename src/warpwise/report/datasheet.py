@@ -205,7 +205,8 @@ def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torq
 
 
 def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_torque: bool = False,
-                   title: str | None = None, warping: bool = True, units: str | None = None) -> str:
+                   title: str | None = None, warping: bool = True, units: str | None = None,
+                   label: str | None = None) -> str:
     """A self-contained HTML5 datasheet of one analysed profile.
 
     Parameters
@@ -220,11 +221,14 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
         The torque is the nominal T = 1 force x L of the page's units (no torque was given):
         the caption says so and that the stresses scale with the torque.
     title : str, optional
-        Heading; default the profile's file name.
+        Heading; default ``label``.
     warping : bool
         Include the picture of the warping function.
     units : str, optional
         Unit system of the page (:data:`warpwise.units.SYSTEMS`); default the profile's.
+    label : str, optional
+        The profile's name in the heading and the line below it; default its file name (a
+        catalogue gives :func:`~warpwise.report.html_parts.relative_names`).
 
     Returns
     -------
@@ -244,7 +248,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     if nominal_torque and not np.isclose(show(torsion.torque, MOMENT), 1.0, rtol=1e-12, atol=0):
         raise UsageError(f"a nominal torque is 1 {show.unit(MOMENT)}, got "
                          f"{show(torsion.torque, MOMENT)}")
-    name = profile_name(result)
+    name = label or profile_name(result)
     heading = title or name
     u = show.target
     rec = record_of(result).in_units(u)
@@ -288,7 +292,8 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
 
 def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: TorsionStress,
                     nominal_torque: bool = False, filename: str | None = None,
-                    title: str | None = None, units: str | None = None) -> Path:
+                    title: str | None = None, units: str | None = None,
+                    label: str | None = None) -> Path:
     """Write the datasheet of one profile into ``folder``, atomically.
 
     Parameters
@@ -303,7 +308,7 @@ def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: Torsi
         File name; default :func:`datasheet_filename` of the profile's source (use
         :func:`~warpwise.report.html_parts.unique_filenames` for a catalogue). Only the name
         is used, never a path.
-    title, units : str, optional
+    title, units, label : str, optional
         As for :func:`datasheet_html`.
 
     Returns
@@ -320,5 +325,5 @@ def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: Torsi
     name = safe_name(filename) if filename else datasheet_filename(result.profile.source)
     path = Path(folder) / name
     atomic_write(path, datasheet_html(result, torsion=torsion, nominal_torque=nominal_torque,
-                                      title=title, units=units))
+                                      title=title, units=units, label=label))
     return path

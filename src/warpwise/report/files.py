@@ -101,6 +101,10 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     obj["warnings"] = list(rec.warnings)
     if rec.errors is not None:
         obj["relative_error"] = dict(rec.errors)
+    if rec.target is not None:
+        t = rec.target
+        obj["target"] = {"error": t.target, "reached": t.reached, "meshes": t.meshes,
+                         "stopped": t.stopped, "met": t.met}
     return obj
 
 
@@ -183,6 +187,11 @@ def csv_header(length: str, named: bool = False) -> list[str]:
             "mesh nodes (count)", "mesh elements (count)", "warnings (text)"]
 
 
+#: Columns of an adaptive run's outcome, when any profile had a target error.
+TARGET_COLUMNS = ["target error (-)", "error reached (-)", "meshes solved (count)",
+                  "stopped by (text)"]
+
+
 def csv_text(items: list[SectionResult] | list[Record], units: str | None = None) -> str:
     """CSV text with one row per profile, in one length unit.
 
@@ -208,6 +217,9 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     header = csv_header(length, named)
     if with_errors:
         header += [f"{k} est. rel. error (-)" for k in ERROR_KEYS]
+    with_target = any(r.target is not None for r in recs)
+    if with_target:
+        header += TARGET_COLUMNS
     w.writerow(header)
     for r in recs:
         v = r.values
@@ -221,5 +233,9 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
                r.nodes, r.elements, csv_safe("; ".join(r.warnings))]
         if with_errors:
             row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
+        if with_target:
+            t = r.target
+            row += ["", "", "", ""] if t is None else \
+                [f"{t.target:.3g}", f"{t.reached:.3g}", t.meshes, t.stopped]
         w.writerow(row)
     return buf.getvalue()

@@ -17,7 +17,15 @@ from .catalogue_page import (
     write_index,
 )
 from .datasheet import PICTURE_SYMBOLS, datasheet_html, write_datasheet
-from .html_parts import CAUTIONS, datasheet_filename, number_html, symbol_html, unique_filenames, unit_html
+from .html_parts import (
+    CAUTIONS,
+    datasheet_filename,
+    number_html,
+    relative_names,
+    symbol_html,
+    unique_filenames,
+    unit_html,
+)
 
 __all__ = [
     # the catalogue index page
@@ -25,5 +33,6 @@ __all__ = [
     # the datasheet
     "PICTURE_SYMBOLS", "datasheet_html", "write_datasheet",
     # what the pages share
-    "CAUTIONS", "datasheet_filename", "number_html", "symbol_html", "unique_filenames", "unit_html",
+    "CAUTIONS", "datasheet_filename", "number_html", "relative_names", "symbol_html",
+    "unique_filenames", "unit_html",
 ]

@@ -9,15 +9,19 @@ Examples
 >>> datasheet_filename("profiles/Rail 40x45.dxf")
 'Rail_40x45-dxf.html'
 >>> unique_filenames(["a/box.txt", "b/box.txt", "box.dxf"])
-['box-txt.html', 'box-txt-2.html', 'box-dxf.html']
+['a_box-txt.html', 'b_box-txt.html', 'box-dxf.html']
 
 """
 
 from __future__ import annotations
 
+import hashlib
+import os
 import re
+from collections import Counter
 from collections.abc import Sequence
 from html import escape
+from pathlib import Path
 
 from .. import __version__
 from .table import CAUTION, format_value
@@ -162,8 +166,73 @@ def safe_name(filename: str) -> str:
     return name if len(name) > 5 else "profile.html"
 
 
+def relative_names(sources: Sequence[str]) -> list[str]:
+    """How each profile is named on pages that show several: file name, or path where needed.
+
+    Parameters
+    ----------
+    sources : sequence of str
+        Profile sources (file paths as given, or shape descriptions), in catalogue order.
+
+    Returns
+    -------
+    list of str
+        Each file's name; when two files share a name (compared without case), every file's
+        path relative to the common folder of all the files, with ``/`` between folders.
+        Sources that are not files (empty, ``<...>``) are kept as they are.
+
+    Examples
+    --------
+    >>> relative_names(["lib/a/box.txt", "lib/b/box.txt", "lib/rail.dxf"])
+    ['a/box.txt', 'b/box.txt', 'rail.dxf']
+    >>> relative_names(["lib/a/box.txt", "lib/rail.dxf"])
+    ['box.txt', 'rail.dxf']
+    """
+    files = [k for k, src in enumerate(sources) if _is_path(src)]
+    names = [Path(sources[k]).name.lower() for k in files]
+    out = list(sources)
+    if len(set(names)) == len(names):
+        for k in files:
+            out[k] = Path(sources[k]).name
+        return out
+    full = [os.path.abspath(sources[k]) for k in files]
+    common = os.path.commonpath([os.path.dirname(f) for f in full])
+    for k, f in zip(files, full, strict=True):
+        out[k] = Path(os.path.relpath(f, common)).as_posix()
+    return out
+
+
+def _is_path(source: str) -> bool:
+    """True for a source that names a file (not empty, not a ``<...>`` description)."""
+    return bool(source.strip()) and not source.startswith("<")
+
+
+#: Longest page name stem taken from a profile's name, characters.
+STEM_LENGTH = 80
+
+
+def _page_stem(label: str) -> tuple[str, bool]:
+    """Page name (no ``.html``) of a relative path or name, and whether it was altered.
+
+    Folders are joined with ``_``; anything but letters, digits, ``.``, ``_``, ``-`` becomes
+    ``_``; a stem longer than :data:`STEM_LENGTH` is cut. ``altered`` says the name no longer
+    reads as the profile's own (replaced characters, a cut).
+    """
+    *folders, name = re.split(r"[\\/]", label.strip())
+    stem, dot, ext = name.rpartition(".")
+    if not dot or not stem:
+        stem, ext = name, ""
+    pieces = [*folders, stem]
+    joined = "_".join(p for p in (_UNSAFE.sub("_", p).strip("._-") for p in pieces) if p)
+    cut = joined[:STEM_LENGTH] or "profile"
+    safe_ext = _UNSAFE.sub("_", ext).strip("._-")[:12]
+    altered = cut != "_".join(pieces) or safe_ext != ext
+    base = f"{cut}-{safe_ext}" if safe_ext else cut
+    return (f"{base}_" if base.lower() in _RESERVED else base), altered
+
+
 def unique_filenames(sources: Sequence[str]) -> list[str]:
-    """Datasheet file names for several sources, made unique by numbering repeats.
+    """Datasheet file names for several sources: unique, and none suggests another profile.
 
     Parameters
     ----------
@@ -173,22 +242,37 @@ def unique_filenames(sources: Sequence[str]) -> list[str]:
     Returns
     -------
     list of str
-        One name per source; a repeat gets ``-2``, ``-3``... (compared without case, so the
-        pages can share a folder on any file system).
+        One name per source, from its :func:`relative_names` label. A name that had to be
+        altered (characters replaced, cut at :data:`STEM_LENGTH`), or that two profiles
+        would share unaltered (compared without case, so the pages can share a folder on any
+        file system), ends in ``-`` and 8 hex digits of the SHA-1 of the full label.
 
+    Examples
+    --------
+    >>> unique_filenames(["lib/a/box.txt", "lib/b/box.txt", "lib/box.dxf"])
+    ['a_box-txt.html', 'b_box-txt.html', 'box-dxf.html']
+    >>> unique_filenames(["box.txt", "box-txt"])
+    ['box-txt-e8703642.html', 'box-txt-615fa866.html']
     """
+    labels = relative_names(sources)
+    stems = [_page_stem(label) for label in labels]
+    shared = Counter(stem.lower() for stem, altered in stems if not altered)
+    out = [f"{stem}-{_short_hash(label)}" if altered or shared[stem.lower()] > 1 else stem
+           for label, (stem, altered) in zip(labels, stems, strict=True)]
     seen: set[str] = set()
-    out = []
-    for src in sources:
-        name = datasheet_filename(src)
-        stem = name[:-5]
-        k = 1
+    for k, name in enumerate(out):  # the same label twice (a manifest's parts of one file)
+        repeat = 1
         while name.lower() in seen:
-            k += 1
-            name = f"{stem}-{k}.html"
+            repeat += 1
+            name = f"{stems[k][0]}-{_short_hash(f'{labels[k]}#{repeat}')}"
         seen.add(name.lower())
-        out.append(name)
-    return out
+        out[k] = name
+    return [f"{name}.html" for name in out]
+
+
+def _short_hash(text: str) -> str:
+    """8 hex digits of the SHA-1 of a text."""
+    return hashlib.sha1(text.encode("utf-8")).hexdigest()[:8]
 
 
 # ----------------------------------------------------------------------------------------------

@@ -22,6 +22,7 @@ from matplotlib.figure import Figure
 
 from ..errors import UsageError
 from .files import atomic_write
+from .plot_parts import plain_text
 
 #: Raster resolution of PNG files, dots per inch.
 PNG_DPI = 150
@@ -34,6 +35,7 @@ def _render(fig: Figure, fmt: str) -> bytes:
     metadata = {"png": {"Software": "warpwise"}, "svg": {"Date": None, "Creator": "warpwise"},
                 "pdf": {"CreationDate": None, "Creator": "warpwise"}}[fmt]
     buf = io.BytesIO()
+    plain_text(fig)
     with rc_context({"svg.hashsalt": "warpwise", "svg.fonttype": "path"}):
         fig.savefig(buf, format=fmt, dpi=PNG_DPI, bbox_inches="tight", pad_inches=0.08,
                     metadata=metadata, facecolor="white")

@@ -15,6 +15,7 @@ from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import PathPatch
 from matplotlib.path import Path as MplPath
+from matplotlib.text import Text
 from matplotlib.ticker import FuncFormatter, MaxNLocator
 from matplotlib.tri import Triangulation
 
@@ -165,6 +166,25 @@ class _ScaledLocator(MaxNLocator):
         return super().tick_values(vmin * self.k, vmax * self.k) / self.k
 
 
+def plain_text(fig: Figure) -> Figure:
+    """Draw every text of a figure exactly as written: a ``$`` in a name is not mathematics.
+
+    File, material, layer and profile names go into titles, legends and labels; matplotlib
+    would read a pair of ``$`` in them as mathematics (and refuse a lone ``^`` between them).
+    Every figure passes through here before it is drawn (:func:`finish`, the figure writers).
+
+    Examples
+    --------
+    >>> fig = Figure()
+    >>> title = fig.add_subplot().set_title("$x^$.txt")
+    >>> plain_text(fig) is fig, title.get_parse_math()
+    (True, False)
+    """
+    for text in fig.findobj(Text):
+        text.set_parse_math(False)
+    return fig
+
+
 def finish(fig: Figure, ax: object, result: SectionResult, title: str, handles: list, *,
            ncols: int = 2, colour_bar: bool = False, margin: float = 0.06,
            width: float = WIDTH) -> None:
@@ -183,6 +203,7 @@ def finish(fig: Figure, ax: object, result: SectionResult, title: str, handles: 
     height = plot_width * ratio + 0.75 + 0.22 * lines + 0.21 * rows + 0.15
     fig.set_size_inches(width, float(np.clip(height, 3.0, 12.0)))
     # lay out once and keep it: later draws (PNG, SVG, again) all show the same picture
+    plain_text(fig)
     fig.draw_without_rendering()
     fig.set_layout_engine("none")
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field, replace
 
 from ..geometry.corners import Corner
-from ..properties.analysis import SectionResult
+from ..properties.analysis import SectionResult, TargetStatus
 from ..units import LENGTH, convert
 from .quantities import QUANTITIES, values
 from .table import corner_note
@@ -49,6 +49,11 @@ class Record:
         Name or part number given to the profile (a catalogue manifest's), "" for none.
     description : str
         Its description, "" for none.
+    target : TargetStatus or None
+        Target error, bound reached, steps and why the adaptive refinement stopped, when a
+        target was asked for.
+    material_notes : tuple of str
+        Notes on the materials used (a user table replacing a built-in material).
     """
 
     source: str
@@ -66,11 +71,23 @@ class Record:
     warnings: tuple[str, ...] = ()
     name: str = ""
     description: str = ""
+    target: TargetStatus | None = None
+    material_notes: tuple[str, ...] = ()
 
     @property
     def remarks(self) -> tuple[str, ...]:
-        """Every note to print: the reader's, then one per sharp corner, in ``units``."""
-        return (*self.notes, *(corner_note(c, self.units) for c in self.corners))
+        """Every note to print: the reader's, the materials', a target met, the sharp corners.
+
+        Corner notes are in ``units``; a target missed is one of the ``warnings`` instead.
+        """
+        target = (self.target.text,) if self.target is not None and self.target.met else ()
+        return (*self.notes, *self.material_notes, *target,
+                *(corner_note(c, self.units) for c in self.corners))
+
+    @property
+    def target_missed(self) -> bool:
+        """True when a target error was asked for and not met."""
+        return self.target is not None and not self.target.met
 
     def in_units(self, length: str) -> Record:
         """The same record in the unit system of ``length`` (every value converted).
@@ -97,13 +114,16 @@ class Record:
 def record_of(result: SectionResult) -> Record:
     """The record of an analysed section."""
     m = result.materials
+    missed = (result.target.text,) if result.target is not None and not result.target.met else ()
     return Record(
         source=result.profile.source, units=result.units, values=values(result),
         errors=None if result.errors is None else dict(result.errors),
         nodes=result.mesh.n_nodes, elements=result.mesh.n_elements, mesh_size=result.mesh.size,
         notes=tuple(result.profile.notes),
         materials=tuple(m.names) if m.E_ref is not None else (), reference=m.reference,
-        corners=tuple(result.corners), warnings=tuple(result.profile.warnings),
+        corners=tuple(result.corners), target=result.target,
+        warnings=(*result.profile.warnings, *missed),
+        material_notes=tuple(dict.fromkeys(mat.note for mat in m.materials if mat.note)),
     )
 
 
