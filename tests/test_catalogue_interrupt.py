@@ -112,7 +112,9 @@ pytestmark = pytest.mark.skipif(not Path("/proc/self/stat").exists(),
                                 reason="the process checks read /proc (Linux)")
 
 
-def test_ctrl_c_leaves_the_old_catalogue_and_no_worker(tmp_path):
+def busy_run(tmp_path: Path):
+    """A run over an old catalogue, busy with its first staged page: (process, pages, old
+    files, worker processes)."""
     profiles(tmp_path / "profiles")
     pages = tmp_path / "pages"
     before = old_catalogue(pages)
@@ -120,6 +122,11 @@ def test_ctrl_c_leaves_the_old_catalogue_and_no_worker(tmp_path):
     wait_first_page(proc, pages)
     workers = children(proc.pid)
     assert len(workers) == 2  # the pool of --jobs 2
+    return proc, pages, before, workers
+
+
+def test_ctrl_c_leaves_the_old_catalogue_and_no_worker(tmp_path):
+    proc, pages, before, workers = busy_run(tmp_path)
     proc.send_signal(signal.SIGINT)
     _, err = proc.communicate(timeout=TIME_LIMIT)
     assert proc.returncode == 130
@@ -131,13 +138,7 @@ def test_ctrl_c_leaves_the_old_catalogue_and_no_worker(tmp_path):
 
 
 def test_killed_parent_takes_its_workers(tmp_path):
-    profiles(tmp_path / "profiles")
-    pages = tmp_path / "pages"
-    before = old_catalogue(pages)
-    proc = start(tmp_path, pages)
-    wait_first_page(proc, pages)
-    workers = children(proc.pid)
-    assert len(workers) == 2
+    proc, pages, before, workers = busy_run(tmp_path)
     proc.kill()
     proc.wait(timeout=TIME_LIMIT)  # not communicate: a surviving worker would hold the pipes
     proc.stdout.close()
