@@ -20,7 +20,11 @@ True
 
 from __future__ import annotations
 
+import ctypes
+import os
+import signal
 import sys
+import threading
 import time
 from collections.abc import Callable, Iterable, Sequence
 from concurrent.futures import Executor, ProcessPoolExecutor
@@ -324,6 +328,73 @@ def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = 
                        time.perf_counter() - start)
 
 
+def usable_cpus() -> int:
+    """CPUs this process may run on (its affinity where the system tells it), at least 1."""
+    if hasattr(os, "sched_getaffinity"):
+        return len(os.sched_getaffinity(0)) or 1
+    return os.cpu_count() or 1
+
+
+def worker_count(jobs: int | None, total: int) -> int:
+    """Worker processes of a run: ``jobs`` (default the CPUs) capped by the profiles and CPUs.
+
+    Examples
+    --------
+    >>> worker_count(64, 3) <= 3, worker_count(1, 100), worker_count(5, 0)
+    (True, 1, 1)
+    """
+    cpus = usable_cpus()
+    return max(1, min(jobs or cpus, total, cpus))
+
+
+#: Seconds between looks at the parent when the system cannot tell a worker of its death.
+PARENT_POLL = 0.5
+#: prctl option of Linux: a signal to the process when its parent ends.
+_PR_SET_PDEATHSIG = 1
+
+
+def _parent_gone(parent: int) -> bool:
+    """Whether the process ``parent`` (this worker's creator) has ended."""
+    if os.getppid() == parent:
+        return False
+    try:
+        os.kill(parent, 0)  # POSIX only: a check, no signal is sent
+    except ProcessLookupError:
+        return True
+    except OSError:
+        return False
+    return False
+
+
+def _worker_start(parent: int) -> None:
+    """Start of each worker process: it ends when its parent ends; Ctrl-C is the parent's."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)  # the parent stops the workers itself
+    told = False
+    if sys.platform.startswith("linux"):
+        try:
+            told = ctypes.CDLL(None, use_errno=True).prctl(_PR_SET_PDEATHSIG, signal.SIGKILL) == 0
+        except (OSError, AttributeError):
+            told = False
+    if _parent_gone(parent):  # it ended before the worker could ask to be told
+        os._exit(1)
+    if not told:
+        start = os.getppid()
+
+        def watch() -> None:
+            while os.getppid() == start:
+                time.sleep(PARENT_POLL)
+            os._exit(1)
+
+        threading.Thread(target=watch, name="warpwise-parent-watch", daemon=True).start()
+
+
+def _stop_workers(pool: ProcessPoolExecutor) -> None:
+    """End the worker processes of an interrupted run now, not after their current profile."""
+    for process in list((getattr(pool, "_processes", None) or {}).values()):
+        process.terminate()
+    pool.shutdown(wait=True, cancel_futures=True)
+
+
 def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None = None, *,
                   executor: Executor | None = None, jobs: int | None = None,
                   on_done: Callable[[Outcome, int, int], None] | None = None) -> list[Outcome]:
@@ -340,7 +411,9 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
         ``distributed.Client.get_executor()``). Default: a process pool of ``jobs`` workers,
         or serial in this process when ``jobs`` is 1.
     jobs : int, optional
-        Worker processes of the default pool (default: the number of CPUs).
+        Worker processes of the default pool (default: the number of CPUs), capped by the
+        profiles and the CPUs (:func:`worker_count`). They end when this process ends and
+        when the run is interrupted.
     on_done : callable, optional
         Called as ``on_done(outcome, done, total)`` as each profile finishes.
 
@@ -368,12 +441,13 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
         if on_done is not None:
             on_done(out, done, total)
 
-    if executor is None and (jobs == 1 or total <= 1):
+    if executor is None and worker_count(jobs, total) == 1:
         for i, it in enumerate(items):
             finished(i, analyse_one(it, options, names[i], labels[i]))
         return outcomes  # type: ignore[return-value]
     own = executor is None
-    pool = executor if executor is not None else ProcessPoolExecutor(max_workers=jobs)
+    pool = executor if executor is not None else ProcessPoolExecutor(
+        max_workers=worker_count(jobs, total), initializer=_worker_start, initargs=(os.getpid(),))
     try:
         futures = {pool.submit(analyse_one, it, options, names[i], labels[i]): i
                    for i, it in enumerate(items)}
@@ -386,7 +460,10 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
             except Exception as exc:  # the worker process itself died
                 out = Outcome(paths[i], None, f"{paths[i]}: worker failed: {type(exc).__name__}: {exc}")
             finished(i, out)
-    finally:
+    except BaseException:
         if own:
-            pool.shutdown(wait=True, cancel_futures=True)
+            _stop_workers(pool)  # an interruption or a failing callback: no worker carries on
+        raise
+    if own:
+        pool.shutdown(wait=True)
     return outcomes  # type: ignore[return-value]

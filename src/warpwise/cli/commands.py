@@ -10,14 +10,16 @@ from collections.abc import Sequence
 from dataclasses import replace
 from pathlib import Path
 
-from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue
+from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue, usable_cpus, worker_count
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
 from ..materials import check_plausible
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
-from ..report.files import atomic_write, csv_text, json_text
+from ..report import outputs
+from ..report.files import csv_text, json_text
+from ..report.outputs import STDOUT, Output, check_outputs, is_stdout, staged_folder, write_outputs
 from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
@@ -62,23 +64,44 @@ def _in_profile_units(args: argparse.Namespace, result: SectionResult) -> tuple[
     return _loads(args).converted(given, result.units), G
 
 
+#: What a picture output takes instead of standard output.
+PICTURE = "a file ending in .png, .pdf or .svg"
+
+
+def _inputs(args: argparse.Namespace, files: Sequence[str]) -> list[str]:
+    """Every file the command reads: its FILEs and a --materials table."""
+    table = getattr(args, "materials", None)
+    return [*files, *([table] if table else [])]
+
+
+def _check_picture(option: str, path: str | None, args: argparse.Namespace,
+                   files: Sequence[str]) -> None:
+    """A picture output checked before any work: its path and its ending."""
+    check_outputs([Output(option, path, to_stdout=False, what=PICTURE)], _inputs(args, files))
+    if path is not None:
+        from ..report.plot_files import figure_format
+
+        figure_format(path)
+
+
 def run_props(args: argparse.Namespace) -> int:
-    """``warpwise props``: table or JSON on stdout, optional CSV file."""
+    """``warpwise props``: table or JSON on stdout (or the CSV, with ``--csv -``), optional CSV."""
     if not args.files and not args.shape:
         raise UsageError("give a FILE or a --shape")
+    check_outputs([Output("--csv", args.csv), Output("--json", STDOUT if args.json else None)],
+                  _inputs(args, args.files))
     reading, options = read_options(args), analysis_options(args)
     profiles = [reading.load(f) for f in args.files]
     profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
     results = [run_analysis(p, options) for p in profiles]
     records = [record_of(r) for r in results]
     _warn(records)
-    if args.csv:
-        atomic_write(args.csv, csv_text(records, units=_table_units(records, args.report_units)))
+    table = csv_text(records, units=_table_units(records, args.report_units)) if args.csv else ""
     shown = [r.in_units(args.report_units or r.units) for r in records]
-    if args.json:
-        sys.stdout.write(json_text(shown))
-    else:
-        sys.stdout.write("\n".join(property_table(r) for r in shown))
+    text = json_text(shown) if args.json else "\n".join(property_table(r) for r in shown)
+    if not (args.csv and is_stdout(args.csv)):  # the CSV takes the place of the table
+        sys.stdout.write(text)
+    write_outputs([(args.csv, table)])
     return _missed_exit(records)
 
 
@@ -134,6 +157,7 @@ def run_stress(args: argparse.Namespace) -> int:
 
 def run_check(args: argparse.Namespace) -> int:
     """``warpwise check``: the report on stdout; exit code 1 when not analysable."""
+    _check_picture("--plot", args.plot, args, [args.file])
     report = check_file(args.file, read_options(args))
     if args.plot:
         from ..report.check_plot import plot_report
@@ -171,34 +195,57 @@ class _Progress:
         sys.stderr.flush()
 
 
+def _catalogue_outputs(args: argparse.Namespace) -> list[Output]:
+    """The outputs of a catalogue run."""
+    return [Output("--csv", args.csv), Output("--json", args.json),
+            Output("--html", args.html, folder=True, to_stdout=False, what="a folder")]
+
+
+def _jobs(asked: int | None, total: int) -> int:
+    """Worker processes for ``total`` profiles, with a note when fewer than asked."""
+    jobs = worker_count(asked, total)
+    if asked is not None and jobs < asked:
+        cpus = usable_cpus()
+        print(f"warpwise: note: --jobs {asked} capped to {jobs} ({total} profile"
+              f"{'s' if total != 1 else ''}, {cpus} CPU{'s' if cpus != 1 else ''})", file=sys.stderr)
+    return jobs
+
+
 def run_catalogue_command(args: argparse.Namespace) -> int:
-    """``warpwise catalogue``: every profile analysed; good rows written; failures listed."""
+    """``warpwise catalogue``: every profile analysed; good rows written; failures listed.
+
+    Every output path is checked before any analysis; the datasheets are built in a staging
+    folder, and all outputs are written together at the end.
+    """
     if not (args.csv or args.json or args.html):
         raise UsageError("say where the results go: --csv OUT, --json OUT and/or --html DIR")
+    wanted = _catalogue_outputs(args)
+    check_outputs(wanted, _inputs(args, args.items))
     options = RunOptions(read=read_options(args), analysis=analysis_options(args))
-    if args.html:
-        options = replace(options, datasheet_dir=args.html, report_units=args.report_units)
-    items = catalogue_items(args.items, options, exclude=[f for f in (args.csv, args.json) if f])
-    if args.html:
-        Path(args.html).mkdir(parents=True, exist_ok=True)
-    outcomes = run_catalogue(items, options, jobs=args.jobs, on_done=_Progress(len(items)))
-    good = [o for o in outcomes if o.ok]
-    bad = [o for o in outcomes if not o.ok]
-    _warn([o.record for o in good])
-    units = _table_units([o.record for o in good], args.report_units) if good else "mm"
-    if good and args.csv:
-        atomic_write(args.csv, csv_text([o.record for o in good], units=units))
-    if good and args.json:
-        atomic_write(args.json, json_text([o.record.in_units(units) for o in good]))
-    if args.html:
-        from ..report.html import write_catalogue_index
+    with staged_folder(args.html) as stage:
+        if stage is not None:
+            options = replace(options, datasheet_dir=str(stage), report_units=args.report_units)
+        items = catalogue_items(args.items, options, exclude=[f for f in (args.csv, args.json) if f])
+        check_outputs(wanted, [it.path for it in items])  # the drawings a manifest names
+        jobs = _jobs(args.jobs, len(items))
+        outcomes = run_catalogue(items, options, jobs=jobs, on_done=_Progress(len(items)))
+        good = [o for o in outcomes if o.ok]
+        bad = [o for o in outcomes if not o.ok]
+        _warn([o.record for o in good])
+        units = _table_units([o.record for o in good], args.report_units) if good else "mm"
+        files = [(args.csv, csv_text([o.record for o in good], units=units) if args.csv else ""),
+                 (args.json, json_text([o.record.in_units(units) for o in good]) if args.json
+                  else "")] if good else []
+        if stage is not None:
+            from ..report.html import write_catalogue_index
 
-        write_catalogue_index(outcomes, args.html, units)
-    seconds = sum(o.seconds for o in outcomes)
-    print(f"{len(good)} of {len(outcomes)} profiles analysed ({seconds:.1f} s of analysis)",
-          file=sys.stderr)
-    for o in bad:
-        print(f"warpwise: error: {o.error}", file=sys.stderr)
+            write_catalogue_index(outcomes, stage, units)
+        seconds = sum(o.seconds for o in outcomes)
+        print(f"{len(good)} of {len(outcomes)} profiles analysed ({seconds:.1f} s of analysis)",
+              file=sys.stderr)
+        for o in bad:
+            print(f"warpwise: error: {o.error}", file=sys.stderr)
+        write_outputs(files, [(stage, args.html)])
     return EXIT_INPUT if bad else _missed_exit([o.record for o in good])
 
 
@@ -212,6 +259,7 @@ def run_plot(args: argparse.Namespace) -> int:
         save_figure,
     )
 
+    _check_picture("-o", args.output, args, [args.file])
     result = _analyse_file(args.file, args, bounds=False)
     loads, G = _in_profile_units(args, result)
     if args.show == "mesh":
@@ -242,6 +290,7 @@ COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
 def main(argv: Sequence[str] | None = None) -> int:
     """Entry point of the ``warpwise`` command; returns the exit code."""
     parser = build_parser()
+    outputs.WRITTEN.clear()
     try:
         args = parser.parse_args(argv)
         return COMMANDS[args.command](args)
@@ -252,7 +301,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         print(f"warpwise: error: {exc}", file=sys.stderr)
         return EXIT_INPUT
     except KeyboardInterrupt:
-        print("warpwise: interrupted; no output written", file=sys.stderr)
+        done = f"after writing {', '.join(outputs.WRITTEN)}" if outputs.WRITTEN else \
+            "no output written"
+        print(f"warpwise: interrupted; {done}", file=sys.stderr)
         return 130
     except BrokenPipeError:
         return 0

@@ -12,10 +12,10 @@ from pathlib import Path
 
 import numpy as np
 
-from ..errors import UsageError
 from ..io.check import CheckReport
 from ..io.defects import ERROR, plural
-from .files import atomic_write
+from .outputs import atomic_write
+from .plot_files import figure_format
 from .plot_parts import plain_text
 
 
@@ -44,9 +44,7 @@ def plot_report(report: CheckReport, out: str | Path) -> None:
     matplotlib.use("Agg")
     from matplotlib.figure import Figure
 
-    fmt_name = Path(out).suffix.lower().lstrip(".")
-    if fmt_name not in ("png", "pdf", "svg"):
-        raise UsageError("the plot must be a .png, .pdf or .svg file", file=str(out))
+    fmt_name = figure_format(out)
     fig = Figure(figsize=(9, 7), dpi=120)
     ax = fig.add_subplot()
     for pts in report.ignored_paths:

@@ -1,7 +1,7 @@
-"""Output files: CSV rows, JSON objects, and atomic writes.
+"""Output files: CSV rows and JSON objects.
 
-Every file is written to a temporary file beside the target and renamed into place only when
-complete, so an existing output is never left half-written or replaced by a broken one.
+Every file is written by :func:`~warpwise.report.outputs.atomic_write` (imported here too):
+whole or not at all, never over a link, a device or an input.
 """
 
 from __future__ import annotations
@@ -10,62 +10,17 @@ import csv
 import io
 import json
 import math
-import os
-import tempfile
-from pathlib import Path
 from typing import Any
 
 from ..errors import AnalysisError, UsageError
 from ..properties.accuracy import ERROR_KEYS
 from ..properties.analysis import SectionResult
 from ..units import MOMENT, system
+from .outputs import atomic_write  # noqa: F401  (the one writer, also imported from here)
 from .quantities import QUANTITIES, unit_of
 from .records import Record, record_of, report_units
 
 #: Columns of estimated relative errors, in this order, when any result has an estimate.
-
-
-def atomic_write(path: str | Path, data: str | bytes) -> None:
-    """Write ``data`` to ``path`` through a temporary file and a rename.
-
-    Parameters
-    ----------
-    path : str or Path
-        Target file.
-    data : str or bytes
-        Contents; text is written as UTF-8.
-
-    Raises
-    ------
-    UsageError
-        When the folder does not exist or cannot be written.
-
-    """
-    target = Path(path)
-    folder = target.parent if str(target.parent) else Path(".")
-    if not folder.is_dir():
-        raise UsageError(f"output folder {str(folder)!r} does not exist", file=str(path))
-    raw = data.encode("utf-8") if isinstance(data, str) else data
-    try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
-    except OSError as exc:
-        raise UsageError(f"cannot write here ({exc.strerror})", file=str(path)) from None
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(raw)
-            fh.flush()
-            os.fsync(fh.fileno())
-        # mkstemp makes the file private; give it the usual permissions (0666 less the umask)
-        umask = os.umask(0)
-        os.umask(umask)
-        os.chmod(tmp, 0o666 & ~umask)
-        os.replace(tmp, target)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
 
 
 #: JSON keys of points: [x, y] arrays of two quantities (the CSV has the two columns).

@@ -42,6 +42,20 @@ def _render(fig: Figure, fmt: str) -> bytes:
     return buf.getvalue()
 
 
+def figure_format(path: str | Path) -> str:
+    """The picture format of an output path by its ending: ``png``, ``svg`` or ``pdf``.
+
+    Raises
+    ------
+    UsageError
+        For another ending (nothing is drawn or written).
+    """
+    fmt = Path(path).suffix.lower().lstrip(".")
+    if fmt not in FORMATS:
+        raise UsageError("a picture must be a .png, .pdf or .svg file", file=str(path))
+    return fmt
+
+
 def save_figure(fig: Figure, path: str | Path) -> None:
     """Write a figure to a PNG, SVG or PDF file (by its ending), atomically.
 
@@ -58,9 +72,7 @@ def save_figure(fig: Figure, path: str | Path) -> None:
         For another ending or a folder that cannot be written (nothing is written).
 
     """
-    fmt = Path(path).suffix.lower().lstrip(".")
-    if fmt not in FORMATS:
-        raise UsageError("a picture must be a .png, .svg or .pdf file", file=str(path))
+    fmt = figure_format(path)
     folder = Path(path).parent
     if not folder.is_dir():  # fail before the (slow) drawing
         raise UsageError(f"output folder {str(folder)!r} does not exist", file=str(path))
