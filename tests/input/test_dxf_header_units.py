@@ -20,7 +20,7 @@ _PTS = [(0, 0), (100, 0), (100, 10), (0, 10)]
 
 def _lines() -> str:
     out = []
-    for (x0, y0), (x1, y1) in zip(_PTS, _PTS[1:] + _PTS[:1]):
+    for (x0, y0), (x1, y1) in zip(_PTS, _PTS[1:] + _PTS[:1], strict=True):
         out.append(f"0\nLINE\n8\n0\n10\n{x0}\n20\n{y0}\n30\n0\n11\n{x1}\n21\n{y1}\n31\n0\n")
     return "".join(out)
 
@@ -70,7 +70,8 @@ def test_states_insunits_reads_only_the_header():
     # a $INSUNITS text in an entity (a TEXT's content) is not a header variable
     data = (b"0\nSECTION\n2\nENTITIES\n0\nTEXT\n8\n0\n1\n$INSUNITS\n0\nENDSEC\n0\nEOF\n")
     assert not states_insunits(data)
-    with_bom = b"\xef\xbb\xbf999\nwritten by a script\n0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n"
+    with_bom = (b"\xef\xbb\xbf999\nwritten by a script\n"
+                b"0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n")
     assert states_insunits(with_bom)
     crlf = b"  0\r\nSECTION\r\n  2\r\nHEADER\r\n  9\r\n$INSUNITS\r\n 70\r\n     1\r\n  0\r\nENDSEC\r\n"
     assert states_insunits(crlf)
