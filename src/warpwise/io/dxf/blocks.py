@@ -45,6 +45,7 @@ from ..defects import ERROR, Defect
 from ..pieces import bulge_arc
 from .collect import MAX_ENTITIES, PieceCollector
 from .document import why
+from .splines import spline_tool
 
 #: Deepest nesting of block references followed.
 MAX_BLOCK_DEPTH = 16
@@ -296,7 +297,7 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
                 continue
             sub_label = f"{t} in block {blk.name!r} ({at})"
             try:
-                placed = _place(ent, m)
+                placed = _place(ent, m, walk.out.source, sub_label)
             except InputFileError:
                 raise
             except Exception as exc:  # a damaged entity, or one ezdxf cannot transform
@@ -313,8 +314,11 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
                 yield v, sub_layer, sub_label
 
 
-def _place(e: object, m: object) -> list | None:
-    """Entity e of a block placed by matrix m: new entities, or None if out of the x-y plane."""
+def _place(e: object, m: object, file: str, label: str) -> list | None:
+    """Entity e of a block placed by matrix m: new entities, or None if out of the x-y plane.
+
+    ``file`` and ``label`` name it in a refusal (a spline too big to interpolate).
+    """
     t = e.dxftype()
     if t in ("CIRCLE", "ARC"):
         return _one(_placed_conic(*_circle_conic(e), m))
@@ -339,7 +343,7 @@ def _place(e: object, m: object) -> list | None:
         from ezdxf.entities import Spline
 
         v = Spline.new(dxfattribs={"layer": e.dxf.get("layer", "0")})
-        v.apply_construction_tool(e.construction_tool().transform(m))
+        v.apply_construction_tool(spline_tool(e, file, label).transform(m))
         return [v]
     v = e.copy()
     v.transform(m)
