@@ -282,6 +282,7 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
     inner = (*path, blk.name)
     cells = _cells(ins)
     for k, cell in enumerate(cells):
+        walk.out.tick()
         m = cell.matrix44() @ parent  # ezdxf matrices act on row vectors: inner level first
         at = where if len(cells) == 1 else f"{where}, cell {k + 1} of {len(cells)}"
         for ent in blk:

@@ -19,6 +19,7 @@ from ...errors import InputFileError
 from ...geometry.loops import MAX_COORDINATE
 from ..defects import WARNING, Defect, fmt_point
 from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyline_piece
+from ..progress import ProgressLine
 
 #: Most entities one drawing may hold, each copy of a block counted (and most pieces read from
 #: it), unless the reader is given another limit (``--max-entities``).
@@ -71,6 +72,14 @@ class PieceCollector:
         self.skipped: Counter[str] = Counter()
         self.unreadable: Counter[str] = Counter()
         self.hatches: list[HatchBoundary] = []
+        self.read = 0  # entities and MINSERT cells read so far
+        self.progress: ProgressLine | None = None
+
+    def tick(self) -> None:
+        """Count one entity (or MINSERT cell) read, for the progress line."""
+        self.read += 1
+        if self.progress is not None and not self.read & 1023:
+            self.progress.update(self.read)
 
     def warn(self, kind: str, text: str, where: Sequence[tuple[float, float]] = (),
              layer: str | None = None) -> None:

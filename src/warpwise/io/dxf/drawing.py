@@ -14,6 +14,7 @@ from pathlib import Path
 from ...errors import InputFileError
 from ..defects import ERROR, WARNING, Defect
 from ..pieces import Piece
+from ..progress import ProgressLine
 from .blocks import count_expansion, refuse_large
 from .collect import HatchBoundary, PieceCollector
 from .document import TRUNCATED, load_document, why
@@ -114,11 +115,15 @@ def read_drawing(path: str | Path, units: str | None = None, max_entities: int |
         raise InputFileError(f"has no readable model space ({why(exc)})", file=name) from None
     expansion = count_expansion(doc, entities)
     refuse_large(expansion, max_entities, name)  # before any reference is expanded
-    for e in entities:
-        t = e.dxftype()
-        handle = e.dxf.get("handle", None)
-        label = f"{t} #{handle}" if handle else t
-        read_entity(out, e, e.dxf.get("layer", "0") or "0", label)
+    out.progress = ProgressLine(f"reading {name}", expansion.entities, "entities")
+    try:
+        for e in entities:
+            t = e.dxftype()
+            handle = e.dxf.get("handle", None)
+            label = f"{t} #{handle}" if handle else t
+            read_entity(out, e, e.dxf.get("layer", "0") or "0", label)
+    finally:
+        out.progress.close()
     defects = list(expansion.defects) + list(out.defects)
     for t, n in sorted(out.unreadable.items()):
         defects.append(Defect("unreadable", f"{n} {t} entit{'y' if n == 1 else 'ies'} cannot be "

@@ -230,6 +230,7 @@ def read_entity(out: PieceCollector, e: object, layer: str, label: str, depth: i
         How many block references it is met in (0 in model space).
 
     """
+    out.tick()
     t = e.dxftype()
     read = READERS.get(t)
     if read is None:

@@ -1,5 +1,4 @@
-"""SPLINE curves: their construction (refusing a fit-point spline too big to interpolate) and
-their points within a distance, vectorised.
+"""SPLINE curves: their construction, and their points within a distance, vectorised.
 
 ezdxf's own flattening subdivides point by point in Python (tens of microseconds a point, 16
 points at least per knot span), which takes minutes for a spline of 100,000 control points.
