@@ -81,8 +81,10 @@ class ReadOptions:
             if value is not None and not (math.isfinite(value) and value > 0):
                 raise UsageError(f"{name} must be a positive number, got {value}")
         if self.max_entities is not None and not (
-                isinstance(self.max_entities, int) and self.max_entities > 0):
-            raise UsageError(f"the entity limit must be a positive whole number, got {self.max_entities}")
+                isinstance(self.max_entities, int) and not isinstance(self.max_entities, bool)
+                and self.max_entities > 0):
+            raise UsageError("the entity limit (--max-entities) must be a whole number, 1 or more, "
+                             f"got {self.max_entities!r}")
         layers = [layer.lower() for layer, _ in pairs]
         if len(set(layers)) != len(layers):
             raise UsageError("a layer is given a material twice (--layer-material)")

@@ -47,12 +47,13 @@ def spline_tool(e: object, file: str, label: str) -> object:
         For a spline of more than :data:`MAX_FIT_POINTS` fit points and no control points.
 
     """
-    if not e.control_point_count() and e.fit_point_count() > MAX_FIT_POINTS:
+    n = e.fit_point_count()
+    if not e.control_point_count() and n > MAX_FIT_POINTS:
         raise InputFileError(
-            f"{label} is given by {e.fit_point_count():,} fit points and no control points; "
-            f"interpolating more than {MAX_FIT_POINTS:,} would take a matrix of "
-            f"{e.fit_point_count() ** 2 * 8 / 1e9:.1f} GB or more: save the spline with its control "
-            "points in the CAD program", file=file)
+            f"{label} is given by {n:,} fit points and no control points, more than the "
+            f"{MAX_FIT_POINTS:,} that are interpolated (an n x n matrix, at least "
+            f"{n * n * 8 / 1e6:,.0f} MB here); save the spline with its control points in the "
+            "CAD program", file=file)
     return e.construction_tool()
 
 
@@ -65,23 +66,21 @@ def _evaluators(ct: object) -> tuple:
     c = np.asarray([tuple(v)[:2] for v in ct.control_points], dtype=float).reshape(-1, 2)
     if not ct.is_rational:
         num = BSpline(t, c, p)
-        d2 = num.derivative(2) if p >= 2 else None
-        return num, (lambda u: d2(u)) if d2 is not None else (lambda u: np.zeros((len(u), 2)))
+        # derivatives by span (scipy evaluates them piecewise, across repeated knots too)
+        return num, lambda u: num(u, nu=2) if p >= 2 else np.zeros((len(u), 2))
     w = np.asarray(ct.weights(), dtype=float)
     num, den = BSpline(t, c * w[:, None], p), BSpline(t, w, p)
-    n1, w1 = num.derivative(1), den.derivative(1)
-    n2, w2 = (num.derivative(2), den.derivative(2)) if p >= 2 else (None, None)
 
     def curve(u: np.ndarray) -> np.ndarray:
         return num(u) / den(u)[:, None]
 
     def second(u: np.ndarray) -> np.ndarray:
-        wu = den(u)[:, None]
+        wu, w1 = den(u)[:, None], den(u, nu=1)[:, None]
         cu = num(u) / wu
-        c1 = (n1(u) - cu * w1(u)[:, None]) / wu
-        if n2 is None:
-            return -2.0 * c1 * w1(u)[:, None] / wu
-        return (n2(u) - 2.0 * c1 * w1(u)[:, None] - cu * w2(u)[:, None]) / wu
+        c1 = (num(u, nu=1) - cu * w1) / wu
+        if p < 2:
+            return -2.0 * c1 * w1 / wu
+        return (num(u, nu=2) - 2.0 * c1 * w1 - cu * den(u, nu=2)[:, None]) / wu
 
     return curve, second
 
@@ -120,7 +119,8 @@ def spline_points(ct: object, tolerance: float) -> np.ndarray:
     if len(ends) < 2:
         return curve(np.array([lo]))
     h = np.diff(ends)
-    q = np.linspace(0.0, 1.0, 2 * p + 2)  # |C''| sampled per span (exact bound up to cubics)
+    # |C''| sampled per span, just inside its ends (exact bound up to cubics)
+    q = np.linspace(1e-9, 1.0 - 1e-9, 2 * p + 2)
     u = (ends[:-1, None] + h[:, None] * q[None, :]).ravel()
     m = np.nan_to_num(np.hypot(*second(u).T)).reshape(len(h), -1).max(axis=1)
     # chords spread evenly in the measure sqrt(max|C''| / (8 tol)) dt: one unit per chord
