@@ -31,6 +31,97 @@ def case(fn: Callable[[Path], list[str]]) -> Callable[[Path], list[str]]:
 # --- drawings (DXF) -----------------------------------------------------------------------------
 
 
+def _drawing():
+    import ezdxf
+
+    doc = ezdxf.new()
+    doc.header["$INSUNITS"] = 4  # mm
+    return doc, doc.modelspace()
+
+
+def _fan_out(folder: Path, name: str, levels: int, fan: int) -> list[str]:
+    """Block k holds ``fan`` references of block k + 1; the last one line."""
+    doc, msp = _drawing()
+    for k in range(levels):
+        blk = doc.blocks.new(f"LEVEL{k}")
+        if k + 1 < levels:
+            for j in range(fan):
+                blk.add_blockref(f"LEVEL{k + 1}", (j, 0))
+        else:
+            blk.add_line((0, 0), (1, 0))
+    msp.add_blockref("LEVEL0", (0, 0))
+    doc.saveas(folder / name)
+    return ["check", str(folder / name)]
+
+
+@case
+def minsert_million_copies(folder: Path) -> list[str]:
+    """A 1000 x 1000 MINSERT array of a one-line block: refused before it is expanded."""
+    doc, msp = _drawing()
+    doc.blocks.new("CELL").add_line((0, 0), (1, 0))
+    msp.add_blockref("CELL", (0, 0), dxfattribs={"row_count": 1000, "column_count": 1000,
+                                                  "row_spacing": 2, "column_spacing": 2})
+    doc.saveas(folder / "minsert_million.dxf")
+    return ["props", str(folder / "minsert_million.dxf")]
+
+
+@case
+def minsert_at_the_limit(folder: Path) -> list[str]:
+    """A 250 x 400 MINSERT of a one-line block: 200,000 entities, the limit, read and joined."""
+    doc, msp = _drawing()
+    doc.blocks.new("CELL").add_line((0, 0), (1, 0))
+    msp.add_blockref("CELL", (0, 0), dxfattribs={"row_count": 250, "column_count": 400,
+                                                  "row_spacing": 2, "column_spacing": 2})
+    doc.saveas(folder / "minsert_limit.dxf")
+    return ["props", str(folder / "minsert_limit.dxf")]
+
+
+@case
+def nested_fan_out_30_levels(folder: Path) -> list[str]:
+    """30 levels of blocks, two references each: 1.6e9 entities, refused after one count."""
+    return _fan_out(folder, "fan_out.dxf", 30, 2)
+
+
+@case
+def nested_diamond_60_levels(folder: Path) -> list[str]:
+    """60 levels, each block two references of the next: 1.7e18 entities, memoised count."""
+    return _fan_out(folder, "diamond.dxf", 60, 2)
+
+
+def _parabola_spline(folder: Path, name: str, n: int) -> Path:
+    """y = 20 + x (100 - x) / 100 as a clamped cubic B-spline of n control points, closed below."""
+    import numpy as np
+
+    doc, msp = _drawing()
+    knots = np.concatenate([[0.0] * 3, np.linspace(0.0, 100.0, n - 2), [100.0] * 3])
+    a, b, c = knots[1:n + 1], knots[2:n + 2], knots[3:n + 3]
+    x = (a + b + c) / 3  # blossoms of x and of 20 + x - x^2 / 100 (exact control points)
+    y = 20 + x - (a * b + b * c + c * a) / 300
+    msp.add_open_spline(np.column_stack([x, y, 0 * x]).tolist(), degree=3, knots=knots.tolist())
+    msp.add_lwpolyline([(100, 20), (100, 0), (0, 0), (0, 20)])
+    doc.saveas(folder / name)
+    return folder / name
+
+
+@case
+def spline_100k_control_points(folder: Path) -> list[str]:
+    """A SPLINE of 100,000 control points (ezdxf's flattening would take minutes)."""
+    return ["props", str(_parabola_spline(folder, "spline_100k.dxf", 100_000)), "--accuracy", "draft"]
+
+
+@case
+def spline_20k_fit_points(folder: Path) -> list[str]:
+    """A SPLINE of 20,000 fit points and no control points: refused before interpolation."""
+    import numpy as np
+
+    doc, msp = _drawing()
+    x = np.linspace(0.0, 100.0, 20_000)
+    msp.add_spline(fit_points=np.column_stack([x, 20 + x * (100 - x) / 100, 0 * x]).tolist())
+    msp.add_lwpolyline([(100, 20), (100, 0), (0, 0), (0, 20)])
+    doc.saveas(folder / "fit_20k.dxf")
+    return ["props", str(folder / "fit_20k.dxf")]
+
+
 # --- outlines, parts and meshes ------------------------------------------------------------------
 
 

@@ -14,6 +14,7 @@ from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue, usa
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
+from ..io.progress import bar
 from ..materials import check_plausible
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
@@ -184,10 +185,7 @@ class _Progress:
     def __call__(self, out: Outcome, done: int, total: int) -> None:
         state = "ok" if out.ok else "failed"
         if self.tty:
-            width = 30
-            fill = int(width * done / max(total, 1))
-            sys.stderr.write(f"\r[{'#' * fill}{'.' * (width - fill)}] {done}/{total} "
-                             f"{Path(out.path).name[:40]:<40}")
+            sys.stderr.write(f"\r{bar(done, total)} {done}/{total} {Path(out.path).name[:40]:<40}")
             if done == total:
                 sys.stderr.write("\n")
         else:

@@ -12,6 +12,7 @@ import argparse
 from ..errors import UsageError
 from ..fem.solve import METHODS
 from ..geometry.profile import LENGTH_UNITS
+from ..io.dxf import MAX_ENTITIES
 from ..io.options import ReadOptions
 from ..materials import BUILTIN, read_materials
 from ..properties.accuracy import ACCURACY_LEVELS
@@ -97,6 +98,9 @@ def _input_options(p: argparse.ArgumentParser) -> None:
     p.add_argument("--join-tolerance", type=positive_float, metavar="D",
                    help="DXF: join ends closer than D, drawing unit (default: 1e-5 of the "
                         "drawing's diagonal; 'warpwise check' suggests one for small gaps)")
+    p.add_argument("--max-entities", type=positive_int, metavar="N",
+                   help="DXF: read drawings of up to N entities, each copy of a block counted "
+                        f"(default: {MAX_ENTITIES:,}; a larger drawing is refused before it is expanded)")
 
 
 def _report_options(p: argparse.ArgumentParser, *, loads: bool = False) -> None:
@@ -247,7 +251,8 @@ def read_options(args: argparse.Namespace) -> ReadOptions:
                        all_parts=args.all_parts, chord_tolerance=args.chord_tolerance,
                        mesh_size=args.mesh_size, join_tolerance=args.join_tolerance,
                        layer_materials=tuple(args.layer_material or ()),
-                       other_layers_material=getattr(args, "material", None))
+                       other_layers_material=getattr(args, "material", None),
+                       max_entities=args.max_entities)
 
 
 def analysis_options(args: argparse.Namespace, *, bounds: bool = True) -> AnalysisOptions:

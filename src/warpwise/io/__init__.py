@@ -31,7 +31,8 @@ def _dxf_reader(path: str | Path, options: ReadOptions) -> Profile:
                     all_parts=options.all_parts, chord_tolerance=options.chord_tolerance,
                     mesh_size=options.mesh_size, join_tolerance=options.join_tolerance,
                     layer_materials=dict(options.layer_materials),
-                    other_layers_material=options.other_layers_material)
+                    other_layers_material=options.other_layers_material,
+                    max_entities=options.max_entities)
 
 
 def _outline_reader(path: str | Path, options: ReadOptions) -> Profile:
@@ -67,7 +68,8 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
                  chord_tolerance: float | None = None, mesh_size: float | None = None,
                  join_tolerance: float | None = None,
                  layer_materials: Mapping[str, str] | None = None,
-                 other_layers_material: str | None = None) -> Profile:
+                 other_layers_material: str | None = None,
+                 max_entities: int | None = None) -> Profile:
     """Read a profile from a file, choosing the reader by the file's ending.
 
     The arguments are the fields of :class:`~warpwise.io.options.ReadOptions`; the command
@@ -99,6 +101,9 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
         DXF only: material name by layer; the drawing becomes a composite by layers.
     other_layers_material : str, optional
         DXF only, with ``layer_materials``: material name of the loops on the other layers.
+    max_entities : int, optional
+        DXF only: most entities the drawing may expand to, each copy of a block counted
+        (default 200,000, :data:`warpwise.io.dxf.MAX_ENTITIES`).
 
     Returns
     -------
@@ -113,7 +118,7 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
     options = ReadOptions(units=units, layers=tuple(layers or ()), part=part, all_parts=all_parts,
                           chord_tolerance=chord_tolerance, mesh_size=mesh_size,
                           join_tolerance=join_tolerance, layer_materials=layer_materials or (),
-                          other_layers_material=other_layers_material)
+                          other_layers_material=other_layers_material, max_entities=max_entities)
     return options.load(path)
 
 

@@ -163,7 +163,7 @@ class CheckReport:
 
 
 def _check_dxf(path: str | Path, o: ReadOptions) -> CheckReport:
-    drawing = read_drawing(path, o.units)
+    drawing = read_drawing(path, o.units, o.max_entities)
     layout = lay_out(drawing, o.layers or None, tolerance=o.join_tolerance)
     if o.layer_materials:  # a layer given a material that the profile lacks is a usage error
         layer_material_table(layout, dict(o.layer_materials), o.other_layers_material)
@@ -245,8 +245,8 @@ def check_file(path: str | Path, options: ReadOptions | None = None, **choices: 
         How the file is read, as for the analysis (default: ``ReadOptions(**choices)``).
     **choices
         Fields of :class:`~warpwise.io.options.ReadOptions` (units, layers, part, all_parts,
-        chord_tolerance, mesh_size, join_tolerance, layer_materials) when ``options`` is not
-        given.
+        chord_tolerance, mesh_size, join_tolerance, layer_materials, max_entities) when
+        ``options`` is not given.
 
     Returns
     -------

@@ -51,6 +51,10 @@ class ReadOptions:
     other_layers_material : str or None
         DXF, with ``layer_materials``: the material name of the loops on the other layers
         (the command's ``--material``); None leaves it to the analysis, which then needs one.
+    max_entities : int or None
+        DXF: most entities a drawing may expand to, each copy of a block counted, and most
+        curves read (None: :data:`warpwise.io.dxf.MAX_ENTITIES`, 200,000); a drawing beyond it
+        is refused before it is expanded.
     """
 
     units: str | None = None
@@ -62,6 +66,7 @@ class ReadOptions:
     join_tolerance: float | None = None
     layer_materials: tuple[tuple[str, str], ...] = ()
     other_layers_material: str | None = None
+    max_entities: int | None = None
 
     def __post_init__(self) -> None:
         """Keep sequences as tuples and refuse choices that cannot be right."""
@@ -75,6 +80,11 @@ class ReadOptions:
                             ("chord tolerance", self.chord_tolerance)):
             if value is not None and not (math.isfinite(value) and value > 0):
                 raise UsageError(f"{name} must be a positive number, got {value}")
+        if self.max_entities is not None and not (
+                isinstance(self.max_entities, int) and not isinstance(self.max_entities, bool)
+                and self.max_entities > 0):
+            raise UsageError("the entity limit (--max-entities) must be a whole number, 1 or more, "
+                             f"got {self.max_entities!r}")
         layers = [layer.lower() for layer, _ in pairs]
         if len(set(layers)) != len(layers):
             raise UsageError("a layer is given a material twice (--layer-material)")
@@ -85,7 +95,8 @@ class ReadOptions:
         return (("--layer", self.layers), ("--part", self.part),
                 ("--chord-tolerance", self.chord_tolerance),
                 ("--join-tolerance", self.join_tolerance),
-                ("--layer-material", self.layer_materials))
+                ("--layer-material", self.layer_materials),
+                ("--max-entities", self.max_entities))
 
     def load(self, path: str | Path) -> Profile:
         """Read ``path`` into a validated profile with these options."""

@@ -61,7 +61,7 @@ from .build import (
     build_profile,
     choose_chord_tolerance,
 )
-from .collect import MAX_PIECES
+from .collect import MAX_ENTITIES
 from .drawing import Drawing, read_drawing
 from .layout import JOIN_TOLERANCE, LayerSummary, Layout, Loop, lay_out, open_chain_defects
 from .units import INSUNITS, Units, resolve_units
@@ -113,8 +113,8 @@ def layer_material_table(layout: Layout, given: Mapping[str, str],
 def import_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
                part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
                mesh_size: float | None = None, layer_materials: bool | Mapping[str, str] = False,
-               join_tolerance: float | None = None,
-               other_layers_material: str | None = None) -> DxfProfile:
+               join_tolerance: float | None = None, other_layers_material: str | None = None,
+               max_entities: int | None = None) -> DxfProfile:
     """Read a DXF drawing into a profile, keeping the layers and tolerances used.
 
     Parameters are those of :func:`read_dxf`.
@@ -124,7 +124,7 @@ def import_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[s
     DxfProfile
 
     """
-    layout = lay_out(read_drawing(path, units), layers, tolerance=join_tolerance)
+    layout = lay_out(read_drawing(path, units, max_entities), layers, tolerance=join_tolerance)
     return profile_of_layout(layout, part=part, all_parts=all_parts,
                              chord_tolerance=chord_tolerance, mesh_size=mesh_size,
                              layer_materials=layer_materials,
@@ -154,8 +154,8 @@ def profile_of_layout(layout: Layout, *, part: int | None = None, all_parts: boo
 def read_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str] | None = None,
              part: int | None = None, all_parts: bool = False, chord_tolerance: float | None = None,
              mesh_size: float | None = None, layer_materials: bool | Mapping[str, str] = False,
-             join_tolerance: float | None = None,
-             other_layers_material: str | None = None) -> Profile:
+             join_tolerance: float | None = None, other_layers_material: str | None = None,
+             max_entities: int | None = None) -> Profile:
     """Read a DXF drawing into a validated profile.
 
     Parameters
@@ -186,6 +186,10 @@ def read_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str
     other_layers_material : str, optional
         With a mapping ``layer_materials``: the material name of the layers not in it (None:
         the profile's one material, chosen at the analysis).
+    max_entities : int, optional
+        Most entities the drawing may expand to, each copy of a block counted, and most curves
+        read (default :data:`MAX_ENTITIES`); a drawing beyond it is refused before it is
+        expanded.
 
     Returns
     -------
@@ -205,11 +209,12 @@ def read_dxf(path: str | Path, units: str | None = None, *, layers: Sequence[str
     return import_dxf(path, units, layers=layers, part=part, all_parts=all_parts,
                       chord_tolerance=chord_tolerance, mesh_size=mesh_size,
                       layer_materials=layer_materials, join_tolerance=join_tolerance,
-                      other_layers_material=other_layers_material).profile
+                      other_layers_material=other_layers_material,
+                      max_entities=max_entities).profile
 
 
 __all__ = ["CHORD_AREA_BUDGET", "CHORD_PER_MESH_SIZE", "INSUNITS", "JOIN_TOLERANCE", "MAX_BLOCK_DEPTH",
-           "MAX_PIECES", "MIN_CHORD_PER_MESH_SIZE", "PARTS_IN_MESSAGE", "Drawing", "DrawingError",
+           "MAX_ENTITIES", "MIN_CHORD_PER_MESH_SIZE", "PARTS_IN_MESSAGE", "Drawing", "DrawingError",
            "DxfProfile", "LayerSummary", "Layout", "Loop", "Units", "build_profile",
            "choose_chord_tolerance", "import_dxf", "lay_out", "layer_material_table",
            "open_chain_defects", "profile_of_layout", "read_drawing", "read_dxf", "resolve_units"]

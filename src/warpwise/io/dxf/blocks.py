@@ -23,29 +23,32 @@ scales) of the composition:
 
 A mirror (negative determinant) reverses the direction of the arcs, so each placed arc is
 given counter-clockwise from its transformed end. References nested deeper than
-:data:`MAX_BLOCK_DEPTH` and a block reached again through itself are left out with a warning;
-a drawing whose references expand to more than :data:`MAX_BLOCK_ENTITIES` entities is refused.
+:data:`MAX_BLOCK_DEPTH` are left out with a warning.
+
+Before anything is placed, :func:`count_expansion` walks the block graph once (each block's
+size memoised: its entities, each reference counted with the size of its block, times the rows
+x columns of a MINSERT array), so that a drawing that expands to more than
+:data:`MAX_ENTITIES` entities is refused before any memory is spent on it, and a block that
+inserts itself, directly or through others, is an error naming the blocks of the cycle.
 """
 
 from __future__ import annotations
 
 import math
-from collections.abc import Collection, Iterator, Sequence
+from collections.abc import Collection, Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from ...errors import InputFileError
+from ..defects import ERROR, Defect
 from ..pieces import bulge_arc
-from .collect import MAX_PIECES, PieceCollector
+from .collect import MAX_ENTITIES, PieceCollector
 from .document import why
+from .splines import spline_tool
 
 #: Deepest nesting of block references followed.
 MAX_BLOCK_DEPTH = 16
-
-#: Most entities (MINSERT cells counted) the block references of one drawing may expand to,
-#: as many as pieces are read (so that a reference bomb is refused within seconds).
-MAX_BLOCK_ENTITIES = MAX_PIECES
 
 #: Relative round-off below which two axes count as equal, or as perpendicular, or out of plane.
 _ROUND_OFF = 1e-9
@@ -54,13 +57,155 @@ _ROUND_OFF = 1e-9
 _MIN_RATIO = 1e-6
 
 
+@dataclass(frozen=True)
+class Expansion:
+    """What the entities of a drawing expand to, counted before any reference is expanded.
+
+    Attributes
+    ----------
+    entities : int
+        Entities of model space plus every entity a block reference places, each copy counted:
+        a reference counts one per cell (rows x columns of a MINSERT array) plus, per cell,
+        the entities of its block, nested references counted the same way.
+    cycles : tuple of tuple of str
+        Each cycle of blocks met, from the block that inserts itself back to it, e.g.
+        ``('A', 'B', 'A')``.
+    """
+
+    entities: int
+    cycles: tuple[tuple[str, ...], ...] = ()
+
+    @property
+    def defects(self) -> tuple[Defect, ...]:
+        """One error per cycle, naming its blocks."""
+        out = []
+        for cycle in self.cycles:
+            through = (" through " + " -> ".join(repr(n) for n in cycle[1:])) if len(cycle) > 2 else ""
+            out.append(Defect("block cycle", f"block {cycle[0]!r} inserts itself{through}, so its "
+                              "references never end; remove the reference that closes the cycle",
+                              (), ERROR))
+        return tuple(out)
+
+
+def reference_cells(ins: object) -> int:
+    """The copies an INSERT places: 1, or the rows x columns ezdxf loops over for a MINSERT."""
+    if ins.mcount <= 1:
+        return 1
+    return max(int(ins.dxf.row_count), 0) * max(int(ins.dxf.column_count), 0)
+
+
+@dataclass
+class _Frame:
+    """A block whose size is being counted: its entities still to look at, the total so far."""
+
+    key: str
+    name: str
+    todo: Iterator
+    total: int = 0
+    cells: int = 0  # cells of the reference being counted below this block
+
+
+def _block_size(doc: object, name: str, sizes: dict[str, int], cycles: list[tuple[str, ...]]) -> int:
+    """Entities one copy of block ``name`` places (memoised in ``sizes``; block names upper case).
+
+    An iterative depth-first walk: a reference to a block on the current path closes a cycle,
+    recorded in ``cycles`` and counted as the reference alone.
+    """
+    key = name.upper()
+    if key in sizes:
+        return sizes[key]
+    blk = doc.blocks.get(name)
+    if blk is None:
+        return 0
+    stack = [_Frame(key, blk.name, iter(blk))]
+    on_path = {key: 0}
+    while stack:
+        f = stack[-1]
+        for ent in f.todo:
+            t = ent.dxftype()
+            if t == "ATTDEF":
+                continue
+            if t != "INSERT":
+                f.total += 1
+                continue
+            cells = reference_cells(ent)
+            sub = str(ent.dxf.get("name", ""))
+            k = sub.upper()
+            inner = doc.blocks.get(sub) if k not in sizes and k not in on_path else None
+            if inner is None:  # counted already, missing, or closing a cycle
+                if k in on_path:
+                    cycles.append((*(fr.name for fr in stack[on_path[k]:]), stack[on_path[k]].name))
+                f.total += cells * (1 + sizes.get(k, 0))
+                continue
+            f.cells = cells
+            on_path[k] = len(stack)
+            stack.append(_Frame(k, inner.name, iter(inner)))
+            break
+        else:
+            stack.pop()
+            del on_path[f.key]
+            sizes[f.key] = f.total
+            if stack:
+                stack[-1].total += stack[-1].cells * (1 + f.total)
+    return sizes[key]
+
+
+def count_expansion(doc: object, entities: Iterable) -> Expansion:
+    """Count what the entities of a drawing expand to, without expanding any reference.
+
+    Parameters
+    ----------
+    doc : ezdxf.document.Drawing
+        The document (its block definitions).
+    entities : iterable of ezdxf entities
+        The entities of model space.
+
+    Returns
+    -------
+    Expansion
+        The count (every copy of every block counted) and the cycles of blocks met.
+
+    """
+    sizes: dict[str, int] = {}
+    cycles: list[tuple[str, ...]] = []
+    total = 0
+    for e in entities:
+        if e.dxftype() == "INSERT":
+            total += reference_cells(e) * (1 + _block_size(doc, str(e.dxf.get("name", "")), sizes,
+                                                           cycles))
+        else:
+            total += 1
+    seen: set[frozenset[str]] = set()
+    unique = []
+    for c in cycles:  # one error per cycle, whichever block it was entered by
+        if frozenset(n.upper() for n in c) not in seen:
+            seen.add(frozenset(n.upper() for n in c))
+            unique.append(c)
+    return Expansion(total, tuple(unique))
+
+
+def refuse_large(expansion: Expansion, limit: int | None, file: str) -> None:
+    """Refuse a drawing that expands to more than ``limit`` entities (None: :data:`MAX_ENTITIES`).
+
+    Raises
+    ------
+    InputFileError
+        Naming the count and the option that lifts the limit.
+
+    """
+    limit = MAX_ENTITIES if limit is None else limit
+    if expansion.entities > limit:
+        raise InputFileError(f"the drawing expands to {expansion.entities:,} entities (each copy of "
+                             f"a block counted), more than the limit of {limit:,}; "
+                             "--max-entities N lifts the limit", file=file)
+
+
 @dataclass
 class _Walk:
     """One model-space reference being expanded."""
 
     out: PieceCollector
     top: str  # label of the model-space reference
-    budget: int  # entities (and MINSERT cells) still allowed
     readable: Collection[str] | None  # types read as geometry (None: all)
     warned: set[str] = field(default_factory=set)
 
@@ -70,13 +215,6 @@ class _Walk:
             self.warned.add(key)
             self.out.warn("unreadable", text, layer=layer)
 
-    def spend(self, n: int) -> None:
-        """Count n entities or cells against :data:`MAX_BLOCK_ENTITIES`."""
-        self.budget -= n
-        if self.budget < 0:
-            raise InputFileError(f"its block references expand to more than {MAX_BLOCK_ENTITIES:,} "
-                                 "entities; this is not a section drawing", file=self.out.source)
-
 
 def block_entities(out: PieceCollector, e: object, layer: str, label: str, depth: int = 0,
                    readable: Collection[str] | None = None) -> Iterator[tuple[object, str, str]]:
@@ -85,8 +223,8 @@ def block_entities(out: PieceCollector, e: object, layer: str, label: str, depth
     Parameters
     ----------
     out : PieceCollector
-        Counts the entities met in blocks; takes the warnings (a reference nested too deep, a
-        block that references itself, an entity that cannot be placed or is tilted).
+        Counts the entities met in blocks; takes the warnings (a reference nested too deep,
+        an entity that cannot be placed or is tilted).
     e : ezdxf INSERT entity
         The reference (a MINSERT array included).
     layer, label : str
@@ -103,15 +241,15 @@ def block_entities(out: PieceCollector, e: object, layer: str, label: str, depth
     (entity, layer, label)
         Each leaf entity (never an INSERT), placed, with the layer and label to read it with.
 
-    Raises
-    ------
-    InputFileError
-        When the references expand to more than :data:`MAX_BLOCK_ENTITIES` entities.
+    Notes
+    -----
+    The size of the expansion and the cycles of blocks are found before, by
+    :func:`count_expansion`; here a reference that closes a cycle is only left out.
 
     """
     from ezdxf.math import Matrix44
 
-    walk = _Walk(out, label, MAX_BLOCK_ENTITIES - sum(out.in_blocks.values()), readable)
+    walk = _Walk(out, label, readable)
     yield from _expand(walk, e, Matrix44(), layer, (), depth)
 
 
@@ -120,12 +258,9 @@ def _where(walk: _Walk, path: Sequence[str]) -> str:
     return walk.top + (" via " + " > ".join(repr(n) for n in path) if path else "")
 
 
-def _cells(walk: _Walk, ins: object) -> list:
+def _cells(ins: object) -> list:
     """The references of an INSERT: itself, or one per cell of a MINSERT array."""
-    if ins.mcount <= 1:
-        return [ins]
-    walk.spend(int(ins.dxf.row_count) * int(ins.dxf.column_count))  # before ezdxf loops over them
-    return list(ins.multi_insert())
+    return [ins] if ins.mcount <= 1 else list(ins.multi_insert())
 
 
 def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[str, ...],
@@ -142,22 +277,18 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
         walk.warn(f"missing {name}", f"{where} refers to block {name!r}, which the drawing does "
                   "not define: left out", layer)
         return
-    keys = [p.upper() for p in path]  # block names are case-insensitive
-    if blk.name.upper() in keys:
-        loop = " > ".join(repr(n) for n in (*path[keys.index(blk.name.upper()):], blk.name))
-        walk.warn(f"cycle {blk.name}", f"block {blk.name!r} references itself ({loop}): that "
-                  f"reference ({where}) is left out", layer)
-        return
+    if blk.name.upper() in (p.upper() for p in path):  # block names are case-insensitive
+        return  # a cycle: an error of the drawing already (count_expansion)
     inner = (*path, blk.name)
-    cells = _cells(walk, ins)
+    cells = _cells(ins)
     for k, cell in enumerate(cells):
+        walk.out.tick()
         m = cell.matrix44() @ parent  # ezdxf matrices act on row vectors: inner level first
         at = where if len(cells) == 1 else f"{where}, cell {k + 1} of {len(cells)}"
         for ent in blk:
             t = ent.dxftype()
             if t == "ATTDEF":  # attribute definitions are not drawn
                 continue
-            walk.spend(1)
             walk.out.in_blocks[t] += 1
             sub_layer = ent.dxf.get("layer", "0") or "0"
             if sub_layer == "0":  # entities on layer 0 take the layer of the reference
@@ -167,7 +298,7 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
                 continue
             sub_label = f"{t} in block {blk.name!r} ({at})"
             try:
-                placed = _place(ent, m)
+                placed = _place(ent, m, walk.out.source, sub_label)
             except InputFileError:
                 raise
             except Exception as exc:  # a damaged entity, or one ezdxf cannot transform
@@ -184,8 +315,11 @@ def _expand(walk: _Walk, ins: object, parent: object, layer: str, path: tuple[st
                 yield v, sub_layer, sub_label
 
 
-def _place(e: object, m: object) -> list | None:
-    """Entity e of a block placed by matrix m: new entities, or None if out of the x-y plane."""
+def _place(e: object, m: object, file: str, label: str) -> list | None:
+    """Entity e of a block placed by matrix m: new entities, or None if out of the x-y plane.
+
+    ``file`` and ``label`` name it in a refusal (a spline too big to interpolate).
+    """
     t = e.dxftype()
     if t in ("CIRCLE", "ARC"):
         return _one(_placed_conic(*_circle_conic(e), m))
@@ -210,7 +344,7 @@ def _place(e: object, m: object) -> list | None:
         from ezdxf.entities import Spline
 
         v = Spline.new(dxfattribs={"layer": e.dxf.get("layer", "0")})
-        v.apply_construction_tool(e.construction_tool().transform(m))
+        v.apply_construction_tool(spline_tool(e, file, label).transform(m))
         return [v]
     v = e.copy()
     v.transform(m)

@@ -19,9 +19,11 @@ from ...errors import InputFileError
 from ...geometry.loops import MAX_COORDINATE
 from ..defects import WARNING, Defect, fmt_point
 from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyline_piece
+from ..progress import ProgressLine
 
-#: Largest number of pieces read from one drawing.
-MAX_PIECES = 200_000
+#: Most entities one drawing may hold, each copy of a block counted (and most pieces read from
+#: it), unless the reader is given another limit (``--max-entities``).
+MAX_ENTITIES = 200_000
 
 
 @dataclass(frozen=True)
@@ -56,17 +58,28 @@ class PieceCollector:
         File name, for messages.
     factor : float
         Drawing coordinates times this give lengths in the profile's unit.
+    limit : int, optional
+        Most pieces kept (default :data:`MAX_ENTITIES`).
     """
 
-    def __init__(self, source: str, factor: float) -> None:
+    def __init__(self, source: str, factor: float, limit: int | None = None) -> None:
         self.source = source
         self.f = factor
+        self.limit = MAX_ENTITIES if limit is None else limit
         self.pieces: list[Piece] = []
         self.defects: list[Defect] = []
         self.in_blocks: Counter[str] = Counter()
         self.skipped: Counter[str] = Counter()
         self.unreadable: Counter[str] = Counter()
         self.hatches: list[HatchBoundary] = []
+        self.read = 0  # entities and MINSERT cells read so far
+        self.progress: ProgressLine | None = None
+
+    def tick(self) -> None:
+        """Count one entity (or MINSERT cell) read, for the progress line."""
+        self.read += 1
+        if self.progress is not None and not self.read & 1023:
+            self.progress.update(self.read)
 
     def warn(self, kind: str, text: str, where: Sequence[tuple[float, float]] = (),
              layer: str | None = None) -> None:
@@ -90,9 +103,9 @@ class PieceCollector:
                       f"{float(np.abs(ends).max()):.3g}, beyond {MAX_COORDINATE:.0e}: left out",
                       layer=piece.layer)
             return
-        if len(self.pieces) >= MAX_PIECES:
-            raise InputFileError(f"the drawing has more than {MAX_PIECES:,} curves; "
-                                 "this is not a section drawing", file=self.source)
+        if len(self.pieces) >= self.limit:
+            raise InputFileError(f"the drawing has more than {self.limit:,} curves, the limit; "
+                                 "--max-entities N lifts the limit", file=self.source)
         self.pieces.append(piece)
 
     def line(self, p: np.ndarray, q: np.ndarray, layer: str, label: str) -> None:

@@ -3,8 +3,10 @@
 :func:`load_document` refuses what is not a DXF drawing (empty, binary data, no leading
 SECTION) with one clear line, reads text and binary DXF with ezdxf, falls back on ezdxf's
 recover mode when the strict reader fails (keeping ezdxf's log off the user's stderr) and
-refuses numbers that recover mode would only guess. :func:`why` words an exception for a
-message.
+refuses numbers that recover mode would only guess. A file that ends before the DXF
+end-of-file marker is truncated: when ezdxf cannot read it, the refusal says so
+(:data:`TRUNCATED`), not what ezdxf stumbled over at the cut. :func:`why` words an exception
+for a message.
 """
 
 from __future__ import annotations
@@ -18,6 +20,21 @@ from ...errors import InputFileError
 from ..files import read_input, refuse_binary
 
 _BINARY_SENTINEL = b"AutoCAD Binary DXF\r\n\x1a\x00"
+
+#: What is wrong with a file that ends before the DXF end-of-file marker.
+TRUNCATED = ("the file is truncated (it ends before the DXF end-of-file marker), so part of the "
+             "drawing may be missing; save it again")
+
+
+def ends_early(data: bytes) -> bool:
+    r"""True when DXF data (text or binary) does not end with the end-of-file marker (0, EOF).
+
+    Examples
+    --------
+    >>> ends_early(b"0\nSECTION\n2\nENTITIES\n0\nENDSEC\n0\nEOF\n"), ends_early(b"0\nSECTION\n2\nENT")
+    (False, True)
+    """
+    return not data.rstrip(b" \t\r\n\x1a\x00").upper().endswith(b"EOF")
 
 
 def check_text_dxf(data: bytes, name: str) -> None:
@@ -58,29 +75,39 @@ def load_document(path: str | Path) -> tuple[object, tuple[str, ...], bool, dict
 
     """
     import ezdxf
+    from ezdxf.audit import AuditError
 
     p = Path(path)
     name = str(path)
     data = read_input(path)
+    truncated = ends_early(data)
     if data.startswith(_BINARY_SENTINEL):
         try:
             doc = ezdxf.readfile(p)
         except Exception as exc:  # ezdxf raises many kinds for a damaged binary file
-            raise InputFileError(f"binary DXF file cannot be read ({why(exc)})", file=name) from None
-        return doc, (), False, dict(Counter(e.dxftype() for e in doc.modelspace()))
+            reason = TRUNCATED if truncated else f"({why(exc)})"
+            raise InputFileError(f"binary DXF file cannot be read: {reason}", file=name) from None
+        return doc, (), truncated, dict(Counter(e.dxftype() for e in doc.modelspace()))
     check_text_dxf(data, name)
-    truncated = not data.rstrip(b" \t\r\n\x1a\x00").upper().endswith(b"EOF")
     recovered: tuple[str, ...] = ()
     try:  # the strict reader is faster; recover mode takes what it rejects
         doc = ezdxf.readfile(p)
         found = Counter(e.dxftype() for e in doc.modelspace())  # before the audit removes any
         auditor = doc.audit()
     except Exception as strict:  # ezdxf raises many kinds for a damaged file
-        doc, auditor = _recover(p, name)
+        try:
+            doc, auditor = _recover(p, name)
+        except InputFileError:
+            if truncated:  # what ezdxf stumbled over is the cut
+                raise InputFileError(f"cannot be read: {TRUNCATED}", file=name) from None
+            raise
         recovered = (f"read in recover mode (the strict reader stopped: {why(strict)})",)
         found = Counter(e.dxftype() for e in doc.modelspace())
     repairs = recovered + tuple(str(getattr(f, "message", f))
-                                for f in list(auditor.fixes) + list(auditor.errors))
+                                for f in list(auditor.fixes) + list(auditor.errors)
+                                # a block cycle is no repair (ezdxf changes nothing) but an
+                                # error of the drawing, in our words (blocks.count_expansion)
+                                if getattr(f, "code", None) != AuditError.INVALID_BLOCK_REFERENCE_CYCLE)
     if not states_insunits(data):
         # ezdxf fills in a default header ($INSUNITS = 6, metres) for a file without one: the
         # unit must come from what the file itself holds

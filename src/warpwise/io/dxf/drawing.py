@@ -14,8 +14,10 @@ from pathlib import Path
 from ...errors import InputFileError
 from ..defects import ERROR, WARNING, Defect
 from ..pieces import Piece
+from ..progress import ProgressLine
+from .blocks import count_expansion, refuse_large
 from .collect import HatchBoundary, PieceCollector
-from .document import load_document, why
+from .document import TRUNCATED, load_document, why
 from .entities import read_entity
 from .units import Units, resolve_units
 
@@ -71,7 +73,7 @@ class Drawing:
         return frozenset(i for h in self.hatches for path in h.paths for i in path)
 
 
-def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
+def read_drawing(path: str | Path, units: str | None = None, max_entities: int | None = None) -> Drawing:
     """Read the curves of a DXF drawing.
 
     Parameters
@@ -80,6 +82,10 @@ def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
         DXF file (text or binary).
     units : str, optional
         Length unit of the coordinates, overriding the header's ``$INSUNITS``.
+    max_entities : int, optional
+        Most entities the drawing may expand to, each copy of a block counted, and most pieces
+        read (default :data:`~warpwise.io.dxf.collect.MAX_ENTITIES`); counted before any block
+        reference is expanded.
 
     Returns
     -------
@@ -89,7 +95,8 @@ def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
     Raises
     ------
     InputFileError
-        Missing, empty, binary (not DXF), unreadable file, or an unsupported unit.
+        Missing, empty, binary (not DXF), unreadable or truncated file, an unsupported unit, or
+        a drawing that expands to more than ``max_entities`` entities.
 
     """
     name = str(path)
@@ -100,26 +107,30 @@ def read_drawing(path: str | Path, units: str | None = None) -> Drawing:
     except (TypeError, ValueError):
         insunits = None
     u = resolve_units(insunits, units, file=name)
-    out = PieceCollector(name, u.factor)
+    out = PieceCollector(name, u.factor, max_entities)
     try:
         msp = doc.modelspace()
         entities = list(msp)
     except Exception as exc:  # no usable model space
         raise InputFileError(f"has no readable model space ({why(exc)})", file=name) from None
-    for e in entities:
-        t = e.dxftype()
-        handle = e.dxf.get("handle", None)
-        label = f"{t} #{handle}" if handle else t
-        read_entity(out, e, e.dxf.get("layer", "0") or "0", label)
-    defects = list(out.defects)
+    expansion = count_expansion(doc, entities)
+    refuse_large(expansion, max_entities, name)  # before any reference is expanded
+    out.progress = ProgressLine(f"reading {name}", expansion.entities, "entities")
+    try:
+        for e in entities:
+            t = e.dxftype()
+            handle = e.dxf.get("handle", None)
+            label = f"{t} #{handle}" if handle else t
+            read_entity(out, e, e.dxf.get("layer", "0") or "0", label)
+    finally:
+        out.progress.close()
+    defects = list(expansion.defects) + list(out.defects)
     for t, n in sorted(out.unreadable.items()):
         defects.append(Defect("unreadable", f"{n} {t} entit{'y' if n == 1 else 'ies'} cannot be "
                               "turned into lines and arcs: left out (explode them in the CAD program "
                               "if they belong to the section)", (), WARNING))
     if truncated:
-        defects.append(Defect("truncated", "the file is truncated (it ends before the DXF end-of-file "
-                              "marker), so part of the drawing may be missing; save it again",
-                              (), ERROR))
+        defects.append(Defect("truncated", TRUNCATED, (), ERROR))
     version = str(doc.header.get("$ACADVER", "") or getattr(doc, "acad_release", ""))
     return Drawing(name, tuple(out.pieces), u, version, found,
                    dict(out.in_blocks), dict(out.skipped), repairs, tuple(defects), tuple(out.hatches))

@@ -22,6 +22,7 @@ from .blocks import block_entities
 from .collect import PieceCollector
 from .document import why
 from .hatch import read_hatch
+from .splines import spline_points, spline_tool
 
 #: Entities that hold geometry warpwise cannot read: left out with a warning.
 UNREADABLE = {"REGION", "3DSOLID", "BODY", "SURFACE", "MESH", "MLINE", "HELIX", "SOLID", "TRACE",
@@ -132,8 +133,8 @@ def read_ellipse(out: PieceCollector, e: object, layer: str, label: str, depth: 
 
 
 def read_spline(out: PieceCollector, e: object, layer: str, label: str, depth: int = 0) -> None:
-    """SPLINE (closed when its ends meet)."""
-    ct = e.construction_tool()
+    """SPLINE (closed when its ends meet), drawn by :func:`~.splines.spline_points`."""
+    ct = spline_tool(e, out.source, label)
     ctrl = np.asarray([tuple(v) for v in ct.control_points], dtype=float).reshape(-1, 3)
     if len(ctrl) < 2:
         raise ValueError("fewer than two control points")
@@ -145,8 +146,7 @@ def read_spline(out: PieceCollector, e: object, layer: str, label: str, depth: i
         return out.add(point_piece(ctrl[0, :2] * f, layer, label))
 
     def raw(s: float, ct=ct) -> np.ndarray:
-        tol = max(s / f, 1e-12 * size / f)
-        return np.array([(v.x, v.y) for v in ct.flattening(tol, segments=16)]) * f
+        return spline_points(ct, max(s / f, 1e-12 * size / f)) * f
 
     pts = raw(1e-5 * size)
     full = bool(np.hypot(*(pts[-1] - pts[0])) <= 1e-9 * size)
@@ -230,6 +230,7 @@ def read_entity(out: PieceCollector, e: object, layer: str, label: str, depth: i
         How many block references it is met in (0 in model space).
 
     """
+    out.tick()
     t = e.dxftype()
     read = READERS.get(t)
     if read is None:
