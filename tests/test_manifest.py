@@ -233,3 +233,16 @@ def test_items_keep_folders_files_and_manifests_in_order(catalogue, tmp_path):
     assert [i.path.split("/")[-1] for i in items] == [
         "key_bar_12x8.txt", "sheet.dxf", "insert_bar.dxf", "key_bar_12x8.txt", "insert_bar.dxf",
         "sheet.dxf"]
+
+
+def test_manifest_entry_lifts_the_entity_limit(tmp_path):
+    from warpwise.catalogue import RunOptions
+    from warpwise.io.options import ReadOptions
+
+    manifest = tmp_path / "m.toml"
+    manifest.write_text("[[profile]]\nfile = 'a.dxf'\nmax_entities = 500000\n")
+    (item,) = read_manifest(manifest, RunOptions(read=ReadOptions()))
+    assert item.options.read.max_entities == 500000
+    manifest.write_text("[[profile]]\nfile = 'a.dxf'\nmax_entities = 0\n")
+    with pytest.raises(InputFileError, match="profile 1: "):
+        read_manifest(manifest)

@@ -178,7 +178,7 @@ class Item:
 MANIFEST_KEYS: dict[str, type | tuple[type, ...]] = {
     "file": str, "name": str, "description": str, "part": int, "all_parts": bool,
     "layers": list, "layer_materials": dict, "material": str, "units": str,
-    "join_tolerance": (int, float), "chord_tolerance": (int, float)}
+    "join_tolerance": (int, float), "chord_tolerance": (int, float), "max_entities": int}
 
 
 def _entry_item(entry: object, k: int, folder: Path, base: RunOptions, where: str) -> Item:
@@ -204,7 +204,8 @@ def _entry_item(entry: object, k: int, folder: Path, base: RunOptions, where: st
         raise bad(f"unknown unit {entry['units']!r} (use {', '.join(LENGTH_UNITS)})")
     read = {"units": entry.get("units"), "layers": tuple(names) or None,
             "join_tolerance": entry.get("join_tolerance"), "layer_materials": table or None,
-            "chord_tolerance": entry.get("chord_tolerance"), "other_layers_material": entry.get("material")}
+            "chord_tolerance": entry.get("chord_tolerance"), "other_layers_material": entry.get("material"),
+            "max_entities": entry.get("max_entities")}
     changes = {key: value for key, value in read.items() if value is not None}
     if "part" in entry or "all_parts" in entry:
         changes.update(part=entry.get("part"), all_parts=entry.get("all_parts", False))
@@ -226,7 +227,7 @@ def read_manifest(path: str | Path, options: RunOptions | None = None) -> list[I
     relative to the manifest's folder), ``name`` (or part number), ``description``, and how
     it is read and analysed: ``part`` or ``all_parts``, ``layers``, ``layer_materials``
     (a table of layer = material name), ``material``, ``units``, ``join_tolerance``,
-    ``chord_tolerance``. What an entry gives replaces the run's option for that drawing.
+    ``chord_tolerance``, ``max_entities``. What an entry gives replaces the run's option for that drawing.
 
     Parameters
     ----------
