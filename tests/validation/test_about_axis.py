@@ -99,5 +99,5 @@ def test_axis_at_principal_angle_through_centroid_gives_principal_moments(angle)
 
 
 def test_fibre_on_the_axis_is_refused(rectangle):
-    with pytest.raises(UsageError, match=r"fibre \(10, 0\) lies on the axis"):
-        axis_properties(rectangle.geometric, (0.0, 0.0), 0.0, fibres=[(10.0, 0.0)])
+    with pytest.raises(UsageError, match=r"fibre 2 \(of those given\) lies on the axis"):
+        axis_properties(rectangle.geometric, (0.0, 0.0), 0.0, fibres=[(1.0, 3.0), (10.0, 0.0)])

@@ -16,6 +16,7 @@ from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
 from ..io.progress import bar
 from ..materials import check_plausible
+from ..properties.about_axis import axis_properties
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
 from ..report import outputs
@@ -25,7 +26,8 @@ from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
 from ..stress.recovery import reference_shear_modulus
-from ..units import STRESS, convert
+from ..units import STRESS, Converter, convert, system
+from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 
@@ -97,13 +99,36 @@ def run_props(args: argparse.Namespace) -> int:
     results = [run_analysis(p, options) for p in profiles]
     records = [record_of(r) for r in results]
     _warn(records)
-    table = csv_text(records, units=_table_units(records, args.report_units)) if args.csv else ""
+    axes = _about_axis(args, results)
+    table_units = _table_units(records, args.report_units) if args.csv else ""
+    table = csv_text(records, units=table_units, extra=axis_columns(axes, table_units)) \
+        if args.csv else ""
     shown = [r.in_units(args.report_units or r.units) for r in records]
-    text = json_text(shown) if args.json else "\n".join(property_table(r) for r in shown)
+    text = json_text(shown, extra=axis_objects(axes, args.report_units)) if args.json else \
+        "\n".join(axis_table(property_table(r), a, args.report_units)
+                  for r, a in zip(shown, axes or [None] * len(shown), strict=True))
     if not (args.csv and is_stdout(args.csv)):  # the CSV takes the place of the table
         sys.stdout.write(text)
     write_outputs([(args.csv, table)])
     return _missed_exit(records)
+
+
+def _about_axis(args: argparse.Namespace, results: list[SectionResult]) -> list[AxisRequest]:
+    """``--about-axis`` (and ``--fibre``) of each result, in its profile's units ([] if not asked).
+
+    The point and fibres are given in the report's unit system (each profile's own by default).
+    """
+    if args.about_axis is None:
+        if args.fibre:
+            raise UsageError("--fibre needs --about-axis (the axis its section modulus is about)")
+        return []
+    out = []
+    for r in results:
+        into = Converter(system(args.report_units or r.units).length, r.units)
+        x0, y0, angle = args.about_axis
+        out.append((axis_properties(r.weighted, into.point((x0, y0)), angle,
+                                    [into.point(f) for f in args.fibre or ()]), r.units))
+    return out
 
 
 def _missed_exit(records: list[Record]) -> int:

@@ -48,6 +48,23 @@ def positive_float(text: str) -> float:
     return v
 
 
+def numbers(count: int, names: str):
+    """A parser of ``count`` comma-separated finite numbers (``names`` as in the message).
+
+    Examples
+    --------
+    >>> numbers(2, "X,Y")("10,-2.5")
+    (10.0, -2.5)
+    """
+    def parse(text: str) -> tuple[float, ...]:
+        parts = text.split(",")
+        if len(parts) != count:
+            raise argparse.ArgumentTypeError(f"give {names} ({count} numbers separated by "
+                                             f"commas), got {text!r}")
+        return tuple(finite_float(p.strip()) for p in parts)
+    return parse
+
+
 def positive_int(text: str) -> int:
     """A whole number of at least 1 from the command line."""
     try:
@@ -168,6 +185,14 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
                         "lists them with their parameters)")
     p.add_argument("--json", action="store_true", help="print JSON instead of the table")
     p.add_argument("--csv", metavar="OUT", help="also write one CSV row per profile to OUT")
+    p.add_argument("--about-axis", type=numbers(3, "X0,Y0,ANGLE"), metavar="X0,Y0,ANGLE",
+                   help="also the second moments about the axis through the point (X0, Y0) "
+                        "(drawing coordinates, the report's length unit) at ANGLE degrees from "
+                        "+x, counter-clockwise, and the polar moment about the point (write "
+                        "--about-axis=-5,0,0 for a first number below zero)")
+    p.add_argument("--fibre", action="append", type=numbers(2, "X,Y"), metavar="X,Y",
+                   help="with --about-axis: the section modulus about that axis to the fibre at "
+                        "(X, Y) (repeatable)")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)

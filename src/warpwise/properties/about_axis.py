@@ -114,8 +114,8 @@ def axis_properties(g: GeometricProperties, point: Sequence[float], angle_deg: f
     size = np.sqrt(g.A)
     on_axis = np.abs(v) <= 1e-12 * size
     if on_axis.any():
-        x, y = f[int(np.argmax(on_axis))]
-        raise UsageError(f"fibre ({x:g}, {y:g}) lies on the axis: it has no section modulus")
+        k = int(np.argmax(on_axis)) + 1
+        raise UsageError(f"fibre {k} (of those given) lies on the axis: it has no section modulus")
     return AxisProperties(
         point=(x0, y0), angle_deg=float(angle_deg), I_axis=float(I_axis),
         I_across=float(ixp * s * s + iyp * c * c + 2.0 * ixyp * s * c),

@@ -63,9 +63,16 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     return obj
 
 
-def json_text(items: list[SectionResult] | list[Record]) -> str:
-    """JSON text: one object for one result, a list for several."""
+def json_text(items: list[SectionResult] | list[Record],
+              extra: list[dict[str, Any]] | None = None) -> str:
+    """JSON text: one object for one result, a list for several.
+
+    ``extra`` holds one dict per item of further keys of a request (``about_axis``), values
+    already in the item's units.
+    """
     objs = [to_json_object(r) for r in items]
+    for obj, more in zip(objs, extra or [{}] * len(objs), strict=True):
+        obj.update(more)
     for obj in objs:
         standard_json(obj, file=obj["file"])  # names the profile of a non-finite value
     return standard_json(objs[0] if len(objs) == 1 else objs)
@@ -147,7 +154,8 @@ TARGET_COLUMNS = ["target error (-)", "error reached (-)", "meshes solved (count
                   "stopped by (text)"]
 
 
-def csv_text(items: list[SectionResult] | list[Record], units: str | None = None) -> str:
+def csv_text(items: list[SectionResult] | list[Record], units: str | None = None,
+             extra: tuple[list[str], list[list[str]]] | None = None) -> str:
     """CSV text with one row per profile, in one length unit.
 
     Parameters
@@ -157,6 +165,10 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     units : str, optional
         Unit system of the table (see :func:`~warpwise.report.records.report_units` for the
         default); every row is converted to it.
+
+    extra : (headers, rows), optional
+        Columns of a request (``--about-axis``) after the others: their headers with units and
+        one row of cells per item, already in the table's units.
 
     A name and a description column follow the file's when any profile has one.
     """
@@ -175,8 +187,8 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
     with_target = any(r.target is not None for r in recs)
     if with_target:
         header += TARGET_COLUMNS
-    w.writerow(header)
-    for r in recs:
+    w.writerow(header + (extra[0] if extra else []))
+    for i, r in enumerate(recs):
         v = r.values
         for q in QUANTITIES:
             if abs(v[q.key]) == math.inf:
@@ -192,5 +204,5 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
             t = r.target
             row += ["", "", "", ""] if t is None else \
                 [f"{t.target:.3g}", f"{t.reached:.3g}", t.meshes, t.stopped]
-        w.writerow(row)
+        w.writerow(row + (extra[1][i] if extra else []))
     return buf.getvalue()
