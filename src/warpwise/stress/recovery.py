@@ -18,6 +18,7 @@ corner found by the analysis, :attr:`SectionResult.corners`).
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -64,8 +65,8 @@ class MaterialField:
         return np.sqrt(self.sigma**2 + 3.0 * (self.tau_zx**2 + self.tau_zy**2))
 
 
-def _normal_stress(result: SectionResult, loads: Loads, local: np.ndarray) -> np.ndarray:
-    """sigma_z of the reference material at points ``local`` (centroidal), F/L^2."""
+def normal_stress(result: SectionResult, loads: Loads, local: np.ndarray) -> np.ndarray:
+    """sigma_z of the reference material at points ``local`` (k, 2) (centroidal, L), F/L^2."""
     tr = result.weighted
     if not (loads.N or loads.Mx or loads.My):
         return np.zeros(len(local))
@@ -75,20 +76,30 @@ def _normal_stress(result: SectionResult, loads: Loads, local: np.ndarray) -> np
     return loads.N / tr.A + a * local[:, 0] + b * local[:, 1]
 
 
-def _shear_vector(result: SectionResult, loads: Loads, mask: np.ndarray, nodes: np.ndarray,
-                  local: np.ndarray, c: float) -> np.ndarray:
-    """(tau_zx, tau_zy) (k, 2) of the reference material from T, Vx, Vy at ``nodes``, F/L^2."""
-    mesh = result.mesh
-    out = np.zeros((len(nodes), 2))
+def shear_components(result: SectionResult, loads: Loads, local: np.ndarray, c: np.ndarray | float,
+                     gradient_of: Callable[[np.ndarray], np.ndarray]) -> np.ndarray:
+    """(tau_zx, tau_zy) (k, 2) of the reference material from T, Vx, Vy at points ``local``.
+
+    ``local`` (k, 2) are centroidal coordinates, L; ``c`` the shear-split coefficient there;
+    ``gradient_of`` gives the gradient (k, 2) of a nodal field at the same points. F/L^2.
+    """
+    out = np.zeros((len(local), 2))
     if loads.T:
-        g = nodal_gradient(mesh, result.torsion.psi, mask)[nodes]
+        g = gradient_of(result.torsion.psi)
         out += (loads.T / result.torsion.J) * np.column_stack([g[:, 0] - local[:, 1],
                                                                g[:, 1] + local[:, 0]])
     if loads.Vx or loads.Vy:
         theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
         a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
-        out += nodal_gradient(mesh, theta, mask)[nodes] - split_field(local, a, b, c)
+        out += gradient_of(theta) - split_field(local, a, b, c)
     return out
+
+
+def _shear_vector(result: SectionResult, loads: Loads, mask: np.ndarray, nodes: np.ndarray,
+                  local: np.ndarray, c: float) -> np.ndarray:
+    """(tau_zx, tau_zy) (k, 2) of the reference material from T, Vx, Vy at ``nodes``, F/L^2."""
+    return shear_components(result, loads, local, c,
+                            lambda f: nodal_gradient(result.mesh, f, mask)[nodes])
 
 
 def recover(result: SectionResult, loads: Loads) -> list[MaterialField]:
@@ -117,7 +128,7 @@ def recover(result: SectionResult, loads: Loads) -> list[MaterialField]:
         first = int(np.flatnonzero(mask)[0])
         wE, wG, c = float(mats.E[first]), float(mats.G[first]), float(mats.c[first])
         tau = wG * _shear_vector(result, loads, mask, nodes, local, c)
-        out.append(MaterialField(name, gi, nodes, wE * _normal_stress(result, loads, local),
+        out.append(MaterialField(name, gi, nodes, wE * normal_stress(result, loads, local),
                                  tau[:, 0], tau[:, 1]))
     return out
 
