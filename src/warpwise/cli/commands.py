@@ -25,8 +25,12 @@ from ..report.outputs import STDOUT, Output, check_outputs, is_stdout, staged_fo
 from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
+from ..stress.case_results import case_results
+from ..stress.cases import read_load_cases
+from ..stress.points import normal_extremes, stress_at_points
 from ..stress.recovery import reference_shear_modulus
 from ..units import STRESS, Converter, convert, system
+from .case_output import cases_csv, cases_json, cases_text
 from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
@@ -155,8 +159,39 @@ def _table_units(records: list[Record], chosen: str | None) -> str:
     return units
 
 
+def run_load_cases(args: argparse.Namespace) -> int:
+    """``warpwise stress --load-cases FILE``: one results table over every case."""
+    if any(_loads(args).__dict__.values()) or args.at:
+        raise UsageError("--load-cases takes the loads from its file: give no load options "
+                         "or --at with it")
+    check_outputs([Output("--csv", args.csv)], [*_inputs(args, [args.file]), args.load_cases])
+    cases = read_load_cases(args.load_cases)
+    _given_modulus(args)
+    result = _analyse_file(args.file, args, bounds=False)
+    _warn([record_of(result)])
+    _, G = _in_profile_units(args, result)
+    G = reference_shear_modulus(result, G)
+    given = cases.units or args.report_units or result.units
+    loads = [c.converted(given, result.units) for c in cases.loads]
+    if G is None and any(c.T for c in loads):
+        raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
+                         "or E with Poisson's ratio")
+    rows = case_results(result, cases.names, loads, G)
+    v = Converter.of(result.units, args.report_units)
+    table = cases_csv(rows, v) if args.csv else ""
+    if not (args.csv and is_stdout(args.csv)):
+        sys.stdout.write(cases_json(args.file, args.load_cases, rows, v) if args.json else
+                         cases_text(args.file, args.load_cases, rows, v))
+    write_outputs([(args.csv, table)])
+    return 0
+
+
 def run_stress(args: argparse.Namespace) -> int:
     """``warpwise stress``: stresses for a torque, shear forces, axial force and moments."""
+    if args.load_cases:
+        return run_load_cases(args)
+    if args.csv:
+        raise UsageError("--csv writes the table of --load-cases: give a load-case file")
     if not any(_loads(args).__dict__.values()):
         raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
                          "and/or --moment-y")
@@ -169,10 +204,14 @@ def run_stress(args: argparse.Namespace) -> int:
         raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
                          "or E with Poisson's ratio")
     units = args.report_units
-    if result.composite or loads.N or loads.Mx or loads.My:
+    if result.composite or loads.N or loads.Mx or loads.My or args.at:
         c = combined_stress(result, loads, G)
-        text = combined_json(args.file, result, c, G, units) if args.json else \
-            combined_text(args.file, result, c, units)
+        into = Converter(system(units or result.units).length, result.units)
+        at = stress_at_points(result, loads, [into.point(p) for p in args.at],
+                              shown=args.at) if args.at else None
+        extremes = normal_extremes(result, c)
+        text = combined_json(args.file, result, c, G, units, extremes, at) if args.json else \
+            combined_text(args.file, result, c, units, extremes, at)
     else:
         s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
         text = shear_json(args.file, result, s, G, units) if args.json else \

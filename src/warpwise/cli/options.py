@@ -205,6 +205,17 @@ def _add_stress(sub: argparse._SubParsersAction) -> None:
                     "force and bending moments, and the twist rate.")
     p.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
     _load_options(p)
+    p.add_argument("--at", action="append", type=numbers(2, "X,Y"), metavar="X,Y", default=[],
+                   help="also every stress component at the point (X, Y), drawing coordinates "
+                        "in the report's length unit (repeatable; write --at=-5,2 for a first "
+                        "number below zero)")
+    p.add_argument("--load-cases", metavar="CASES.csv",
+                   help="several load cases instead of the load options: a file with a header "
+                        "'case, N, Mx, My, Vx, Vy, T' (any of the loads) and one line per case, "
+                        "an optional 'units: SYSTEM' line first (default the report's units); "
+                        "prints one results table")
+    p.add_argument("--csv", metavar="OUT", help="with --load-cases: also write the results "
+                                                "table as CSV to OUT (- for standard output)")
     _moduli_options(p)
     _report_options(p, loads=True)
     p.add_argument("--json", action="store_true", help="print JSON instead of text")

@@ -11,9 +11,11 @@ from dataclasses import dataclass
 
 from ..properties.analysis import SectionResult
 from ..report.files import standard_json
+from .point_output import extreme_json, extreme_rows, point_json, point_rows
 from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
+from ..stress.points import NormalExtremes, PointStress
 from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
 
 
@@ -103,8 +105,13 @@ def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None
 
 
 def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float | None,
-                  units: str | None = None) -> str:
-    """JSON of the stresses under combined loads, per material, in the report's units."""
+                  units: str | None = None, extremes: list[NormalExtremes] | None = None,
+                  at: PointStress | None = None) -> str:
+    """JSON of the stresses under combined loads, per material, in the report's units.
+
+    ``extremes`` (one per material) adds the signed extreme normal stresses to each material,
+    ``at`` the stresses at given points (``at_points``).
+    """
     v = _View.of_result(result, units)
     loads = c.loads
     top = max(c.by_material, key=lambda m: m.von_mises_max)
@@ -125,11 +132,16 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
                        "utilisation": m.utilisation} for m in c.by_material],
         "warnings": list(result.profile.warnings),
     }
+    for mat, e in zip(obj["materials"], extremes or (), strict=False):
+        mat.update(extreme_json(e, v))
+    if at is not None:
+        obj["at_points"] = point_json(at, v)
     return standard_json(obj, file=file)
 
 
 def combined_text(file: str, result: SectionResult, c: CombinedStress,
-                  units: str | None = None) -> str:
+                  units: str | None = None, extremes: list[NormalExtremes] | None = None,
+                  at: PointStress | None = None) -> str:
     """Readable table of the stresses under combined loads, per material (see combined_json)."""
     v = _View.of_result(result, units)
     loads, L = c.loads, v.system.length
@@ -147,15 +159,17 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress,
              row("shear force along y", "Vy", v(loads.Vy, FORCE), force),
              row("torque", "T", v(loads.T, MOMENT), moment)]
     lines += _twist_rows(row, v, c.twist_rate)
-    for m in c.by_material:
+    for k, m in enumerate(c.by_material):
         x, y = v.point(m.von_mises_at)
         lines += ["", f"  {m.material or 'section'}",
                   row("largest normal stress |sigma_z|", "sigma", v(m.sigma_max, STRESS), stress),
                   row("largest shear stress", "tau", v(m.tau_max, STRESS), stress),
                   row("largest von Mises stress", "sigma_vm", v(m.von_mises_max, STRESS), stress),
                   f"    at ({format_value(x)}, {format_value(y)}) {L}"]
+        lines += extreme_rows(row, extremes[k], v) if extremes else []
         if m.utilisation is not None:
             lines.append(row("von Mises / fy (informative, not a code check)", "u", m.utilisation, "-"))
     lines += [f"  note: {corner_note(corner, result.units)}" for corner in result.corners]
+    lines += point_rows(at, v) if at is not None else []
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)
