@@ -30,8 +30,8 @@ from ..stress.cases import read_load_cases
 from ..stress.points import normal_extremes, stress_at_points
 from ..stress.recovery import reference_shear_modulus
 from ..units import STRESS, Converter, convert, system
-from .case_output import cases_csv, cases_json, cases_text
 from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
+from .case_output import cases_csv, cases_json, cases_text
 from .options import analysis_options, build_parser, read_options
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 

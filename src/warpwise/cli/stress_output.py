@@ -11,12 +11,12 @@ from dataclasses import dataclass
 
 from ..properties.analysis import SectionResult
 from ..report.files import standard_json
-from .point_output import extreme_json, extreme_rows, point_json, point_rows
 from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import CombinedStress, ShearStress
 from ..stress.points import NormalExtremes, PointStress
 from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
+from .point_output import extreme_json, extreme_rows, point_json, point_rows
 
 
 @dataclass(frozen=True)

@@ -1,5 +1,6 @@
-"""Fields of six-node elements at arbitrary points: the element holding each point, values and
-gradients there (vectorised over points and elements).
+"""Fields of six-node elements at arbitrary points: the element holding each, values, gradients.
+
+Vectorised over points and elements.
 
 A point is located in the straight triangle of its element's corners (barycentric coordinates),
 then its reference coordinates are refined by Newton's method on the isoparametric map, so

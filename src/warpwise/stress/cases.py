@@ -1,4 +1,4 @@
-"""Load-case files: several sets of section forces, one row per case.
+r"""Load-case files: several sets of section forces, one row per case.
 
 The file is plain text, comma separated::
 
@@ -16,10 +16,10 @@ left out is zero). Each later line is one case: its name and one number per load
 
 Examples
 --------
->>> f = parse_load_cases("units: cm\\ncase, Mx, Vy\\nlift, 250, 12\\n", source="a.csv")
+>>> f = parse_load_cases("units: cm\ncase, Mx, Vy\nlift, 250, 12\n", source="a.csv")
 >>> f.units, f.names, f.loads[0].Mx
 ('cm', ('lift',), 250.0)
->>> parse_load_cases("case, Mz\\nx, 1\\n", source="a.csv")
+>>> parse_load_cases("case, Mz\nx, 1\n", source="a.csv")
 Traceback (most recent call last):
 ...
 warpwise.errors.InputFileError: a.csv: line 1: unknown column 'Mz' (columns: case, N, Mx, My, Vx, Vy, T)
