@@ -188,8 +188,11 @@ def option_strings(command):
 
 
 def test_catalogue_takes_every_analysis_option_of_props():
-    # what props has and the catalogue lacks: only its own inputs and outputs
-    assert option_strings("props") - option_strings("catalogue") == {"--shape"}
+    # what props has and the catalogue lacks: only its own inputs and outputs, and the
+    # request of one axis in the drawing's coordinates (--about-axis, --fibre), which has no
+    # meaning across the different drawings of a catalogue
+    assert option_strings("props") - option_strings("catalogue") == {"--shape", "--about-axis",
+                                                                     "--fibre"}
 
 
 def test_catalogue_options_reach_the_analysis(cli, tmp_path):
