@@ -29,6 +29,7 @@ from ..geometry.profile import Profile
 from ..materials import ElementMaterials, Material, check_poisson, resolve
 from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
+from .buckling import BucklingConstants, buckling_constants
 from .geometric import GeometricProperties, geometric_properties
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
@@ -162,6 +163,11 @@ class SectionResult:
     def units(self) -> str:
         """Length unit of all results."""
         return self.profile.units
+
+    @property
+    def buckling(self) -> BucklingConstants:
+        """Shear-centre offset and polar radius of gyration about the shear centre, L."""
+        return buckling_constants(self.weighted, self.torsion)
 
     @property
     def values(self) -> ElementValues:

@@ -12,6 +12,7 @@ from typing import Any
 
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
+from ..stress.torsion_modulus import torsion_modulus
 from ..units import ANGLE, AREA, DENSITY, FORCE, LINEAR_MASS, STRESS, Dimension, system
 
 
@@ -36,7 +37,8 @@ class Quantity:
     kind : str
         ``length`` (unit L^power), or a force-based unit: ``force`` (F), ``stiffness``
         (F L^power), ``moment`` (F L), ``stress`` (F/L^2), ``mass`` (mass per length, kg/m or
-        lb/ft); the units are those of the unit system (:mod:`warpwise.units`).
+        lb/ft), ``twist_per_torque`` (deg/m per moment unit), ``surface`` (area per length,
+        m2/m or ft2/ft); the units are those of the unit system (:mod:`warpwise.units`).
 
     """
 
@@ -59,6 +61,8 @@ class Quantity:
             return STRESS
         if self.kind == "mass":
             return LINEAR_MASS
+        if self.kind in ("twist_per_torque", "surface"):
+            return Dimension(kind=self.kind)
         return Dimension(self.power, 1)  # stiffness and moment: force x length^power
 
 
@@ -103,6 +107,8 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
          "Ix + Iy - integral of (y dpsi/dx - x dpsi/dy) dA; T = G J theta"),
         ("J_low", "J_low", "guaranteed lower bound on J (stress function)", 4,
          "2 int phi dA + 2 sum c_k A_k, Prandtl phi on the same mesh; J_low <= J(exact) <= J"),
+        ("Wt", "Wt", "torsional section modulus", 3,
+         "T / tau_max, tau_max of the Saint-Venant stress field away from sharp re-entrant corners"),
         ("xs", "xs", "shear centre, x", 1,
          "Trefftz: point about which the warping function is orthogonal to x and y"),
         ("ys", "ys", "shear centre, y", 1, "as xs, drawing coordinates"),
@@ -114,6 +120,11 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
          "integral of v (u^2 + v^2) dA / I1 - 2 v_s (u, v along axes 1, 2)"),
         ("beta_2", "beta_2", "Wagner (mono-symmetry) constant, axis 2", 1,
          "integral of u (u^2 + v^2) dA / I2 - 2 u_s"),
+        ("xs0", "xs0", "shear centre from the centroid, x", 1,
+         "xs - xc (the modulus-weighted xe for a composite section)"),
+        ("ys0", "ys0", "shear centre from the centroid, y", 1, "ys - yc (ye for a composite)"),
+        ("i0", "i0", "polar radius of gyration about the shear centre", 1,
+         "sqrt((Ix + Iy) / A + xs0^2 + ys0^2), for torsional and flexural-torsional buckling"),
     ),
     "Plastic": (
         ("pna_y", "ypl", "height of the horizontal plastic neutral axis", 1,
@@ -158,6 +169,9 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("EI2", "EI2", "minor principal bending stiffness", 2,
          "principal value of the E-weighted second moments", "stiffness"),
         ("GJ", "GJ", "torsional stiffness", 2, "G-weighted Saint-Venant torsion: T = GJ theta", "stiffness"),
+        ("twist_per_torque", "theta/T", "twist per unit torque, degrees", 0,
+         "1 / GJ in degrees per metre (per foot in the in and ft systems) per moment unit",
+         "twist_per_torque"),
         ("ECw", "ECw", "warping stiffness", 4,
          "integral of E omega^2 dA, omega about the shear centre", "stiffness"),
         ("Mpl_x", "Mpl,x", "plastic moment about x", 1,
@@ -194,6 +208,8 @@ def values(result: SectionResult) -> dict[str, float]:
         "omega_max": t.omega_max, "beta_1": t.beta_1, "beta_2": t.beta_2,
         "J_low": float("nan") if t.J_low is None else t.J_low,
     }
+    b, wt = result.buckling, torsion_modulus(result)
+    out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0, "Wt": wt.Wt})
     sh = result.shear
     out.update({
         "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],
@@ -212,6 +228,7 @@ def values(result: SectionResult) -> dict[str, float]:
                     "Wpl_1": pl.Wpl_1, "Wpl_2": pl.Wpl_2, "shape_x": pl.Wpl_x / g.Wel["x"],
                     "shape_y": pl.Wpl_y / g.Wel["y"]})
     out.update(_material_values(result))
+    out["twist_per_torque"] = nan if wt.twist_per_torque is None else wt.twist_per_torque
     _zero_round_off(out, result.profile.size, g.A)
     return {q.key: float(out[q.key]) for q in QUANTITIES}
 
@@ -230,7 +247,7 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
     """
     omega_tiny = EXACT_ROUND_OFF * size**2
     scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y"), EXACT_ROUND_OFF * size),
-             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2"), SOLVED_ROUND_OFF * size),
+             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2", "xs0", "ys0"), SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
              "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
              "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
