@@ -1,5 +1,7 @@
-"""Constants for torsional and flexural-torsional buckling: the polar radius of gyration about
-the shear centre and the shear centre's offset from the centroid.
+"""Constants for torsional and flexural-torsional buckling (i0 and the shear-centre offset).
+
+The polar radius of gyration about the shear centre and the shear centre's offset from the
+centroid.
 
 With the shear centre at (xs0, ys0) from the centroid, the polar radius of gyration about the
 shear centre is i0^2 = (Ix + Iy) / A + xs0^2 + ys0^2 (Timoshenko and Gere, Theory of Elastic

@@ -247,7 +247,8 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
     """
     omega_tiny = EXACT_ROUND_OFF * size**2
     scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y"), EXACT_ROUND_OFF * size),
-             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2", "xs0", "ys0"), SOLVED_ROUND_OFF * size),
+             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2", "xs0", "ys0"),
+                             SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
              "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
              "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
