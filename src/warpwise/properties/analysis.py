@@ -31,9 +31,11 @@ from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
 from .buckling import BucklingConstants, buckling_constants
 from .geometric import GeometricProperties, geometric_properties
+from .outline import Perimeters, perimeters
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
 from .torsion import TorsionProperties, torsion_load, torsion_properties
+from .wall import WallThickness, wall_thickness
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
 MAX_RESIDUAL = 1e-8
@@ -136,6 +138,10 @@ class SectionResult:
         bounds, shear, plastic).
     target : TargetStatus or None
         How the adaptive refinement ended, when a target error was asked for.
+    perimeters : Perimeters or None
+        Outer and total perimeter of the material outline (exact on recorded arcs), L.
+    wall : WallThickness or None
+        Minimum wall thickness and where it is, L.
     """
 
     profile: Profile
@@ -153,6 +159,8 @@ class SectionResult:
     region_areas: tuple[float, ...] = ()
     timings: dict[str, float] = field(default_factory=dict)
     target: TargetStatus | None = None
+    perimeters: Perimeters | None = None
+    wall: WallThickness | None = None
 
     @property
     def composite(self) -> bool:
@@ -317,12 +325,12 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         ev = element_values(mesh, origin)
     except ValueError as exc:
         raise AnalysisError(str(exc), file=profile.source) from None
-    geo, evc = geometric_properties(mesh, ev, origin)
+    geo, evc = geometric_properties(mesh, ev, origin, arcs=profile.arcs)
     wE = wG = None
     weighted = geo
     if mats.composite:
         wE, wG = mats.E, mats.G
-        weighted, evc = geometric_properties(mesh, ev, origin, wE)
+        weighted, evc = geometric_properties(mesh, ev, origin, wE, arcs=profile.arcs)
     areas = np.bincount(mesh.region, weights=evc.dA.sum(axis=1), minlength=len(profile.regions))
     clock.lap("basis")
     K = stiffness_matrix(mesh, evc, wG)
@@ -350,6 +358,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     plastic = plastic_properties(profile, geo.alpha_deg, _region_strengths(profile, mats))
     corners = tuple(reentrant_corners(profile))
     clock.lap("plastic")
+    outline, wall = perimeters(profile), wall_thickness(profile)
+    clock.lap("outline")
     return SectionResult(profile, mesh, geo, tor, shear, evc, factor, weighted, mats, plastic,
                          corners=corners, region_areas=tuple(float(a) for a in areas),
-                         timings=clock.times)
+                         timings=clock.times, perimeters=outline, wall=wall)

@@ -13,7 +13,9 @@ from typing import Any
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
 from ..stress.torsion_modulus import torsion_modulus
-from ..units import ANGLE, AREA, DENSITY, FORCE, LINEAR_MASS, STRESS, Dimension, system
+from ..units import (
+    ANGLE, AREA, DENSITY, FORCE, LENGTH, LINEAR_MASS, STRESS, SURFACE, Dimension, system,
+)
 
 
 @dataclass(frozen=True)
@@ -75,6 +77,25 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("A", "A", "area", 2, "integral of dA"),
         ("xc", "xc", "centroid, x", 1, "integral of x dA / A, drawing coordinates"),
         ("yc", "yc", "centroid, y", 1, "integral of y dA / A, drawing coordinates"),
+    ),
+    "Outline": (
+        ("width", "b", "overall width", 1, "xmax - xmin, the true arcs included"),
+        ("height", "h", "overall height", 1, "ymax - ymin, the true arcs included"),
+        ("c_top", "c,y+", "extreme fibre above the centroid", 1, "ymax - yc"),
+        ("c_bottom", "c,y-", "extreme fibre below the centroid", 1, "yc - ymin"),
+        ("c_right", "c,x+", "extreme fibre right of the centroid", 1, "xmax - xc"),
+        ("c_left", "c,x-", "extreme fibre left of the centroid", 1, "xc - xmin"),
+        ("perimeter_outer", "P,out", "outer perimeter", 1,
+         "length of the outer outline: exact on recorded arcs, the drawn sides elsewhere"),
+        ("perimeter_total", "P", "total perimeter, holes included", 1,
+         "outer perimeter plus the edges of the holes (material interfaces left out)"),
+        ("surface", "S", "surface per length (coating)", 0,
+         "total perimeter x 1 m (or 1 ft): m2/m (ft2/ft)", "surface"),
+        ("t_min", "t,min", "minimum wall thickness", 1,
+         "smallest distance across the material along the inward normal of its outline"),
+        ("t_min_x", "x(t,min)", "position of the thinnest wall, x", 1,
+         "middle of the thinnest crossing, drawing coordinates"),
+        ("t_min_y", "y(t,min)", "position of the thinnest wall, y", 1, "as x(t,min)"),
     ),
     "Bending": (
         ("Ix", "Ix", "second moment about centroidal x axis", 4, "integral of y^2 dA, y from the centroid"),
@@ -208,6 +229,7 @@ def values(result: SectionResult) -> dict[str, float]:
         "omega_max": t.omega_max, "beta_1": t.beta_1, "beta_2": t.beta_2,
         "J_low": float("nan") if t.J_low is None else t.J_low,
     }
+    out.update(_outline_values(result))
     b, wt = result.buckling, torsion_modulus(result)
     out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0, "Wt": wt.Wt})
     sh = result.shear
@@ -246,7 +268,8 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
     size^2 and Cw against (size^2)^2 A, the square of omega's round-off over the area.
     """
     omega_tiny = EXACT_ROUND_OFF * size**2
-    scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y"), EXACT_ROUND_OFF * size),
+    scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y", "t_min_x", "t_min_y"),
+                             EXACT_ROUND_OFF * size),
              **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2", "xs0", "ys0"),
                              SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
@@ -256,6 +279,25 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
     for key, tiny in scale.items():
         if abs(out[key]) < tiny:  # nan (not computed) stays nan
             out[key] = 0.0
+
+
+def _outline_values(result: SectionResult) -> dict[str, float]:
+    """Overall size, extreme fibres, perimeters, surface and thinnest wall (nan if not found)."""
+    fib, nan = result.geometric.fibres, float("nan")
+    out = {"c_top": fib["x_top"], "c_bottom": fib["x_bottom"], "c_right": fib["y_right"],
+           "c_left": fib["y_left"]}
+    out.update(width=out["c_left"] + out["c_right"], height=out["c_top"] + out["c_bottom"])
+    p, w = result.perimeters, result.wall
+    units = system(result.units)
+    out.update({
+        "perimeter_outer": nan if p is None else p.outer,
+        "perimeter_total": nan if p is None else p.total,
+        # the perimeter in metres is the surface in m2 per metre of length
+        "surface": nan if p is None else units.from_si(units.to_si(p.total, LENGTH), SURFACE),
+        "t_min": nan if w is None else w.t_min,
+        "t_min_x": nan if w is None else w.at[0], "t_min_y": nan if w is None else w.at[1],
+    })
+    return out
 
 
 def _material_values(result: SectionResult) -> dict[str, float]:
