@@ -43,7 +43,7 @@ class WallThickness:
 
 
 def _cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
-    """z component of the cross product of 2-vectors along the last axis."""
+    """Z component of the cross product of 2-vectors along the last axis."""
     return u[..., 0] * v[..., 1] - u[..., 1] * v[..., 0]
 
 

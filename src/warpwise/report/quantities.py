@@ -14,7 +14,16 @@ from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
 from ..stress.torsion_modulus import torsion_modulus
 from ..units import (
-    ANGLE, AREA, DENSITY, FORCE, LENGTH, LINEAR_MASS, STRESS, SURFACE, Dimension, system,
+    ANGLE,
+    AREA,
+    DENSITY,
+    FORCE,
+    LENGTH,
+    LINEAR_MASS,
+    STRESS,
+    SURFACE,
+    Dimension,
+    system,
 )
 
 
