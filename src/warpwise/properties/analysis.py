@@ -35,6 +35,7 @@ from .outline import Perimeters, perimeters
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
 from .torsion import TorsionProperties, torsion_load, torsion_properties
+from .torsion_modulus import TorsionModulus, torsion_modulus
 from .wall import WallThickness, wall_thickness
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
@@ -142,6 +143,8 @@ class SectionResult:
         Outer and total perimeter of the material outline (exact on recorded arcs), L.
     wall : WallThickness or None
         Minimum wall thickness and where it is, L.
+    torsion_modulus : TorsionModulus or None
+        Wt = T / tau_max (away from sharp re-entrant corners), L^3.
     """
 
     profile: Profile
@@ -161,6 +164,7 @@ class SectionResult:
     target: TargetStatus | None = None
     perimeters: Perimeters | None = None
     wall: WallThickness | None = None
+    torsion_modulus: TorsionModulus | None = None
 
     @property
     def composite(self) -> bool:
@@ -358,8 +362,10 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     plastic = plastic_properties(profile, geo.alpha_deg, _region_strengths(profile, mats))
     corners = tuple(reentrant_corners(profile))
     clock.lap("plastic")
+    wt = torsion_modulus(mesh, tor, weighted.centroid, mats, corners)
     outline, wall = perimeters(profile), wall_thickness(profile)
     clock.lap("outline")
     return SectionResult(profile, mesh, geo, tor, shear, evc, factor, weighted, mats, plastic,
                          corners=corners, region_areas=tuple(float(a) for a in areas),
-                         timings=clock.times, perimeters=outline, wall=wall)
+                         timings=clock.times, perimeters=outline, wall=wall,
+                         torsion_modulus=wt)

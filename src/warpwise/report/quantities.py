@@ -12,7 +12,6 @@ from typing import Any
 
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
-from ..stress.torsion_modulus import torsion_modulus
 from ..units import (
     ANGLE,
     AREA,
@@ -24,6 +23,7 @@ from ..units import (
     SURFACE,
     Dimension,
     system,
+    twist_in_degrees,
 )
 
 
@@ -239,8 +239,9 @@ def values(result: SectionResult) -> dict[str, float]:
         "J_low": float("nan") if t.J_low is None else t.J_low,
     }
     out.update(_outline_values(result))
-    b, wt = result.buckling, torsion_modulus(result)
-    out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0, "Wt": wt.Wt})
+    b, wt = result.buckling, result.torsion_modulus
+    out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0,
+                "Wt": float("nan") if wt is None else wt.Wt})
     sh = result.shear
     out.update({
         "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],
@@ -259,7 +260,6 @@ def values(result: SectionResult) -> dict[str, float]:
                     "Wpl_1": pl.Wpl_1, "Wpl_2": pl.Wpl_2, "shape_x": pl.Wpl_x / g.Wel["x"],
                     "shape_y": pl.Wpl_y / g.Wel["y"]})
     out.update(_material_values(result))
-    out["twist_per_torque"] = nan if wt.twist_per_torque is None else wt.twist_per_torque
     _zero_round_off(out, result.profile.size, g.A)
     return {q.key: float(out[q.key]) for q in QUANTITIES}
 
@@ -313,7 +313,7 @@ def _material_values(result: SectionResult) -> dict[str, float]:
     """Modulus-weighted stiffnesses, plastic moments and mass (nan without a material)."""
     nan = float("nan")
     keys = ("E_ref", "xe", "ye", "EA", "EIx", "EIy", "EIxy", "EI1", "EI2", "GJ", "ECw",
-            "Mpl_x", "Mpl_y", "mass")
+            "Mpl_x", "Mpl_y", "mass", "twist_per_torque")
     m = result.materials
     if m.E_ref is None:
         return dict.fromkeys(keys, nan)
@@ -337,6 +337,8 @@ def _material_values(result: SectionResult) -> dict[str, float]:
         "ECw": E * tor.Cw,
         "Mpl_x": nan if pl is None or pl.Mpl_x is None else pl.Mpl_x,
         "Mpl_y": nan if pl is None or pl.Mpl_y is None else pl.Mpl_y, "mass": mass,
+        # theta / T = 1 / GJ, rad/L per F L, as degrees per metre (foot) per F L
+        "twist_per_torque": twist_in_degrees(1.0 / (G * tor.J), result.units),
     }
 
 

@@ -25,6 +25,7 @@ import numpy as np
 from ..fem.p2 import nodal_gradient
 from ..properties.analysis import SectionResult
 from ..properties.shear import bending_gradients, split_field
+from ..properties.torsion_modulus import corner_mask, unit_torque_shear
 from .loads import Loads
 
 
@@ -81,9 +82,7 @@ def _shear_vector(result: SectionResult, loads: Loads, mask: np.ndarray, nodes: 
     mesh = result.mesh
     out = np.zeros((len(nodes), 2))
     if loads.T:
-        g = nodal_gradient(mesh, result.torsion.psi, mask)[nodes]
-        out += (loads.T / result.torsion.J) * np.column_stack([g[:, 0] - local[:, 1],
-                                                               g[:, 1] + local[:, 0]])
+        out += loads.T * unit_torque_shear(mesh, result.torsion, mask, nodes, local)
     if loads.Vx or loads.Vy:
         theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
         a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
@@ -138,10 +137,7 @@ def away_from_corners(result: SectionResult, nodes: np.ndarray | None = None) ->
     When no node is outside (a tiny section), all are kept.
     """
     xy = result.mesh.nodes if nodes is None else result.mesh.nodes[nodes]
-    keep = np.ones(len(xy), bool)
-    for c in result.corners:
-        keep &= np.hypot(xy[:, 0] - c.x, xy[:, 1] - c.y) > c.radius
-    return keep if keep.any() else np.ones(len(xy), bool)
+    return corner_mask(xy, result.corners)
 
 
 def peak(result: SectionResult, values: np.ndarray, nodes: np.ndarray | None = None, *,
