@@ -6,7 +6,7 @@ import math
 
 import pytest
 
-from warpwise.geometry.shapes import channel, circle, hollow_rectangle, i_beam, rectangle, tube
+from warpwise.geometry.shapes import angle, channel, circle, hollow_rectangle, i_beam, rectangle, tube
 from warpwise.properties.analysis import analyse
 from warpwise.properties.outline import perimeters
 from warpwise.properties.wall import wall_thickness
@@ -94,6 +94,8 @@ def test_minimum_wall_thickness():
     w = wall_thickness(i_beam(200.0, 100.0, 5.6, 8.5, 12.0))
     assert w.t_min == pytest.approx(5.6, rel=EXACT)
     assert w.at[0] == pytest.approx(0.0, abs=1e-9) and abs(w.at[1]) <= 100.0 - 8.5 - 12.0
+    # an angle with a root radius and rounded toes: the legs, not the rounding at their ends
+    assert wall_thickness(angle(80.0, 60.0, 5.0, 6.0, 3.0)).t_min == pytest.approx(5.0, rel=EXACT)
     # rounded hollow rectangle: the wall, also through the concentric corners
     assert wall_thickness(hollow_rectangle(100.0, 50.0, 4.0, ro=8.0)).t_min == pytest.approx(
         4.0, rel=1e-12)

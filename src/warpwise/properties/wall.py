@@ -7,7 +7,10 @@ starts from. The smallest of these is the minimum wall thickness; the pieces of 
 samples are then sampled again, finer. On walls of constant thickness (straight or concentric
 circular faces) the value is exact; on a tapered wall it is exact to the sampling. Where two
 sides meet at a convex corner sharper than a right angle, the material itself tapers to nothing
-and the value is that found by the samples nearest the tip.
+and the value is that found by the samples nearest the tip. A rounded convex corner (a toe, an
+outer corner radius) is not a wall: a ray counts on such an arc only when it meets it square,
+through its centre (the wall of a tube, the diameter of a disc), so that the rounding near the
+end of a leg is not taken for a thin wall.
 """
 
 from __future__ import annotations
@@ -22,6 +25,9 @@ from .outline import Pieces, outline_pieces
 #: Samples along the outline per largest dimension of the section (common practice, no
 #: source: 1/400 of the size resolves every wall a mesh resolves), and on each piece refined.
 SAMPLES_PER_SIZE, REFINED_SAMPLES, REFINED_PIECES = 400, 64, 8
+#: A ray meets a convex arc square when it passes the centre within this fraction of the radius
+#: (rays from arc samples are radial to round-off; common practice, no source).
+SQUARE = 1e-7
 #: Ray-side products evaluated per chunk (memory bound of the vectorised search).
 CHUNK = 4_000_000
 
@@ -78,6 +84,9 @@ def _first_hits(p: Pieces, pts: np.ndarray, nrm: np.ndarray, eps: float) -> np.n
     a, e = p.start[straight], (p.end - p.start)[straight]
     ca, cr = p.centre[~straight], p.radius[~straight]
     s0, s1 = p.start[~straight] - ca, p.end[~straight] - ca
+    # material inside the circle: the chord's left normal points towards the centre
+    chord = s1 - s0
+    convex = (-chord[:, 1] * -(s0[:, 0] + s1[:, 0]) + chord[:, 0] * -(s0[:, 1] + s1[:, 1])) > 0
     lo = np.arctan2(s0[:, 1], s0[:, 0])
     span = np.mod(np.arctan2(s1[:, 1], s1[:, 0]) - lo, 2 * np.pi)
     backwards = span > np.pi  # the piece runs clockwise: measure from its end
@@ -102,6 +111,7 @@ def _first_hits(p: Pieces, pts: np.ndarray, nrm: np.ndarray, eps: float) -> np.n
             hp = w + sc[..., None] * n
             rel = np.mod(np.arctan2(hp[..., 1], hp[..., 0]) - lo[None] + 1e-12, 2 * np.pi) - 1e-12
             ok = (disc >= 0) & (sc > eps) & (rel <= span[None] + 1e-12)
+            ok &= ~convex[None] | (np.abs(_cross(n, w)) <= SQUARE * cr[None])
             hit = np.minimum(hit, np.where(ok, sc, np.inf).min(axis=1, initial=np.inf))
         best[i:i + step] = hit
     return best
