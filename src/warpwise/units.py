@@ -60,6 +60,8 @@ class Dimension:
     kind : str
         ``""`` for a plain power product; ``angle`` (degrees, not converted), ``twist``
         (radians per length: length -1), ``twist_deg`` (degrees per metre or per foot),
+        ``twist_per_torque`` (degrees per metre or per foot, per moment unit of the system),
+        ``surface`` (area per length: m2/m or ft2/ft, as a coated surface is stated),
         ``density`` and ``linear_mass`` (mass per volume and per length).
     """
 
@@ -77,6 +79,8 @@ MOMENT = Dimension(1, 1)
 STRESS = Dimension(-2, 1)
 TWIST = Dimension(-1, 0, "twist")
 TWIST_DEG = Dimension(kind="twist_deg")
+TWIST_PER_TORQUE = Dimension(kind="twist_per_torque")
+SURFACE = Dimension(kind="surface")
 DENSITY = Dimension(kind="density")
 LINEAR_MASS = Dimension(kind="linear_mass")
 
@@ -132,7 +136,9 @@ class UnitSystem:
     def text(self, dim: Dimension) -> str:
         """Unit text of a dimension in this system, e.g. ``mm4``, ``N*mm2``, ``MPa``, ``-``."""
         special = {"angle": "deg", "density": self.density, "linear_mass": self.linear_mass,
-                   "twist": f"rad/{self.length}", "twist_deg": f"deg/{self.long_length}"}
+                   "twist": f"rad/{self.length}", "twist_deg": f"deg/{self.long_length}",
+                   "twist_per_torque": f"deg/{self.long_length} per {self.force}*{self.length}",
+                   "surface": f"{self.long_length}2/{self.long_length}"}
         if dim.kind:
             return special[dim.kind]
         lp, fp = dim.length, dim.force
@@ -148,13 +154,20 @@ class UnitSystem:
         raise ValueError(f"no unit text for {dim}")
 
     def to_si(self, value: float, dim: Dimension) -> float:
-        """``value`` in this system to SI (m, N, Pa, kg/m^3, kg/m, rad/m; degrees stay)."""
+        """``value`` in this system to SI (m, N, Pa, kg/m^3, kg/m, rad/m; degrees stay).
+
+        A twist per torque goes to degrees per metre per N*m, a surface per length to m2/m.
+        """
         if dim.kind == "density":
             return value * self.kg_per_m3
         if dim.kind == "linear_mass":
             return value * self.kg_per_m
         if dim.kind == "twist_deg":
             return value / self.long_metre
+        if dim.kind == "twist_per_torque":
+            return value / self.long_metre / (self.newton * self.metre)
+        if dim.kind == "surface":
+            return value * self.long_metre
         if dim.kind == "angle":
             return value
         return value * self.metre ** dim.length * self.newton ** dim.force
@@ -238,7 +251,7 @@ def convert(value: float, dim: Dimension, source: str, target: str) -> float:
     if source == target or dim.kind == "angle" or dim == NUMBER:
         return value
     a, b = system(source), system(target)
-    if dim.kind in ("density", "linear_mass", "twist_deg"):
+    if dim.kind in ("density", "linear_mass", "twist_deg", "twist_per_torque", "surface"):
         return b.from_si(a.to_si(value, dim), dim)
     # powers of the larger unit over the smaller, then one division: exact between mm, cm, m
     num = den = 1.0

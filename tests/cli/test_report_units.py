@@ -262,6 +262,14 @@ def test_props_report_units_on_a_mm_drawing(drawings):
 LENGTH_M = {"mm": 1e-3, "cm": 1e-2, "m": 1.0, "in": INCH, "ft": FOOT}
 FORCE_N = {"N": 1.0, "kN": 1e3, "lbf": LBF}
 MASS_KG_M = {"kg/m": 1.0, "lb/ft": POUND / FOOT}
+#: Surface per length (m2/m or ft2/ft) in metres, and the long length of a twist per length.
+SURFACE_M = {"m2/m": 1.0, "ft2/ft": FOOT}
+TWIST_PER_TORQUE = re.compile(r"deg/(m|ft) per (N|kN|lbf)\*(mm|cm|m|in|ft)")
+
+
+def _long(length):
+    """The long length (a twist per, a surface per) of the system of a length unit."""
+    return "ft" if length in ("in", "ft") else "m"
 
 
 def powers(unit):
@@ -270,6 +278,10 @@ def powers(unit):
         return 0, 0, "plain"
     if unit in MASS_KG_M:
         return 0, 0, "mass"
+    if unit in SURFACE_M:
+        return 0, 0, "surface"
+    if TWIST_PER_TORQUE.fullmatch(unit):
+        return 0, 0, "twist_per_torque"
     m = re.fullmatch(r"(N|kN|lbf)(?:\*([a-z]+?)(\d*))?", unit)
     if m:
         return (0 if m[2] is None else int(m[3] or 1)), 1, "power"
@@ -290,6 +302,14 @@ def hand_convert(value, unit_there, source_units):
         return value
     if kind == "mass":
         return value * MASS_KG_M[source_units["mass"]] / MASS_KG_M[unit_there]
+    src = source_units["length"]
+    if kind == "surface":
+        return value * SURFACE_M[f"{_long(src)}2/{_long(src)}"] / SURFACE_M[unit_there]
+    if kind == "twist_per_torque":
+        long, force, length = TWIST_PER_TORQUE.fullmatch(unit_there).groups()
+        # degrees per long length per force x length: every factor of the unit is "per"
+        here = LENGTH_M[_long(src)] * FORCE_N[source_units["force"]] * LENGTH_M[src]
+        return value * (LENGTH_M[long] * FORCE_N[force] * LENGTH_M[length]) / here
     force_there = re.match(r"N|kN|lbf", unit_there)
     length_there = re.search(r"(mm|cm|m|in|ft)\d*$", unit_there)
     src_len, src_force = LENGTH_M[source_units["length"]], FORCE_N[source_units["force"]]

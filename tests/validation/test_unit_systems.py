@@ -62,6 +62,8 @@ METRE = {"mm": 1e-3, "cm": 1e-2, "m": 1.0, "in": INCH, "ft": FOOT}
 NEWTON = {"mm": 1.0, "cm": 1e3, "m": 1.0, "in": POUND_FORCE, "ft": POUND_FORCE}
 #: Mass per length unit of each system in kg/m, exact (pound over foot).
 KG_PER_M = {"mm": 1.0, "cm": 1.0, "m": 1.0, "in": POUND / FOOT, "ft": POUND / FOOT}
+#: Metres per long length (a coating surface in m2/m or ft2/ft, a twist per metre or per foot).
+LONG = {"mm": 1.0, "cm": 1.0, "m": 1.0, "in": FOOT, "ft": FOOT}
 
 
 def rel(value, expected):
@@ -158,10 +160,13 @@ def test_table_without_units_is_in_mpa(tmp_path):
 #: length, an angle, a pure number, or a force-based unit.
 KIND = {
     **dict.fromkeys(("xc", "yc", "rx", "ry", "r1", "r2", "xs", "ys", "beta_1", "beta_2",
-                     "pna_y", "pna_x", "xse", "yse", "xe", "ye"), "L"),
+                     "pna_y", "pna_x", "xse", "yse", "xe", "ye", "xs0", "ys0", "i0", "width",
+                     "height", "c_top", "c_bottom", "c_right", "c_left", "perimeter_outer",
+                     "perimeter_total", "t_min", "t_min_x", "t_min_y"), "L"),
     **dict.fromkeys(("A", "omega_max", "As_x", "As_y", "As_1", "As_2"), "L2"),
     **dict.fromkeys(("Wel_x_top", "Wel_x_bottom", "Wel_y_right", "Wel_y_left", "Wel_1_pos",
-                     "Wel_1_neg", "Wel_2_pos", "Wel_2_neg", "Wpl_x", "Wpl_y", "Wpl_1", "Wpl_2"),
+                     "Wel_1_neg", "Wel_2_pos", "Wel_2_neg", "Wpl_x", "Wpl_y", "Wpl_1", "Wpl_2",
+                     "Wt"),
                     "L3"),
     **dict.fromkeys(("Ix", "Iy", "Ixy", "I1", "I2", "Ip", "J", "J_low"), "L4"),
     "Cw": "L6",
@@ -173,22 +178,27 @@ KIND = {
     "ECw": "FL4",
     **dict.fromkeys(("Mpl_x", "Mpl_y"), "moment"),
     "mass": "mass",
+    "surface": "surface",
+    "twist_per_torque": "twist_per_torque",
 }
 
 #: The unit of each kind in each system, as the table of warpwise.units states it; the kinds in
-#: the order of KINDS (L, L2, L3, L4, L6, angle, number, stress, force, FL2, FL4, moment, mass).
+#: the order of KINDS (L, L2, L3, L4, L6, angle, number, stress, force, FL2, FL4, moment, mass,
+#: surface per length, twist in degrees per length per moment unit).
 UNIT_TABLE = {
-    "mm": ("mm", "mm2", "mm3", "mm4", "mm6", "deg", "-", "MPa", "N", "N*mm2", "N*mm4", "N*mm", "kg/m"),
+    "mm": ("mm", "mm2", "mm3", "mm4", "mm6", "deg", "-", "MPa", "N", "N*mm2", "N*mm4", "N*mm", "kg/m",
+           "m2/m", "deg/m per N*mm"),
     "cm": ("cm", "cm2", "cm3", "cm4", "cm6", "deg", "-", "kN/cm2", "kN", "kN*cm2", "kN*cm4", "kN*cm",
-           "kg/m"),
-    "m": ("m", "m2", "m3", "m4", "m6", "deg", "-", "Pa", "N", "N*m2", "N*m4", "N*m", "kg/m"),
+           "kg/m", "m2/m", "deg/m per kN*cm"),
+    "m": ("m", "m2", "m3", "m4", "m6", "deg", "-", "Pa", "N", "N*m2", "N*m4", "N*m", "kg/m",
+          "m2/m", "deg/m per N*m"),
     "in": ("in", "in2", "in3", "in4", "in6", "deg", "-", "psi", "lbf", "lbf*in2", "lbf*in4", "lbf*in",
-           "lb/ft"),
+           "lb/ft", "ft2/ft", "deg/ft per lbf*in"),
     "ft": ("ft", "ft2", "ft3", "ft4", "ft6", "deg", "-", "lbf/ft2", "lbf", "lbf*ft2", "lbf*ft4",
-           "lbf*ft", "lb/ft"),
+           "lbf*ft", "lb/ft", "ft2/ft", "deg/ft per lbf*ft"),
 }
 KINDS = ("L", "L2", "L3", "L4", "L6", "angle", "number", "stress", "force", "FL2", "FL4", "moment",
-         "mass")
+         "mass", "surface", "twist_per_torque")
 
 
 def test_every_quantity_has_a_kind_here():
@@ -229,7 +239,10 @@ def si_factor(kind, system):
     L, F = METRE[system], NEWTON[system]
     return {"L": L, "L2": L**2, "L3": L**3, "L4": L**4, "L6": L**6, "angle": 1.0, "number": 1.0,
             "stress": F / L**2, "force": F, "FL2": F * L**2, "FL4": F * L**4, "moment": F * L,
-            "mass": KG_PER_M[system]}[kind]
+            "mass": KG_PER_M[system],
+            # surface per length: the metre (foot) of the system's long length; a twist per
+            # torque in degrees per long length per F L
+            "surface": LONG[system], "twist_per_torque": 1.0 / (LONG[system] * F * L)}[kind]
 
 
 @pytest.fixture(scope="module")

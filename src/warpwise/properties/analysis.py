@@ -29,10 +29,14 @@ from ..geometry.profile import Profile
 from ..materials import ElementMaterials, Material, check_poisson, resolve
 from ..mesh.core import Mesh, build_mesh
 from .bounds import prandtl_lower_bound
+from .buckling import BucklingConstants, buckling_constants
 from .geometric import GeometricProperties, geometric_properties
+from .outline import Perimeters, perimeters
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
 from .torsion import TorsionProperties, torsion_load, torsion_properties
+from .torsion_modulus import TorsionModulus, torsion_modulus
+from .wall import WallThickness, wall_thickness
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
 MAX_RESIDUAL = 1e-8
@@ -135,6 +139,12 @@ class SectionResult:
         bounds, shear, plastic).
     target : TargetStatus or None
         How the adaptive refinement ended, when a target error was asked for.
+    perimeters : Perimeters or None
+        Outer and total perimeter of the material outline (exact on recorded arcs), L.
+    wall : WallThickness or None
+        Minimum wall thickness and where it is, L.
+    torsion_modulus : TorsionModulus or None
+        Wt = T / tau_max (away from sharp re-entrant corners), L^3.
     """
 
     profile: Profile
@@ -152,6 +162,9 @@ class SectionResult:
     region_areas: tuple[float, ...] = ()
     timings: dict[str, float] = field(default_factory=dict)
     target: TargetStatus | None = None
+    perimeters: Perimeters | None = None
+    wall: WallThickness | None = None
+    torsion_modulus: TorsionModulus | None = None
 
     @property
     def composite(self) -> bool:
@@ -162,6 +175,11 @@ class SectionResult:
     def units(self) -> str:
         """Length unit of all results."""
         return self.profile.units
+
+    @property
+    def buckling(self) -> BucklingConstants:
+        """Shear-centre offset and polar radius of gyration about the shear centre, L."""
+        return buckling_constants(self.weighted, self.torsion)
 
     @property
     def values(self) -> ElementValues:
@@ -311,12 +329,12 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         ev = element_values(mesh, origin)
     except ValueError as exc:
         raise AnalysisError(str(exc), file=profile.source) from None
-    geo, evc = geometric_properties(mesh, ev, origin)
+    geo, evc = geometric_properties(mesh, ev, origin, arcs=profile.arcs)
     wE = wG = None
     weighted = geo
     if mats.composite:
         wE, wG = mats.E, mats.G
-        weighted, evc = geometric_properties(mesh, ev, origin, wE)
+        weighted, evc = geometric_properties(mesh, ev, origin, wE, arcs=profile.arcs)
     areas = np.bincount(mesh.region, weights=evc.dA.sum(axis=1), minlength=len(profile.regions))
     clock.lap("basis")
     K = stiffness_matrix(mesh, evc, wG)
@@ -344,6 +362,10 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     plastic = plastic_properties(profile, geo.alpha_deg, _region_strengths(profile, mats))
     corners = tuple(reentrant_corners(profile))
     clock.lap("plastic")
+    wt = torsion_modulus(mesh, tor, weighted.centroid, mats, corners)
+    outline, wall = perimeters(profile), wall_thickness(profile)
+    clock.lap("outline")
     return SectionResult(profile, mesh, geo, tor, shear, evc, factor, weighted, mats, plastic,
                          corners=corners, region_areas=tuple(float(a) for a in areas),
-                         timings=clock.times)
+                         timings=clock.times, perimeters=outline, wall=wall,
+                         torsion_modulus=wt)

@@ -13,6 +13,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from ..fem.p2 import ElementValues, integrate
+from ..geometry.profile import Arc
 from ..mesh.core import Mesh
 
 
@@ -85,8 +86,23 @@ def _moduli(
     return wel, fib
 
 
+def arc_extremes(arcs: tuple[Arc, ...], alpha: float) -> np.ndarray:
+    """Points of the arcs farthest along +-x, +-y and +-the axes at ``alpha`` (radians), (k, 2).
+
+    Between two mesh nodes an arc bulges beyond both; these points make the extreme fibres
+    exact on true circles. Only points within each arc's sweep are returned, drawing unit.
+    """
+    if not arcs:
+        return np.empty((0, 2))
+    turns = np.concatenate([np.arange(4) * 0.5 * np.pi, alpha + np.arange(4) * 0.5 * np.pi])
+    pts = [np.stack([a.cx + a.r * np.cos(turns), a.cy + a.r * np.sin(turns)], axis=1)
+           [a.contains_angle(turns)] for a in arcs]
+    return np.vstack(pts)
+
+
 def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
-                         weight: np.ndarray | None = None) -> tuple[GeometricProperties, ElementValues]:
+                         weight: np.ndarray | None = None, *, arcs: tuple[Arc, ...] = ()
+                         ) -> tuple[GeometricProperties, ElementValues]:
     """Area, centroid, second moments, principal axes, moduli and radii of gyration.
 
     Parameters
@@ -100,6 +116,9 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
     weight : numpy.ndarray, optional
         Element-wise modulus ratio E / E_ref (m,): the properties are then those of the
         transformed section (modulus-weighted, about the modulus-weighted centroid).
+    arcs : tuple of Arc
+        True arcs of the outline (:attr:`Profile.arcs`): the extreme fibres include their
+        farthest points, not only the mesh nodes.
 
     Returns
     -------
@@ -126,7 +145,8 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
     if alpha <= -np.pi / 2 + 1e-15:
         alpha += np.pi
     centroid = (float(origin[0] + cx), float(origin[1] + cy))
-    wel, fib = _moduli(mesh.nodes - np.array(centroid), Ix, Iy, I1, I2, alpha)
+    outline = np.vstack([mesh.nodes, arc_extremes(arcs, alpha)])
+    wel, fib = _moduli(outline - np.array(centroid), Ix, Iy, I1, I2, alpha)
     props = GeometricProperties(
         A=A, centroid=centroid, Ix=Ix, Iy=Iy, Ixy=Ixy, I1=I1, I2=I2,
         alpha_deg=float(np.degrees(alpha)), Ip=Ix + Iy,
@@ -137,4 +157,4 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
     return props, evc
 
 
-__all__ = ["GeometricProperties", "geometric_properties"]
+__all__ = ["GeometricProperties", "arc_extremes", "geometric_properties"]

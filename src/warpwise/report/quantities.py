@@ -12,7 +12,19 @@ from typing import Any
 
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
-from ..units import ANGLE, AREA, DENSITY, FORCE, LINEAR_MASS, STRESS, Dimension, system
+from ..units import (
+    ANGLE,
+    AREA,
+    DENSITY,
+    FORCE,
+    LENGTH,
+    LINEAR_MASS,
+    STRESS,
+    SURFACE,
+    Dimension,
+    system,
+    twist_in_degrees,
+)
 
 
 @dataclass(frozen=True)
@@ -36,7 +48,8 @@ class Quantity:
     kind : str
         ``length`` (unit L^power), or a force-based unit: ``force`` (F), ``stiffness``
         (F L^power), ``moment`` (F L), ``stress`` (F/L^2), ``mass`` (mass per length, kg/m or
-        lb/ft); the units are those of the unit system (:mod:`warpwise.units`).
+        lb/ft), ``twist_per_torque`` (deg/m per moment unit), ``surface`` (area per length,
+        m2/m or ft2/ft); the units are those of the unit system (:mod:`warpwise.units`).
 
     """
 
@@ -59,6 +72,8 @@ class Quantity:
             return STRESS
         if self.kind == "mass":
             return LINEAR_MASS
+        if self.kind in ("twist_per_torque", "surface"):
+            return Dimension(kind=self.kind)
         return Dimension(self.power, 1)  # stiffness and moment: force x length^power
 
 
@@ -71,6 +86,25 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("A", "A", "area", 2, "integral of dA"),
         ("xc", "xc", "centroid, x", 1, "integral of x dA / A, drawing coordinates"),
         ("yc", "yc", "centroid, y", 1, "integral of y dA / A, drawing coordinates"),
+    ),
+    "Outline": (
+        ("width", "b", "overall width", 1, "xmax - xmin, the true arcs included"),
+        ("height", "h", "overall height", 1, "ymax - ymin, the true arcs included"),
+        ("c_top", "c,y+", "extreme fibre above the centroid", 1, "ymax - yc"),
+        ("c_bottom", "c,y-", "extreme fibre below the centroid", 1, "yc - ymin"),
+        ("c_right", "c,x+", "extreme fibre right of the centroid", 1, "xmax - xc"),
+        ("c_left", "c,x-", "extreme fibre left of the centroid", 1, "xc - xmin"),
+        ("perimeter_outer", "P,out", "outer perimeter", 1,
+         "length of the outer outline: exact on recorded arcs, the drawn sides elsewhere"),
+        ("perimeter_total", "P", "total perimeter, holes included", 1,
+         "outer perimeter plus the edges of the holes (material interfaces left out)"),
+        ("surface", "S", "surface per length (coating)", 0,
+         "total perimeter x 1 m (or 1 ft): m2/m (ft2/ft)", "surface"),
+        ("t_min", "t,min", "minimum wall thickness", 1,
+         "smallest distance across the material along the inward normal of its outline"),
+        ("t_min_x", "x(t,min)", "position of the thinnest wall, x", 1,
+         "middle of the thinnest crossing, drawing coordinates"),
+        ("t_min_y", "y(t,min)", "position of the thinnest wall, y", 1, "as x(t,min)"),
     ),
     "Bending": (
         ("Ix", "Ix", "second moment about centroidal x axis", 4, "integral of y^2 dA, y from the centroid"),
@@ -103,6 +137,8 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
          "Ix + Iy - integral of (y dpsi/dx - x dpsi/dy) dA; T = G J theta"),
         ("J_low", "J_low", "guaranteed lower bound on J (stress function)", 4,
          "2 int phi dA + 2 sum c_k A_k, Prandtl phi on the same mesh; J_low <= J(exact) <= J"),
+        ("Wt", "Wt", "torsional section modulus", 3,
+         "T / tau_max, tau_max of the Saint-Venant stress field away from sharp re-entrant corners"),
         ("xs", "xs", "shear centre, x", 1,
          "Trefftz: point about which the warping function is orthogonal to x and y"),
         ("ys", "ys", "shear centre, y", 1, "as xs, drawing coordinates"),
@@ -114,6 +150,11 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
          "integral of v (u^2 + v^2) dA / I1 - 2 v_s (u, v along axes 1, 2)"),
         ("beta_2", "beta_2", "Wagner (mono-symmetry) constant, axis 2", 1,
          "integral of u (u^2 + v^2) dA / I2 - 2 u_s"),
+        ("xs0", "xs0", "shear centre from the centroid, x", 1,
+         "xs - xc (the modulus-weighted xe for a composite section)"),
+        ("ys0", "ys0", "shear centre from the centroid, y", 1, "ys - yc (ye for a composite)"),
+        ("i0", "i0", "polar radius of gyration about the shear centre", 1,
+         "sqrt((Ix + Iy) / A + xs0^2 + ys0^2), for torsional and flexural-torsional buckling"),
     ),
     "Plastic": (
         ("pna_y", "ypl", "height of the horizontal plastic neutral axis", 1,
@@ -158,6 +199,9 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("EI2", "EI2", "minor principal bending stiffness", 2,
          "principal value of the E-weighted second moments", "stiffness"),
         ("GJ", "GJ", "torsional stiffness", 2, "G-weighted Saint-Venant torsion: T = GJ theta", "stiffness"),
+        ("twist_per_torque", "theta/T", "twist per unit torque, degrees", 0,
+         "1 / GJ in degrees per metre (per foot in the in and ft systems) per moment unit",
+         "twist_per_torque"),
         ("ECw", "ECw", "warping stiffness", 4,
          "integral of E omega^2 dA, omega about the shear centre", "stiffness"),
         ("Mpl_x", "Mpl,x", "plastic moment about x", 1,
@@ -194,6 +238,10 @@ def values(result: SectionResult) -> dict[str, float]:
         "omega_max": t.omega_max, "beta_1": t.beta_1, "beta_2": t.beta_2,
         "J_low": float("nan") if t.J_low is None else t.J_low,
     }
+    out.update(_outline_values(result))
+    b, wt = result.buckling, result.torsion_modulus
+    out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0,
+                "Wt": float("nan") if wt is None else wt.Wt})
     sh = result.shear
     out.update({
         "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],
@@ -229,8 +277,10 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
     size^2 and Cw against (size^2)^2 A, the square of omega's round-off over the area.
     """
     omega_tiny = EXACT_ROUND_OFF * size**2
-    scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y"), EXACT_ROUND_OFF * size),
-             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2"), SOLVED_ROUND_OFF * size),
+    scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y", "t_min_x", "t_min_y"),
+                             EXACT_ROUND_OFF * size),
+             **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2", "xs0", "ys0"),
+                             SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
              "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
              "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
@@ -240,11 +290,30 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
             out[key] = 0.0
 
 
+def _outline_values(result: SectionResult) -> dict[str, float]:
+    """Overall size, extreme fibres, perimeters, surface and thinnest wall (nan if not found)."""
+    fib, nan = result.geometric.fibres, float("nan")
+    out = {"c_top": fib["x_top"], "c_bottom": fib["x_bottom"], "c_right": fib["y_right"],
+           "c_left": fib["y_left"]}
+    out.update(width=out["c_left"] + out["c_right"], height=out["c_top"] + out["c_bottom"])
+    p, w = result.perimeters, result.wall
+    units = system(result.units)
+    out.update({
+        "perimeter_outer": nan if p is None else p.outer,
+        "perimeter_total": nan if p is None else p.total,
+        # the perimeter in metres is the surface in m2 per metre of length
+        "surface": nan if p is None else units.from_si(units.to_si(p.total, LENGTH), SURFACE),
+        "t_min": nan if w is None else w.t_min,
+        "t_min_x": nan if w is None else w.at[0], "t_min_y": nan if w is None else w.at[1],
+    })
+    return out
+
+
 def _material_values(result: SectionResult) -> dict[str, float]:
     """Modulus-weighted stiffnesses, plastic moments and mass (nan without a material)."""
     nan = float("nan")
     keys = ("E_ref", "xe", "ye", "EA", "EIx", "EIy", "EIxy", "EI1", "EI2", "GJ", "ECw",
-            "Mpl_x", "Mpl_y", "mass")
+            "Mpl_x", "Mpl_y", "mass", "twist_per_torque")
     m = result.materials
     if m.E_ref is None:
         return dict.fromkeys(keys, nan)
@@ -268,6 +337,8 @@ def _material_values(result: SectionResult) -> dict[str, float]:
         "ECw": E * tor.Cw,
         "Mpl_x": nan if pl is None or pl.Mpl_x is None else pl.Mpl_x,
         "Mpl_y": nan if pl is None or pl.Mpl_y is None else pl.Mpl_y, "mass": mass,
+        # theta / T = 1 / GJ, rad/L per F L, as degrees per metre (foot) per F L
+        "twist_per_torque": twist_in_degrees(1.0 / (G * tor.J), result.units),
     }
 
 

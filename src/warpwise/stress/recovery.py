@@ -26,6 +26,7 @@ import numpy as np
 from ..fem.p2 import nodal_gradient
 from ..properties.analysis import SectionResult
 from ..properties.shear import bending_gradients, split_field
+from ..properties.torsion_modulus import corner_mask, shear_per_torque
 from .loads import Loads
 
 
@@ -85,9 +86,7 @@ def shear_components(result: SectionResult, loads: Loads, local: np.ndarray, c: 
     """
     out = np.zeros((len(local), 2))
     if loads.T:
-        g = gradient_of(result.torsion.psi)
-        out += (loads.T / result.torsion.J) * np.column_stack([g[:, 0] - local[:, 1],
-                                                               g[:, 1] + local[:, 0]])
+        out += loads.T * shear_per_torque(gradient_of(result.torsion.psi), local, result.torsion.J)
     if loads.Vx or loads.Vy:
         theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
         a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
@@ -149,10 +148,7 @@ def away_from_corners(result: SectionResult, nodes: np.ndarray | None = None) ->
     When no node is outside (a tiny section), all are kept.
     """
     xy = result.mesh.nodes if nodes is None else result.mesh.nodes[nodes]
-    keep = np.ones(len(xy), bool)
-    for c in result.corners:
-        keep &= np.hypot(xy[:, 0] - c.x, xy[:, 1] - c.y) > c.radius
-    return keep if keep.any() else np.ones(len(xy), bool)
+    return corner_mask(xy, result.corners)
 
 
 def peak(result: SectionResult, values: np.ndarray, nodes: np.ndarray | None = None, *,
