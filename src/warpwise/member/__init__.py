@@ -5,7 +5,15 @@ just above the properties and below the stresses.
 """
 
 from .extremes import QUANTITIES, Extreme, extremes, stations
-from .solution import END_TEXT, ENDS, MemberActions, MemberLoads, MemberTorsion, solve_member
+from .solution import (
+    END_TEXT,
+    ENDS,
+    MemberActions,
+    MemberLoads,
+    MemberTorsion,
+    check_member,
+    solve_member,
+)
 
 __all__ = ["END_TEXT", "ENDS", "QUANTITIES", "Extreme", "MemberActions", "MemberLoads",
-           "MemberTorsion", "extremes", "solve_member", "stations"]
+           "MemberTorsion", "check_member", "extremes", "solve_member", "stations"]

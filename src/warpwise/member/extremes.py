@@ -90,11 +90,12 @@ def extremes(member: MemberTorsion) -> list[Extreme]:
         lo = float(z[max(k - 1, same[0])])
         hi = float(z[min(k + 1, same[-1])])
         if hi > lo:
-            mid_side = "left" if end[k] else "right"
-            res = minimize_scalar(lambda t: -abs(_value(member, name, t, mid_side)),
-                                  bounds=(lo, hi), method="bounded",
+            def size(t: float, name: str = name, side: str = side) -> float:
+                return -abs(_value(member, name, t, side))
+
+            res = minimize_scalar(size, bounds=(lo, hi), method="bounded",
                                   options={"xatol": 1e-12 * member.length})
-            v = _value(member, name, float(res.x), mid_side)
+            v = _value(member, name, float(res.x), side)
             if abs(v) > abs(best):
                 best_z, best = float(res.x), v
         out.append(Extreme(name=name, value=best, z=best_z, side=side))

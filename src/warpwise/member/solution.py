@@ -167,14 +167,15 @@ class MemberActions:
         return self.T_sv + self.T_w
 
 
-def _check(length: float, GJ: float, ECw: float, ends: Sequence[str], loads: MemberLoads) -> None:
-    """Refuse a bad member with one line naming the input and the defect."""
+def check_member(length: float, ends: Sequence[str], loads: MemberLoads) -> None:
+    """Refuse a bad length, supports or loads with one line naming the input and the defect.
+
+    Any unit system (length L, torques F*L); the section is not needed.
+    """
     if not (np.isfinite(length) and length > 0):
         raise UsageError(f"the member length must be a positive number, got {length}")
-    if not (np.isfinite(GJ) and GJ > 0):
-        raise UsageError(f"the torsional stiffness GJ must be positive, got {GJ}")
-    if not (np.isfinite(ECw) and ECw >= 0):
-        raise UsageError(f"the warping stiffness ECw must be zero or positive, got {ECw}")
+    if len(ends) != 2:
+        raise UsageError(f"give two end conditions (at z = 0 and z = L), got {len(ends)}")
     for end in ends:
         if end not in ENDS:
             raise UsageError(f"unknown end condition {end!r} (use {', '.join(ENDS)})")
@@ -185,7 +186,8 @@ def _check(length: float, GJ: float, ECw: float, ends: Sequence[str], loads: Mem
         if not (np.isfinite(T) and np.isfinite(z)):
             raise UsageError(f"a concentrated torque must be finite, got {T} at {z}")
         if not 0.0 <= z <= length:
-            raise UsageError(f"the torque {T:g} at {z:g} lies outside the member (0 to {length:g})")
+            raise UsageError(f"the torque {T:g} at z = {z:g} lies outside the member "
+                             f"(z from 0 to {length:g})")
     if not np.isfinite(loads.distributed):
         raise UsageError(f"the distributed torque must be finite, got {loads.distributed}")
 
@@ -304,9 +306,11 @@ def solve_member(length: float, GJ: float, ECw: float, ends: Sequence[str],
     0.2
     """
     ends = tuple(ends)
-    if len(ends) != 2:
-        raise UsageError(f"give two end conditions (at z = 0 and z = L), got {len(ends)}")
-    _check(length, GJ, ECw, ends, loads)
+    check_member(length, ends, loads)
+    if not (np.isfinite(GJ) and GJ > 0):
+        raise UsageError(f"the torsional stiffness GJ must be positive, got {GJ}")
+    if not (np.isfinite(ECw) and ECw >= 0):
+        raise UsageError(f"the warping stiffness ECw must be zero or positive, got {ECw}")
     starts, jump, at0, atL = _segments(length, loads)
     q = loads.distributed / GJ
     if ECw == 0.0:
@@ -321,4 +325,5 @@ def solve_member(length: float, GJ: float, ECw: float, ends: Sequence[str],
                          loads=loads, starts=starts, constants=constants)
 
 
-__all__ = ["END_TEXT", "ENDS", "MemberActions", "MemberLoads", "MemberTorsion", "solve_member"]
+__all__ = ["END_TEXT", "ENDS", "MemberActions", "MemberLoads", "MemberTorsion", "check_member",
+           "solve_member"]
