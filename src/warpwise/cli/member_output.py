@@ -40,6 +40,7 @@ class MemberView:
                 "phi3": f"rad/{L}3"}.get(name) or self.show.unit(DIMENSIONS[name])
 
     def __call__(self, value, name: str):
+        """A value (or array) of quantity ``name`` in the report's units."""
         return self.show(value, DIMENSIONS[name])
 
     def units(self) -> dict[str, str]:
