@@ -103,6 +103,9 @@ def member_text(file: str, m: MemberTorsion, at: MemberActions, top: list[Extrem
     for k in range(len(at.z)):  # one row per station (a handful)
         lines.append("  " + " ".join(f"{format_value(v(getattr(at, n)[k], n)):>12}"
                                      for n in names))
+    if len(m.starts) > 2:
+        lines.append("  at a load point the row holds the values just past it; phi''', T_sv "
+                     "and T_w jump there")
     lines += ["", "  largest values along the member"]
     for e in top:
         lines.append(f"  {MEANING[e.name]:<34} {sym[e.name]:<7} "
