@@ -7,8 +7,8 @@ import io
 import json
 
 import pytest
-from conftest import SAMPLES, assert_one_line_error
 
+from conftest import SAMPLES, assert_one_line_error
 from warpwise.cli import main
 
 CHANNEL = SAMPLES / "channel_thick_80x40.txt"
