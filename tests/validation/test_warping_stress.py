@@ -31,7 +31,9 @@ def test_warping_normal_stress_of_an_i_section():
     # sigma_w = E omega phi'' at the flange tip, mid-thickness node nearest (b/2, h/2); the
     # flange's own through-thickness warping -x (y - h/2) (thin strip, common practice, no
     # source) is added to the sectorial coordinate x h / 2 for the node's own y.
-    # Measured relative differences: see the assertion; they fall with t/b
+    # Measured relative differences for t/b = 0.2, 0.1, 0.05, 0.025: -3.1e-3, -8.0e-4, -2.0e-4,
+    # -1.4e-4 (slope about 1.9 before the mesh error of the thinnest takes over); bounds:
+    # falling at every step, slope > 1.5, final below 1e-3
     diffs = []
     for tb in T_OVER_B:
         res, _tf, s = _section(tb)
@@ -45,7 +47,9 @@ def test_warping_normal_stress_of_an_i_section():
 
 def test_warping_shear_stress_of_an_i_section():
     # tau_w = T_w S_w / (Cw t) in the flange at the node nearest (b/4, h/2): converges to the
-    # thin-walled value as t/b -> 0 (Cw and S_w of the thin-walled theory)
+    # thin-walled value as t/b -> 0 (Cw and S_w of the thin-walled theory). Measured for
+    # t/b = 0.2, 0.1, 0.05, 0.025: -1.2e-3, +9.5e-4, -1.9e-4, +7.8e-5 (the web-junction and
+    # Cw terms of order t/b change sign on the way); bounds: final below 2e-4, below the first
     diffs = []
     for tb in T_OVER_B:
         res, tf, s = _section(tb)
@@ -57,7 +61,7 @@ def test_warping_shear_stress_of_an_i_section():
         diffs.append(s.tau[k] / thin - 1.0)
         # along the flange, across the web direction nearly nothing (thin-walled flow)
         assert abs(s.tau_zy[k]) < 0.01 * abs(s.tau_zx[k])
-    assert abs(diffs[-1]) < 2e-3, diffs
+    assert abs(diffs[-1]) < 2e-4, diffs
     assert abs(diffs[-1]) < abs(diffs[0]), diffs
 
 

@@ -1,7 +1,7 @@
 """Stresses of restrained warping at one section of a member: sigma_w and the warping shear.
 
 With the warping displacement w = phi' omega (omega the warping function about the shear
-centre, zero mean: :attr:`TorsionProperties.omega`), the warping normal stress is
+centre, zero mean: :attr:`warpwise.properties.torsion.TorsionProperties.omega`), the warping normal stress is
 
     sigma_w = E omega phi'' = -B omega / Cw        (B = -E Cw phi'', the bimoment)
 
