@@ -48,7 +48,7 @@ def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -
 def _loads(args: argparse.Namespace) -> Loads:
     """The loads as given, in the report's unit system."""
     return Loads(N=args.axial, Mx=args.moment_x, My=args.moment_y, Vx=args.shear_x,
-                 Vy=args.shear_y, T=args.torque)
+                 Vy=args.shear_y, T=args.torque, B=args.bimoment)
 
 
 def _given_modulus(args: argparse.Namespace) -> float | None:
@@ -136,8 +136,8 @@ def _table_units(records: list[Record], chosen: str | None) -> str:
 def run_stress(args: argparse.Namespace) -> int:
     """``warpwise stress``: stresses for a torque, shear forces, axial force and moments."""
     if not any(_loads(args).__dict__.values()):
-        raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
-                         "and/or --moment-y")
+        raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x, "
+                         "--moment-y and/or --bimoment")
     _given_modulus(args)  # a bad modulus is refused before the analysis
     result = _analyse_file(args.file, args, bounds=False)
     _warn([record_of(result)])
@@ -147,7 +147,7 @@ def run_stress(args: argparse.Namespace) -> int:
         raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
                          "or E with Poisson's ratio")
     units = args.report_units
-    if result.composite or loads.N or loads.Mx or loads.My:
+    if result.composite or loads.N or loads.Mx or loads.My or loads.B:
         c = combined_stress(result, loads, G)
         text = combined_json(args.file, result, c, G, units) if args.json else \
             combined_text(args.file, result, c, units)

@@ -145,7 +145,9 @@ def _load_options(p: argparse.ArgumentParser) -> None:
             ("--shear-y", "VY", "shear force along y through the shear centre (N with mm)"),
             ("--axial", "N", "axial force through the (modulus-weighted) centroid, tension positive"),
             ("--moment-x", "MX", "bending moment about the x axis, positive when it puts +y in tension"),
-            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension")):
+            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension"),
+            ("--bimoment", "B", "bimoment -E Cw phi'', force x length^2 (N*mm2 with mm): adds the "
+                                "warping normal stress -B omega / Cw")):
         p.add_argument(flag, type=finite_float, default=0.0, metavar=meta, help=text)
 
 

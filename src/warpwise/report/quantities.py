@@ -12,6 +12,7 @@ from typing import Any
 
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
+from ..properties.torsion import cw_round_off
 from ..units import ANGLE, AREA, DENSITY, FORCE, LINEAR_MASS, STRESS, Dimension, system
 
 
@@ -233,8 +234,8 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
              **dict.fromkeys(("xs", "ys", "xse", "yse", "beta_1", "beta_2"), SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
              "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
-             "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
-             "ECw": omega_tiny**2 * area * abs(out["E_ref"])}
+             "omega_max": omega_tiny, "Cw": cw_round_off(size, area),
+             "ECw": cw_round_off(size, area) * abs(out["E_ref"])}
     for key, tiny in scale.items():
         if abs(out[key]) < tiny:  # nan (not computed) stays nan
             out[key] = 0.0

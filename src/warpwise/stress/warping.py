@@ -27,6 +27,7 @@ import numpy as np
 from ..errors import UsageError
 from ..fem.p2 import assemble_vector, interpolate, nodal_gradient
 from ..properties.analysis import SectionResult
+from ..properties.torsion import cw_round_off
 
 
 @dataclass(frozen=True, eq=False)
@@ -65,6 +66,31 @@ def secondary_warping(result: SectionResult) -> np.ndarray:
     return result.solver.solve(-f)
 
 
+def warping_normal_stress(result: SectionResult, B: float) -> np.ndarray:
+    """Warping normal stress sigma_w = -B omega / Cw at the nodes (n,), F/L^2.
+
+    Parameters
+    ----------
+    result : SectionResult
+        The analysed section (one material, Cw > 0).
+    B : float
+        Bimoment -E Cw phi'', F*L^2.
+
+    Raises
+    ------
+    UsageError
+        For a composite section or a section without a warping constant (Cw = 0).
+    """
+    if result.composite:
+        raise UsageError("warping stresses of a composite section are not computed",
+                         file=result.profile.source)
+    Cw = result.torsion.Cw
+    if not Cw > cw_round_off(result.profile.size, result.geometric.A):
+        raise UsageError("the section has no warping constant (Cw = 0): no warping stresses",
+                         file=result.profile.source)
+    return -B * result.torsion.omega / Cw
+
+
 def warping_stress(result: SectionResult, B: float, T_w: float, E: float) -> WarpingStress:
     """Warping normal and shear stresses of a bimoment and a warping torque.
 
@@ -83,13 +109,12 @@ def warping_stress(result: SectionResult, B: float, T_w: float, E: float) -> War
     -------
     WarpingStress
     """
+    if not E > 0:
+        raise UsageError(f"Young's modulus must be positive, got {E}", file=result.profile.source)
+    sigma = warping_normal_stress(result, B)
     Cw = result.torsion.Cw
-    if not Cw > 0 or not E > 0:
-        raise UsageError("the section has no warping constant (Cw = 0): no warping stresses",
-                         file=result.profile.source)
-    sigma = -B * result.torsion.omega / Cw
     grad = nodal_gradient(result.mesh, secondary_warping(result)) * (T_w / Cw)
     return WarpingStress(sigma=sigma, tau_zx=grad[:, 0], tau_zy=grad[:, 1])
 
 
-__all__ = ["WarpingStress", "secondary_warping", "warping_stress"]
+__all__ = ["WarpingStress", "secondary_warping", "warping_normal_stress", "warping_stress"]
