@@ -32,7 +32,7 @@ from .bounds import prandtl_lower_bound
 from .geometric import GeometricProperties, geometric_properties
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
-from .torsion import TorsionProperties, torsion_load, torsion_properties
+from .torsion import TorsionProperties, cw_round_off, torsion_load, torsion_properties
 
 #: Largest relative residual accepted from a linear solve before the result is refused.
 MAX_RESIDUAL = 1e-8
@@ -162,6 +162,11 @@ class SectionResult:
     def units(self) -> str:
         """Length unit of all results."""
         return self.profile.units
+
+    @property
+    def cw_round_off(self) -> float:
+        """Warping constant below which Cw is round-off of 0 (a circle, a tube), L^6."""
+        return cw_round_off(self.profile.size, self.geometric.A)
 
     @property
     def values(self) -> ElementValues:

@@ -18,6 +18,6 @@ from .shear import (
     torsion_stress,
 )
 
-__all__ = ["BIMOMENT", "CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak", "MaterialStress",
-           "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
+__all__ = ["BIMOMENT", "CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak",
+           "MaterialStress", "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
            "shear_stress", "torsion_stress"]

@@ -27,7 +27,6 @@ import numpy as np
 from ..errors import UsageError
 from ..fem.p2 import assemble_vector, interpolate, nodal_gradient
 from ..properties.analysis import SectionResult
-from ..properties.torsion import cw_round_off
 
 
 @dataclass(frozen=True, eq=False)
@@ -85,7 +84,7 @@ def warping_normal_stress(result: SectionResult, B: float) -> np.ndarray:
         raise UsageError("warping stresses of a composite section are not computed",
                          file=result.profile.source)
     Cw = result.torsion.Cw
-    if not Cw > cw_round_off(result.profile.size, result.geometric.A):
+    if not Cw > result.cw_round_off:
         raise UsageError("the section has no warping constant (Cw = 0): no warping stresses",
                          file=result.profile.source)
     return -B * result.torsion.omega / Cw
