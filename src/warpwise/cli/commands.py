@@ -27,6 +27,7 @@ from ..report.outputs import STDOUT, Output, check_outputs, is_stdout, staged_fo
 from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
+from ..stress.member_stress import governing_stresses
 from ..stress.recovery import reference_shear_modulus
 from ..units import FORCE, LENGTH, MOMENT, STRESS, convert
 from .options import analysis_options, build_parser, read_options
@@ -302,8 +303,9 @@ def run_member(args: argparse.Namespace) -> int:
     member = solve_member(length, record.values["GJ"], record.values["ECw"], args.ends, loads)
     at = member.actions(stations(member, args.stations))
     top = extremes(member)
+    sections = governing_stresses(result, member, top)
     text = (member_json if args.json else member_text)(args.file, member, at, top,
-                                                       args.report_units, result.units)
+                                                       args.report_units, result.units, sections)
     if args.plot:
         from ..report.plot_files import save_figure
         from ..report.plot_member import figure_member

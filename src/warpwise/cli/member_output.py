@@ -8,14 +8,15 @@ from __future__ import annotations
 
 import csv
 import io
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
 from ..member import END_TEXT, QUANTITIES, Extreme, MemberActions, MemberTorsion
 from ..report.files import standard_json
 from ..report.table import CAUTION, format_value
-from ..units import FORCE, LENGTH, MOMENT, NUMBER, Converter, Dimension
+from ..stress.member_stress import SectionStresses
+from ..units import FORCE, LENGTH, MOMENT, NUMBER, STRESS, Converter, Dimension
 
 #: Dimension of each quantity along a member (phi in rad: a number).
 DIMENSIONS = {"z": LENGTH, "phi": NUMBER, "phi1": Dimension(-1), "phi2": Dimension(-2),
@@ -91,8 +92,68 @@ def _header(file: str, m: MemberTorsion, v: MemberView) -> list[str]:
     return lines
 
 
+#: What governs each section of the stress table.
+GOVERNS = {"B": "|B|", "T_w": "|T_w|", "T_sv": "|T_sv|"}
+
+
+def _cleaned_sections(sections: list[SectionStresses], top: list[Extreme]) -> list[SectionStresses]:
+    """B, T_w, T_sv that are round-off of 0 (:data:`ROUND_OFF`) set to 0 with their stress."""
+    largest = {e.name: abs(e.value) for e in top}
+    out = []
+    for s in sections:
+        change = {}
+        for name, stress in (("B", "sigma_w"), ("T_w", "tau_w"), ("T_sv", "tau_sv")):
+            if abs(getattr(s, name)) < ROUND_OFF * largest[name]:
+                change |= {name: 0.0, f"{stress}_at": None,
+                           stress: None if getattr(s, stress) is None else 0.0}
+        out.append(replace(s, **change))
+    return out
+
+
+def _stress_lines(v: MemberView, sections: list[SectionStresses]) -> list[str]:
+    """The largest torsion stresses at the governing sections, in the report's units."""
+    show, L = v.show, v.show.system.length
+    stress = show.unit(STRESS)
+
+    def where(xy) -> str:
+        if xy is None:
+            return ""
+        x, y = show.point(xy)
+        return f" at ({format_value(x)}, {format_value(y)}) {L}"
+
+    lines = ["", "  largest stresses at the governing sections (away from sharp corners; each "
+                 "at its own point)"]
+    for s in sections:
+        lines.append(f"  where {GOVERNS[s.governs]} is largest, z = {format_value(v(s.z, 'z'))} "
+                     f"{L}: B {format_value(v(s.B, 'B'))} {v.unit('B')}, T_w "
+                     f"{format_value(v(s.T_w, 'T_w'))} {v.unit('T_w')}, T_sv "
+                     f"{format_value(v(s.T_sv, 'T_sv'))} {v.unit('T_sv')}")
+        for label, sym, val, xy in (
+                ("warping normal stress -B omega/Cw", "sigma_w", s.sigma_w, s.sigma_w_at),
+                ("warping shear stress", "tau_w", s.tau_w, s.tau_w_at),
+                ("Saint-Venant shear stress", "tau_sv", s.tau_sv, s.tau_sv_at)):
+            if val is not None:
+                lines.append(f"    {label:<34} {sym:<7} {format_value(show(val, STRESS)):>14}  "
+                             f"{stress}{where(xy)}")
+    return lines
+
+
+def _stress_json(v: MemberView, sections: list[SectionStresses]) -> list[dict]:
+    show = v.show
+
+    def point(xy):
+        return None if xy is None else show.point(xy)
+
+    return [{"governs": s.governs, "z": v(s.z, "z"), "B": v(s.B, "B"), "T_w": v(s.T_w, "T_w"),
+             "T_sv": v(s.T_sv, "T_sv"), "sigma_w": show(s.sigma_w, STRESS),
+             "sigma_w_at": point(s.sigma_w_at), "tau_w": show(s.tau_w, STRESS),
+             "tau_w_at": point(s.tau_w_at), "tau_sv": show(s.tau_sv, STRESS),
+             "tau_sv_at": point(s.tau_sv_at)} for s in sections]
+
+
 def member_text(file: str, m: MemberTorsion, at: MemberActions, top: list[Extreme],
-                units: str | None, source: str) -> str:
+                units: str | None, source: str,
+                sections: list[SectionStresses] | None = None) -> str:
     """Readable report of a member: the loads, values at stations, the largest values."""
     v = MemberView(Converter.of(source, units))
     names = ["z", *[n for n, _ in QUANTITIES]]
@@ -111,12 +172,14 @@ def member_text(file: str, m: MemberTorsion, at: MemberActions, top: list[Extrem
         lines.append(f"  {MEANING[e.name]:<34} {sym[e.name]:<7} "
                      f"{format_value(v(e.value, e.name)):>14}  {v.unit(e.name):<9} at z = "
                      f"{format_value(v(e.z, 'z'))} {v.unit('z')}")
+    lines += _stress_lines(v, _cleaned_sections(sections or [], top))
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)
 
 
 def member_json(file: str, m: MemberTorsion, at: MemberActions, top: list[Extreme],
-                units: str | None, source: str) -> str:
+                units: str | None, source: str,
+                sections: list[SectionStresses] | None = None) -> str:
     """JSON of a member (see :func:`member_text`), in the report's units."""
     v = MemberView(Converter.of(source, units))
     names = ["z", *[n for n, _ in QUANTITIES]]
@@ -129,7 +192,8 @@ def member_json(file: str, m: MemberTorsion, at: MemberActions, top: list[Extrem
            "a": None if m.saint_venant_only else v(m.a, "z"),
            "stations": {n: [float(x) for x in v(getattr(at, n), n)] for n in names},
            "largest": [{"quantity": e.name, "value": v(e.value, e.name), "z": v(e.z, "z")}
-                       for e in top]}
+                       for e in top],
+           "stress": v.show.unit(STRESS), "governing_sections": _stress_json(v, _cleaned_sections(sections or [], top))}
     return standard_json(obj, file=file)
 
 
