@@ -193,7 +193,8 @@ def member_json(file: str, m: MemberTorsion, at: MemberActions, top: list[Extrem
            "stations": {n: [float(x) for x in v(getattr(at, n), n)] for n in names},
            "largest": [{"quantity": e.name, "value": v(e.value, e.name), "z": v(e.z, "z")}
                        for e in top],
-           "stress": v.show.unit(STRESS), "governing_sections": _stress_json(v, _cleaned_sections(sections or [], top))}
+           "stress": v.show.unit(STRESS),
+           "governing_sections": _stress_json(v, _cleaned_sections(sections or [], top))}
     return standard_json(obj, file=file)
 
 
