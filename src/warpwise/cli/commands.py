@@ -10,12 +10,15 @@ from collections.abc import Sequence
 from dataclasses import replace
 from pathlib import Path
 
+import numpy as np
+
 from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue, usable_cpus, worker_count
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
 from ..io.progress import bar
 from ..materials import check_plausible
+from ..member import MemberLoads, check_member, extremes, solve_member, stations
 from ..properties.about_axis import axis_properties
 from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
@@ -27,9 +30,10 @@ from ..report.table import property_table
 from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
 from ..stress.case_results import case_results
 from ..stress.cases import read_load_cases
+from ..stress.member_stress import governing_stresses
 from ..stress.points import normal_extremes, stress_at_points
 from ..stress.recovery import reference_shear_modulus
-from ..units import STRESS, Converter, convert, system
+from ..units import FORCE, LENGTH, MOMENT, STRESS, Converter, convert, system
 from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
 from .case_output import cases_csv, cases_json, cases_text
 from .options import analysis_options, build_parser, read_options
@@ -51,7 +55,7 @@ def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -
 def _loads(args: argparse.Namespace) -> Loads:
     """The loads as given, in the report's unit system."""
     return Loads(N=args.axial, Mx=args.moment_x, My=args.moment_y, Vx=args.shear_x,
-                 Vy=args.shear_y, T=args.torque)
+                 Vy=args.shear_y, T=args.torque, B=args.bimoment)
 
 
 def _given_modulus(args: argparse.Namespace) -> float | None:
@@ -193,8 +197,8 @@ def run_stress(args: argparse.Namespace) -> int:
     if args.csv:
         raise UsageError("--csv writes the table of --load-cases: give a load-case file")
     if not any(_loads(args).__dict__.values()):
-        raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x "
-                         "and/or --moment-y")
+        raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x, "
+                         "--moment-y and/or --bimoment")
     _given_modulus(args)  # a bad modulus is refused before the analysis
     result = _analyse_file(args.file, args, bounds=False)
     _warn([record_of(result)])
@@ -204,7 +208,7 @@ def run_stress(args: argparse.Namespace) -> int:
         raise UsageError("a torque needs a material: give --material, or the shear modulus G, "
                          "or E with Poisson's ratio")
     units = args.report_units
-    if result.composite or loads.N or loads.Mx or loads.My or args.at:
+    if result.composite or loads.N or loads.Mx or loads.My or loads.B or args.at:
         c = combined_stress(result, loads, G)
         into = Converter(system(units or result.units).length, result.units)
         at = stress_at_points(result, loads, [into.point(p) for p in args.at],
@@ -339,6 +343,45 @@ def run_plot(args: argparse.Namespace) -> int:
     return 0
 
 
+def run_member(args: argparse.Namespace) -> int:
+    """``warpwise member``: torsion with restrained warping along a member."""
+    from .member_output import member_csv, member_json, member_text
+
+    if not args.point_torque and not args.distributed_torque:
+        raise UsageError("give a load: --point-torque T@Z and/or --distributed-torque M")
+    check_member(args.length, args.ends, MemberLoads(tuple(args.point_torque or ()),
+                                                     args.distributed_torque))
+    check_outputs([Output("--csv", args.csv)], _inputs(args, [args.file]))
+    _check_picture("--plot", args.plot, args, [args.file])
+    if not args.material and not args.layer_material:
+        raise UsageError("a member needs E and G: give --material (built in, or with "
+                         "--materials FILE.toml)")
+    result = _analyse_file(args.file, args, bounds=False)
+    record = record_of(result)
+    _warn([record])
+    given = args.report_units or result.units
+    length = convert(args.length, LENGTH, given, result.units)
+    torques = tuple((convert(T, MOMENT, given, result.units),
+                     convert(z, LENGTH, given, result.units)) for T, z in args.point_torque or ())
+    loads = MemberLoads(torques, convert(args.distributed_torque, FORCE, given, result.units))
+    member = solve_member(length, record.values["GJ"], record.values["ECw"], args.ends, loads)
+    at = member.actions(stations(member, args.stations))
+    top = extremes(member)
+    sections = governing_stresses(result, member, top)
+    text = (member_json if args.json else member_text)(args.file, member, at, top,
+                                                       args.report_units, result.units, sections)
+    if args.plot:
+        from ..report.plot_files import save_figure
+        from ..report.plot_member import figure_member
+
+        along = member.actions(np.union1d(np.linspace(0.0, member.length, 801), member.starts))
+        save_figure(figure_member(along, args.file, args.report_units, result.units), args.plot)
+    sys.stdout.write(text)
+    write_outputs([(args.csv, member_csv(at, top, args.report_units, result.units)
+                    if args.csv else "")])
+    return 0
+
+
 def run_shapes(args: argparse.Namespace) -> int:
     """``warpwise shapes``: the parametric profiles and their parameters."""
     sys.stdout.write(describe_shapes() + "\n")
@@ -346,7 +389,8 @@ def run_shapes(args: argparse.Namespace) -> int:
 
 
 COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
-            "catalogue": run_catalogue_command, "plot": run_plot, "shapes": run_shapes}
+            "catalogue": run_catalogue_command, "plot": run_plot, "shapes": run_shapes,
+            "member": run_member}
 
 
 def main(argv: Sequence[str] | None = None) -> int:

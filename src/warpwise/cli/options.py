@@ -15,6 +15,7 @@ from ..geometry.profile import LENGTH_UNITS
 from ..io.dxf import MAX_ENTITIES
 from ..io.options import ReadOptions
 from ..materials import BUILTIN, read_materials
+from ..member import END_TEXT, ENDS
 from ..properties.accuracy import ACCURACY_LEVELS
 from ..properties.run import AnalysisOptions
 from ..properties.shear import DEFAULT_POISSON
@@ -90,6 +91,29 @@ def layer_material(text: str) -> tuple[str, str]:
     return layer.strip(), material.strip()
 
 
+def torque_at(text: str) -> tuple[float, float]:
+    """A concentrated torque ``T@Z`` (torque, position from the end z = 0) from the command line.
+
+    Examples
+    --------
+    >>> torque_at("2e6@1500")
+    (2000000.0, 1500.0)
+    """
+    torque, sep, where = text.partition("@")
+    if not sep:
+        raise argparse.ArgumentTypeError(f"give TORQUE@POSITION, got {text!r}")
+    return finite_float(torque.strip()), finite_float(where.strip())
+
+
+def end_pair(text: str) -> tuple[str, str]:
+    """The end conditions ``START,END`` of a member from the command line."""
+    ends = tuple(e.strip() for e in text.split(","))
+    if len(ends) != 2 or any(e not in ENDS for e in ends):
+        raise argparse.ArgumentTypeError(
+            f"give two of {', '.join(ENDS)} separated by a comma, got {text!r}")
+    return ends
+
+
 def _input_options(p: argparse.ArgumentParser) -> None:
     """Mesh size, input unit and what of a DXF drawing is the profile."""
     p.add_argument("--mesh-size", type=positive_float, metavar="H",
@@ -138,7 +162,9 @@ def _load_options(p: argparse.ArgumentParser) -> None:
             ("--shear-y", "VY", "shear force along y through the shear centre (N with mm)"),
             ("--axial", "N", "axial force through the (modulus-weighted) centroid, tension positive"),
             ("--moment-x", "MX", "bending moment about the x axis, positive when it puts +y in tension"),
-            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension")):
+            ("--moment-y", "MY", "bending moment about the y axis, positive when it puts +x in tension"),
+            ("--bimoment", "B", "bimoment -E Cw phi'', force x length^2 (N*mm2 with mm): adds the "
+                                "warping normal stress -B omega / Cw")):
         p.add_argument(flag, type=finite_float, default=0.0, metavar=meta, help=text)
 
 
@@ -257,6 +283,36 @@ def _add_plot(sub: argparse._SubParsersAction) -> None:
     _analysis_options(p)
 
 
+def _add_member(sub: argparse._SubParsersAction) -> None:
+    ends = "; ".join(f"{k}: {t}" for k, t in END_TEXT.items())
+    p = sub.add_parser(
+        "member", help="twist, bimoment and warping torque along a member (restrained warping)",
+        description="Torsion of a member of the profile with restrained warping: the exact "
+                    "solution of E Cw phi'''' - G J phi'' = m for the given supports and "
+                    "torques, with phi, its derivatives, the Saint-Venant and warping torques "
+                    "and the bimoment along the member. Lengths and torques are in the "
+                    "report's unit system.")
+    p.add_argument("file", metavar="FILE", help="DXF drawing or outline file")
+    p.add_argument("--length", type=positive_float, required=True, metavar="L",
+                   help="member length")
+    p.add_argument("--ends", type=end_pair, required=True, metavar="START,END",
+                   help=f"support at z = 0 and at z = L ({ends})")
+    p.add_argument("--point-torque", type=torque_at, action="append", metavar="T@Z",
+                   help="concentrated torque T (force x length) at distance Z from the end "
+                        "z = 0 (repeat for several)")
+    p.add_argument("--distributed-torque", type=finite_float, default=0.0, metavar="M",
+                   help="uniform torque per length over the whole member (N*mm/mm with mm)")
+    p.add_argument("--stations", type=positive_int, default=11, metavar="N",
+                   help="evenly spaced stations printed, load points added (default 11)")
+    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    p.add_argument("--csv", metavar="OUT", help="also write the values at the stations to OUT")
+    p.add_argument("--plot", metavar="OUT.png",
+                   help="also draw phi and the bimoment along the member (.png, .pdf or .svg)")
+    _report_options(p, loads=True)
+    _input_options(p)
+    _analysis_options(p)
+
+
 def build_parser() -> argparse.ArgumentParser:
     """The argument parser of the ``warpwise`` command."""
     parser = _Parser(prog="warpwise", description=(
@@ -267,6 +323,7 @@ def build_parser() -> argparse.ArgumentParser:
     _add_stress(sub)
     _add_catalogue(sub)
     _add_plot(sub)
+    _add_member(sub)
     sub.add_parser("shapes", help="list the parametric profiles for --shape",
                    description="List the parametric profiles and their parameters.")
     check = sub.add_parser(

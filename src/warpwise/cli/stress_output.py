@@ -13,7 +13,7 @@ from ..properties.analysis import SectionResult
 from ..report.files import standard_json
 from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
-from ..stress import CombinedStress, ShearStress
+from ..stress import BIMOMENT, CombinedStress, ShearStress
 from ..stress.points import NormalExtremes, PointStress
 from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
 from .point_output import extreme_json, extreme_rows, point_json, point_rows
@@ -119,6 +119,9 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
         "file": file, "units": v.names(),
         "torque": v(loads.T, MOMENT), "shear_x": v(loads.Vx, FORCE), "shear_y": v(loads.Vy, FORCE),
         "axial": v(loads.N, FORCE), "moment_x": v(loads.Mx, MOMENT), "moment_y": v(loads.My, MOMENT),
+        "bimoment": v(loads.B, BIMOMENT), "Cw": v(result.torsion.Cw, Dimension(6)),
+        "sigma_w": v(c.sigma_w, STRESS),
+        "sigma_w_at": None if c.sigma_w_at is None else v.point(c.sigma_w_at),
         "shear_modulus": v(G, STRESS), "J": v(result.torsion.J, Dimension(4)),
         "shear_centre": v.point(result.torsion.shear_centre),
         "tau_max": v(max(m.tau_max for m in c.by_material), STRESS),
@@ -158,6 +161,12 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress,
              row("shear force along x", "Vx", v(loads.Vx, FORCE), force),
              row("shear force along y", "Vy", v(loads.Vy, FORCE), force),
              row("torque", "T", v(loads.T, MOMENT), moment)]
+    if loads.B:
+        x, y = v.point(c.sigma_w_at)
+        lines += [row("bimoment", "B", v(loads.B, BIMOMENT), v.unit(BIMOMENT)),
+                  row("warping constant", "Cw", v(result.torsion.Cw, Dimension(6)), f"{L}6"),
+                  row("largest warping normal stress -B omega/Cw", "sigma_w", v(c.sigma_w, STRESS),
+                      stress), f"    at ({format_value(x)}, {format_value(y)}) {L}"]
     lines += _twist_rows(row, v, c.twist_rate)
     for k, m in enumerate(c.by_material):
         x, y = v.point(m.von_mises_at)

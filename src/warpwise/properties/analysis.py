@@ -34,7 +34,7 @@ from .geometric import GeometricProperties, geometric_properties
 from .outline import Perimeters, perimeters
 from .plastic import PlasticProperties, plastic_properties
 from .shear import DEFAULT_POISSON, ShearProperties, shear_properties
-from .torsion import TorsionProperties, torsion_load, torsion_properties
+from .torsion import TorsionProperties, cw_round_off, torsion_load, torsion_properties
 from .torsion_modulus import TorsionModulus, torsion_modulus
 from .wall import WallThickness, wall_thickness
 
@@ -180,6 +180,11 @@ class SectionResult:
     def buckling(self) -> BucklingConstants:
         """Shear-centre offset and polar radius of gyration about the shear centre, L."""
         return buckling_constants(self.weighted, self.torsion)
+
+    @property
+    def cw_round_off(self) -> float:
+        """Warping constant below which Cw is round-off of 0 (a circle, a tube), L^6."""
+        return cw_round_off(self.profile.size, self.geometric.A)
 
     @property
     def values(self) -> ElementValues:

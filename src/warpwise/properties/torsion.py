@@ -23,6 +23,21 @@ from ..mesh.core import Mesh
 from .geometric import GeometricProperties
 
 
+def cw_round_off(size: float, area: float) -> float:
+    """Warping constant below which Cw is round-off of 0 (a circle, a tube), L^6.
+
+    The square of omega's round-off 1e-12 size^2 over the area (common practice, no source).
+
+    Parameters
+    ----------
+    size : float
+        The section's size, L.
+    area : float
+        Its area, L^2.
+    """
+    return (1e-12 * size**2) ** 2 * area
+
+
 @dataclass(frozen=True, eq=False)
 class TorsionProperties:
     """Saint-Venant torsion and warping results.
@@ -160,5 +175,5 @@ def wagner_constants(evc: ElementValues, geo: GeometricProperties,
     return float(beta_1), float(beta_2)
 
 
-__all__ = ["TorsionProperties", "torsion_load", "torsion_properties", "wagner_constants",
+__all__ = ["TorsionProperties", "cw_round_off", "torsion_load", "torsion_properties", "wagner_constants",
            "zero_mean"]

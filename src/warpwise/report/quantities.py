@@ -260,7 +260,7 @@ def values(result: SectionResult) -> dict[str, float]:
                     "Wpl_1": pl.Wpl_1, "Wpl_2": pl.Wpl_2, "shape_x": pl.Wpl_x / g.Wel["x"],
                     "shape_y": pl.Wpl_y / g.Wel["y"]})
     out.update(_material_values(result))
-    _zero_round_off(out, result.profile.size, g.A)
+    _zero_round_off(out, result.profile.size, result.cw_round_off)
     return {q.key: float(out[q.key]) for q in QUANTITIES}
 
 
@@ -270,11 +270,11 @@ def values(result: SectionResult) -> dict[str, float]:
 EXACT_ROUND_OFF, SOLVED_ROUND_OFF = 1e-12, 1e-9
 
 
-def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
+def _zero_round_off(out: dict[str, float], size: float, cw_tiny: float) -> None:
     """Set to 0 every value that is round-off relative to the section's size (in place).
 
     Coordinates against the size; product moments against the polar moments; omega against
-    size^2 and Cw against (size^2)^2 A, the square of omega's round-off over the area.
+    size^2 and Cw against ``cw_tiny`` (:attr:`SectionResult.cw_round_off`).
     """
     omega_tiny = EXACT_ROUND_OFF * size**2
     scale = {**dict.fromkeys(("xc", "yc", "xe", "ye", "pna_x", "pna_y", "t_min_x", "t_min_y"),
@@ -283,8 +283,8 @@ def _zero_round_off(out: dict[str, float], size: float, area: float) -> None:
                              SOLVED_ROUND_OFF * size),
              "Ixy": EXACT_ROUND_OFF * abs(out["Ix"] + out["Iy"]),
              "EIxy": EXACT_ROUND_OFF * abs(out["EIx"] + out["EIy"]),
-             "omega_max": omega_tiny, "Cw": omega_tiny**2 * area,
-             "ECw": omega_tiny**2 * area * abs(out["E_ref"])}
+             "omega_max": omega_tiny, "Cw": cw_tiny,
+             "ECw": cw_tiny * abs(out["E_ref"])}
     for key, tiny in scale.items():
         if abs(out[key]) < tiny:  # nan (not computed) stays nan
             out[key] = 0.0

@@ -2,11 +2,12 @@
 
 :mod:`.loads` (section forces, shear modulus), :mod:`.recovery` (the nodal stresses of each
 material and their maxima away from sharp corners), :mod:`.shear` (torque and shear forces),
-:mod:`.combined` (all six section forces with von Mises).
+:mod:`.combined` (all six section forces and a bimoment, with von Mises), :mod:`.warping`
+(restrained-warping stresses).
 """
 
 from .combined import CombinedStress, MaterialStress, combined_stress
-from .loads import Loads, shear_modulus
+from .loads import BIMOMENT, Loads, shear_modulus
 from .recovery import MaterialField, recover
 from .shear import (
     CornerStress,
@@ -17,6 +18,6 @@ from .shear import (
     torsion_stress,
 )
 
-__all__ = ["CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak", "MaterialStress",
-           "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
+__all__ = ["BIMOMENT", "CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak",
+           "MaterialStress", "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
            "shear_stress", "torsion_stress"]

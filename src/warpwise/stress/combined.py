@@ -4,19 +4,22 @@ The loads and their signs are those of :class:`~warpwise.stress.loads.Loads`; th
 each material come from :func:`~warpwise.stress.recovery.recover` (Navier normal stress on the
 transformed section, torsion and shear-function shear scaled by G / G_ref). Von Mises:
 sqrt(sigma^2 + 3 tau^2). Maxima leave out the singular neighbourhood of sharp re-entrant
-corners, as the torsion report does. The utilisation von Mises / fy is informative only: it is
+corners, as the torsion report does. A bimoment B adds the warping normal stress
+sigma_w = -B omega / Cw of :func:`~warpwise.stress.warping.warping_normal_stress` (one material,
+Cw > 0). The utilisation von Mises / fy is informative only: it is
 not a design-code check.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
 from ..properties.analysis import SectionResult
 from .loads import Loads
 from .recovery import MaterialField, away_from_corners, peak, recover
+from .warping import warping_normal_stress
 
 
 @dataclass(frozen=True, eq=False)
@@ -71,12 +74,19 @@ class CombinedStress:
         T / (G_ref J), radians per L (None without a shear modulus).
     excluded : list of tuple
         Sharp re-entrant corners (x, y, radius) left out of the maxima.
+    sigma_w : float or None
+        The warping normal stress of the bimoment of largest magnitude, signed, F/L^2 (None
+        without a bimoment).
+    sigma_w_at : tuple of float or None
+        Where it is, L.
     """
 
     loads: Loads
     by_material: list[MaterialStress] = field(default_factory=list)
     twist_rate: float | None = None
     excluded: list[tuple[float, float, float]] = field(default_factory=list)
+    sigma_w: float | None = None
+    sigma_w_at: tuple[float, float] | None = None
 
 
 def combined_stress(result: SectionResult, loads: Loads, G: float | None = None) -> CombinedStress:
@@ -101,7 +111,10 @@ def combined_stress(result: SectionResult, loads: Loads, G: float | None = None)
     G_ref = mats.G_ref if mats.G_ref is not None else G
     twist = None if G_ref is None else loads.T / (G_ref * result.torsion.J)
     out = []
+    warping = warping_normal_stress(result, loads.B) if loads.B else None
     for f in recover(result, loads):
+        if warping is not None:
+            f = replace(f, sigma=f.sigma + warping[f.nodes])
         keep = away_from_corners(result, f.nodes)
         sig, tau, vm = f.sigma, f.tau, f.von_mises
         vmax, at = peak(result, vm, f.nodes, keep=keep)
@@ -113,4 +126,8 @@ def combined_stress(result: SectionResult, loads: Loads, G: float | None = None)
             von_mises_max=vmax, von_mises_at=at, fy=fy,
             utilisation=None if fy is None else vmax / fy, field=f))
     excluded = [(c.x, c.y, c.radius) for c in result.corners]
-    return CombinedStress(loads, out, twist, excluded)
+    if warping is None:
+        return CombinedStress(loads, out, twist, excluded)
+    k = int(np.argmax(np.where(away_from_corners(result), np.abs(warping), -1.0)))
+    x, y = result.mesh.nodes[k]
+    return CombinedStress(loads, out, twist, excluded, float(warping[k]), (float(x), float(y)))

@@ -6,7 +6,9 @@ Loads (any subset), in the profile's unit system (N and N*mm with mm; see :mod:`
 - Mx: bending moment about the x axis, positive when it puts fibres at +y in tension;
 - My: bending moment about the y axis, positive when it puts fibres at +x in tension;
 - Vx, Vy: shear forces through the elastic shear centre;
-- T: torque about the shear centre.
+- T: torque about the shear centre;
+- B: bimoment -E Cw phi'' (force x length^2, N*mm2 with mm), the warping normal stress
+  sigma_w = -B omega / Cw of :mod:`warpwise.stress.warping`.
 
 Examples
 --------
@@ -14,7 +16,7 @@ Examples
 >>> Loads().check()
 Traceback (most recent call last):
 ...
-warpwise.errors.UsageError: no load given (N, Mx, My, Vx, Vy or T)
+warpwise.errors.UsageError: no load given (N, Mx, My, Vx, Vy, T or B)
 """
 
 from __future__ import annotations
@@ -26,7 +28,10 @@ import numpy as np
 
 from ..errors import UsageError
 from ..materials import check_poisson
-from ..units import FORCE, MOMENT, convert
+from ..units import FORCE, MOMENT, Dimension, convert
+
+#: Dimension of a bimoment: force x length^2.
+BIMOMENT = Dimension(2, 1)
 
 #: What a load needs when no material is known (the one wording, used everywhere).
 NEEDS_MATERIAL = "a torque needs a material: give the shear modulus G, or E with Poisson's ratio"
@@ -46,6 +51,8 @@ class Loads:
         Shear forces through the shear centre, F.
     T : float
         Torque, F*L.
+    B : float
+        Bimoment -E Cw phi'', F*L^2.
     """
 
     N: float = 0.0
@@ -54,6 +61,7 @@ class Loads:
     Vx: float = 0.0
     Vy: float = 0.0
     T: float = 0.0
+    B: float = 0.0
 
     @classmethod
     def of(cls, loads: Loads | Mapping[str, float]) -> Loads:
@@ -62,7 +70,7 @@ class Loads:
             return loads
         unknown = set(loads) - {f.name for f in fields(cls)}
         if unknown:
-            raise UsageError(f"unknown load {sorted(unknown)[0]!r} (use N, Mx, My, Vx, Vy, T)")
+            raise UsageError(f"unknown load {sorted(unknown)[0]!r} (use N, Mx, My, Vx, Vy, T, B)")
         return cls(**{k: float(v) for k, v in loads.items()})
 
     def converted(self, source: str, target: str) -> Loads:
@@ -70,8 +78,8 @@ class Loads:
 
         Examples
         --------
-        >>> Loads(T=1.0, Vx=1.0).converted("cm", "mm")  # kN*cm, kN to N*mm, N
-        Loads(N=0.0, Mx=0.0, My=0.0, Vx=1000.0, Vy=0.0, T=10000.0)
+        >>> Loads(T=1.0, Vx=1.0, B=1.0).converted("cm", "mm")  # kN*cm2 to N*mm2
+        Loads(N=0.0, Mx=0.0, My=0.0, Vx=1000.0, Vy=0.0, T=10000.0, B=100000.0)
         """
         def force(v: float) -> float:
             return convert(v, FORCE, source, target)
@@ -80,7 +88,8 @@ class Loads:
             return convert(v, MOMENT, source, target)
 
         return Loads(N=force(self.N), Mx=moment(self.Mx), My=moment(self.My),
-                     Vx=force(self.Vx), Vy=force(self.Vy), T=moment(self.T))
+                     Vx=force(self.Vx), Vy=force(self.Vy), T=moment(self.T),
+                     B=convert(self.B, BIMOMENT, source, target))
 
     def check(self) -> None:
         """Raise a UsageError for a non-finite load or no load at all."""
@@ -89,7 +98,7 @@ class Loads:
             if not np.isfinite(v):
                 raise UsageError(f"load {f.name} must be a finite number, got {v}")
         if not any(getattr(self, f.name) for f in fields(self)):
-            raise UsageError("no load given (N, Mx, My, Vx, Vy or T)")
+            raise UsageError("no load given (N, Mx, My, Vx, Vy, T or B)")
 
 
 def shear_modulus(
