@@ -264,10 +264,20 @@ def parts_note(number: int | None, count: int) -> str | None:
 
     Examples
     --------
-    >>> parts_note(2, 3), parts_note(None, 3), parts_note(None, 1)
-    ('part 2 of 3', 'all 3 parts analysed as one section', None)
+    >>> parts_note(2, 3), parts_note(None, 1)
+    ('part 2 of 3', None)
+    >>> print(parts_note(None, 3))  # doctest: +NORMALIZE_WHITESPACE
+    all 3 parts analysed as one section: J is the sum of the parts' J; the shear centre and Cw
+    take the parts as kept in shape in their plane (by end plates or diaphragms) and free to
+    slide along each other; shear areas and the elastic shear centre are not computed (they need
+    the parts joined along the bar)
 
     """
     if number is not None:
         return f"part {number} of {count}"
-    return f"all {count} parts analysed as one section" if count > 1 else None
+    if count < 2:
+        return None
+    return (f"all {count} parts analysed as one section: J is the sum of the parts' J; the shear "
+            "centre and Cw take the parts as kept in shape in their plane (by end plates or "
+            "diaphragms) and free to slide along each other; shear areas and the elastic shear "
+            "centre are not computed (they need the parts joined along the bar)")

@@ -22,6 +22,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import UsageError
 from ..fem.p2 import nodal_gradient
 from ..properties.analysis import SectionResult
 from ..properties.shear import bending_gradients, split_field
@@ -85,6 +86,10 @@ def _shear_vector(result: SectionResult, loads: Loads, mask: np.ndarray, nodes: 
         out += (loads.T / result.torsion.J) * np.column_stack([g[:, 0] - local[:, 1],
                                                                g[:, 1] + local[:, 0]])
     if loads.Vx or loads.Vy:
+        if result.solver.n_parts > 1:
+            raise UsageError(f"shear forces on {result.solver.n_parts} separate parts taken as one "
+                             "section are not computed (the parts would need joining along the "
+                             "bar): analyse one part with --part N", file=result.profile.source)
         theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
         a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
         out += nodal_gradient(mesh, theta, mask)[nodes] - split_field(local, a, b, c)
