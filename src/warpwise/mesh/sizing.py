@@ -9,9 +9,11 @@ from __future__ import annotations
 
 import numpy as np
 import shapely
+from scipy.spatial import cKDTree
 
 from ..errors import ProfileError
 from ..geometry.profile import Profile, default_element_size
+from ..geometry.rays import first_hits
 
 #: Elements through the local wall thickness at the boundary (at least two).
 ELEMENTS_ACROSS_WALL = 2.5
@@ -108,31 +110,16 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
     shapely.prepare(union)
     thickness = np.full(len(a), 2.0 * size)
     eps = 1e-7 * size
-    seg_lines = shapely.linestrings(np.stack([seg_a, seg_b], axis=1))
-    tree = shapely.STRtree(seg_lines)
-    reach = 2.0 * size
+    tree = shapely.STRtree(shapely.linestrings(np.stack([seg_a, seg_b], axis=1)))
     for sign in (1.0, -1.0):
         nvec = sign * normal
         inside = shapely.contains_xy(union, mid[:, 0] + eps * nvec[:, 0], mid[:, 1] + eps * nvec[:, 1])
         rays = np.flatnonzero(inside)
         if rays.size == 0:
             continue
-        start = mid[rays] + eps * nvec[rays]
-        end = mid[rays] + reach * nvec[rays]
-        lines = shapely.linestrings(np.stack([start, end], axis=1))
-        ray_i, seg_j = tree.query(lines, predicate="intersects")
-        r = rays[ray_i]
-        # ray p + t n against segment q + s e: solve the 2x2 system for t
-        p, n = mid[r], nvec[r]
-        q, e = seg_a[seg_j], seg_b[seg_j] - seg_a[seg_j]
-        det = n[:, 0] * (-e[:, 1]) + e[:, 0] * n[:, 1]
-        ok = np.abs(det) > 1e-300
-        w = q - p
-        t = np.where(ok, (w[:, 0] * (-e[:, 1]) + e[:, 0] * w[:, 1]) / np.where(ok, det, 1.0), np.inf)
-        t = np.where(t > 2 * eps, t, np.inf)
-        best = np.full(len(a), np.inf)
-        np.minimum.at(best, r, t)
-        thickness = np.minimum(thickness, best)
+        best = first_hits(seg_a, seg_b, mid[rays], nvec[rays], reach=2.0 * size, start=eps,
+                          t_min=2 * eps, tree=tree)
+        thickness[rays] = np.minimum(thickness[rays], best)
     return thickness
 
 
@@ -158,6 +145,40 @@ def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple[
     return np.vstack([p, new_pts]), np.column_stack([chain[t], chain[t + 1]])
 
 
+#: Nearest corners looked at first for each point by :func:`corner_target` (more where needed).
+CORNERS_NEAR = 8
+
+
+def corner_target(tree: cKDTree, h_corner: np.ndarray, grade: float, points: np.ndarray) -> np.ndarray:
+    """Exact min over corners k of h_k + grade * |point - corner k| at each point, drawing unit.
+
+    The nearest :data:`CORNERS_NEAR` corners (a k-d tree over the corners) give a candidate
+    minimum m; a corner further than (m - min h) / grade cannot do better, so the points whose
+    nearest corners do not reach that far are asked again with twice as many, until every
+    minimum is exact. Memory and time grow with the points times a few corners, not times all.
+
+    Examples
+    --------
+    >>> corners = np.array([[0.0, 0.0], [10.0, 0.0]])
+    >>> corner_target(cKDTree(corners), np.array([1.0, 0.1]), 0.5, np.array([[4.0, 0.0]])).tolist()
+    [3.0]
+    """
+    n_corners = len(h_corner)
+    out = np.empty(len(points))
+    todo = np.arange(len(points))
+    k = min(CORNERS_NEAR, n_corners)
+    h_min = float(h_corner.min())
+    while len(todo):
+        d, i = tree.query(points[todo], k=k)
+        d, i = d.reshape(len(todo), -1), i.reshape(len(todo), -1)
+        best = (h_corner[i] + grade * d).min(axis=1)
+        exact = (k == n_corners) | (d[:, -1] * grade >= best - h_min)
+        out[todo[exact]] = best[exact]
+        todo = todo[~exact]
+        k = min(2 * k, n_corners)
+    return out
+
+
 def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_corner: np.ndarray,
                       grade: float) -> tuple[np.ndarray, np.ndarray]:
     """Bisect boundary segments until each is shorter than h_c + grade * (distance to corner).
@@ -175,11 +196,11 @@ def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_co
     """
     if len(corners) == 0:
         return pts, sub
+    tree = cKDTree(corners)
     for _ in range(60):
         a, b = pts[sub[:, 0]], pts[sub[:, 1]]
         mid = 0.5 * (a + b)
-        d = np.linalg.norm(mid[:, None, :] - corners[None, :, :], axis=2)  # (s, k), k is small
-        target = (h_corner[None, :] + grade * d).min(axis=1)
+        target = corner_target(tree, h_corner, grade, mid)
         split = np.linalg.norm(b - a, axis=1) > target
         if not split.any():
             break
