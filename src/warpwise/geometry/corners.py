@@ -135,7 +135,7 @@ def exclusion_radii(profile: Profile, corners: np.ndarray) -> np.ndarray:
     seg_b = np.concatenate([c[1:] for c in xy])
     t = np.full(len(origin), np.inf)
     t[inside] = first_hits(seg_a, seg_b, origin[inside], direction[inside], reach=2.0 * size,
-                           start=1e-6 * size)
+                           start=1e-6 * size, first=1.0 / 256.0)
     depth = np.minimum(t.reshape(len(corners), len(d)).min(axis=1), size)
     return EXCLUSION_FRACTION * depth
 

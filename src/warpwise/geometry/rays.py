@@ -21,15 +21,15 @@ from __future__ import annotations
 import numpy as np
 import shapely
 
-#: First reach of the rays, as a fraction of the longest reach.
-FIRST_REACH = 1.0 / 256.0
+#: First reach of the rays, as a fraction of the longest reach (default).
+FIRST_REACH = 1.0 / 16.0
 #: Growth of the reach from one round to the next.
 REACH_GROWTH = 4.0
 
 
 def first_hits(seg_a: np.ndarray, seg_b: np.ndarray, origin: np.ndarray, direction: np.ndarray, *,
                reach: float, start: float = 0.0, t_min: float = 0.0,
-               tree: shapely.STRtree | None = None) -> np.ndarray:
+               tree: shapely.STRtree | None = None, first: float = FIRST_REACH) -> np.ndarray:
     """Distance along each ray to the first boundary segment it meets, drawing unit.
 
     Parameters
@@ -48,6 +48,9 @@ def first_hits(seg_a: np.ndarray, seg_b: np.ndarray, origin: np.ndarray, directi
         Hits at distances up to this are ignored.
     tree : shapely.STRtree, optional
         A tree of the segments as line strings, when the caller has one.
+    first : float
+        Reach of the first round as a fraction of ``reach`` (smaller when most rays are
+        expected to stop far short of ``reach``).
 
     Returns
     -------
@@ -59,7 +62,7 @@ def first_hits(seg_a: np.ndarray, seg_b: np.ndarray, origin: np.ndarray, directi
         tree = shapely.STRtree(shapely.linestrings(np.stack([seg_a, seg_b], axis=1)))
     out = np.full(len(origin), np.inf)
     todo = np.arange(len(origin))
-    length = reach * FIRST_REACH
+    length = reach * first
     while len(todo):
         length = min(length, reach)
         p, n = origin[todo], direction[todo]

@@ -36,7 +36,8 @@ def _dxf_reader(path: str | Path, options: ReadOptions) -> Profile:
 
 def _outline_reader(path: str | Path, options: ReadOptions) -> Profile:
     refuse_dxf_options(path, options)
-    return read_outline(path, options.units, part=options.part, all_parts=options.all_parts)
+    return read_outline(path, options.units, part=options.part, all_parts=options.all_parts,
+                        mesh_size=options.mesh_size)
 
 
 #: File ending (lower case) -> the reader of such files.

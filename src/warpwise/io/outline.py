@@ -45,7 +45,9 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import InputFileError, UsageError
-from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
+from ..geometry.loops import signed_area
+from ..geometry.profile import LENGTH_UNITS, Profile, default_element_size, profile_from_loops
+from ..geometry.simplify import simplify_dense_loops
 from ..textfiles import PLAIN
 from .files import MAX_FILE_BYTES, check_assumed_size, decode_text, read_input
 from .nesting import choose_part, nest_loops, parts_note, separate_parts_error
@@ -121,7 +123,7 @@ def _is_header(line: str) -> bool:
 
 def parse_outline(text: str, *, source: str = "<text>", units: str | None = None,
                   part: int | None = None, all_parts: bool = False,
-                  encoding: str = PLAIN) -> Profile:
+                  encoding: str = PLAIN, mesh_size: float | None = None) -> Profile:
     """Parse outline text into a validated profile.
 
     Parameters
@@ -139,6 +141,10 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
         Analyse every separate part together as one section.
     encoding : str
         The encoding the text was read in (named in a note unless plain UTF-8).
+    mesh_size : float, optional
+        The mesh size the profile is for, drawing unit (default from the area): a traced loop
+        of far more vertices than that size resolves is simplified under a tolerance well
+        below it, with a note (:func:`warpwise.geometry.simplify.simplify_dense_loops`).
 
     Returns
     -------
@@ -208,6 +214,9 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     chosen = units or file_units or "mm"
     if not (units or file_units):
         notes.append("length unit not given: millimetres assumed")
+    largest = max(abs(signed_area(lp)) for lp in loops)
+    loops, simplified = simplify_dense_loops(loops, mesh_size or default_element_size(largest), chosen)
+    notes += simplified
     if all(m is None for m in materials):
         materials = None
     elif any(m is None for m in materials):
@@ -256,7 +265,7 @@ def _coordinate(line: str, number: int, source: str, first: bool) -> tuple[float
 
 
 def read_outline(path: str | Path, units: str | None = None, *, part: int | None = None,
-                 all_parts: bool = False) -> Profile:
+                 all_parts: bool = False, mesh_size: float | None = None) -> Profile:
     """Read a coordinate outline file into a validated profile.
 
     Parameters
@@ -269,6 +278,8 @@ def read_outline(path: str | Path, units: str | None = None, *, part: int | None
         Of several separate parts, analyse this one (1-based, largest area first).
     all_parts : bool
         Analyse every separate part together as one section.
+    mesh_size : float, optional
+        The mesh size the profile is for, drawing unit (see :func:`parse_outline`).
 
     Returns
     -------
@@ -277,7 +288,7 @@ def read_outline(path: str | Path, units: str | None = None, *, part: int | None
     """
     text, encoding = _decoded(path)
     return parse_outline(text, source=str(path), units=units, part=part, all_parts=all_parts,
-                         encoding=encoding)
+                         encoding=encoding, mesh_size=mesh_size)
 
 
 def refuse_dxf_options(path: str | Path, options: ReadOptions) -> None:

@@ -25,6 +25,11 @@ CORNER_GRADING = 0.3
 MIN_SIZE_FRACTION = 1e-3
 #: Largest number of boundary points before meshing is refused.
 MAX_BOUNDARY_POINTS = 400_000
+#: Largest number of elements a mesh may have before meshing is refused.
+MAX_ELEMENTS = 4_000_000
+#: Triangles of a graded mesh per boundary point, for the estimate before meshing (measured on
+#: plates with many small polygonal holes: 6.4 to 6.5; scripts/bench_limits.py).
+TRIANGLES_PER_BOUNDARY_POINT = 6.5
 
 
 def default_size(profile: Profile) -> float:
@@ -80,7 +85,7 @@ def _split_at_t_junctions(p: np.ndarray, seg: np.ndarray, tol: float) -> np.ndar
 
 
 def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.ndarray,
-                   seg_b: np.ndarray) -> np.ndarray:
+                   seg_b: np.ndarray, reach: float | None = None) -> np.ndarray:
     """Local material thickness seen from the midpoints of segments (a, b).
 
     A ray leaves each midpoint along each normal that points into the material and stops at
@@ -94,11 +99,14 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
         End points (k, 2) of the segments to measure from, drawing unit.
     seg_a, seg_b : numpy.ndarray
         End points (M, 2) of all boundary segments, drawing unit.
+    reach : float, optional
+        Look no further than this (a thicker wall does not change the mesh), drawing unit;
+        default twice the profile size.
 
     Returns
     -------
     numpy.ndarray
-        Thickness (k,), drawing unit; the profile size where no wall is found.
+        Thickness (k,), drawing unit; ``reach`` where no wall is found within it.
 
     """
     size = profile.size
@@ -108,7 +116,8 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
     normal = np.column_stack([-d[:, 1], d[:, 0]]) / np.maximum(length, 1e-300)[:, None]
     union = profile.geometry()
     shapely.prepare(union)
-    thickness = np.full(len(a), 2.0 * size)
+    reach = 2.0 * size if reach is None else min(float(reach), 2.0 * size)
+    thickness = np.full(len(a), reach)
     eps = 1e-7 * size
     tree = shapely.STRtree(shapely.linestrings(np.stack([seg_a, seg_b], axis=1)))
     for sign in (1.0, -1.0):
@@ -117,7 +126,7 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
         rays = np.flatnonzero(inside)
         if rays.size == 0:
             continue
-        best = first_hits(seg_a, seg_b, mid[rays], nvec[rays], reach=2.0 * size, start=eps,
+        best = first_hits(seg_a, seg_b, mid[rays], nvec[rays], reach=reach, start=eps,
                           t_min=2 * eps, tree=tree)
         thickness[rays] = np.minimum(thickness[rays], best)
     return thickness
@@ -198,6 +207,8 @@ def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_co
         return pts, sub
     tree = cKDTree(corners)
     for _ in range(60):
+        if len(pts) > MAX_BOUNDARY_POINTS:
+            break  # refused by the caller, naming the count reached
         a, b = pts[sub[:, 0]], pts[sub[:, 1]]
         mid = 0.5 * (a + b)
         target = corner_target(tree, h_corner, grade, mid)
