@@ -88,8 +88,8 @@ def zero_mean(mesh: Mesh, evc: ElementValues, nodal: np.ndarray, area: float,
               weight: np.ndarray | None = None, parts: np.ndarray | None = None) -> np.ndarray:
     """Shift a nodal field so that its (weighted) integral over the section is zero.
 
-    With ``parts`` (the connected part of each node, from
-    :attr:`~warpwise.fem.solve.PinnedSolver.labels`), each part is shifted by its own constant
+    With ``parts`` (the connected part of each node, the ``labels`` of
+    :class:`~warpwise.fem.solve.PinnedSolver`), each part is shifted by its own constant
     so that the integral over each part is zero; ``area`` is then not used.
     """
     if parts is None or not len(parts) or parts.max() == 0:
