@@ -125,6 +125,49 @@ def spline_20k_fit_points(folder: Path) -> list[str]:
 # --- outlines, parts and meshes ------------------------------------------------------------------
 
 
+def _loop_text(points) -> str:
+    return "\n".join(f"{x:.9g} {y:.9g}" for x, y in points) + "\n"
+
+
+def _circle(cx: float, cy: float, r: float, n: int):
+    import numpy as np
+
+    t = np.linspace(0.0, 2.0 * np.pi, n, endpoint=False)
+    return np.column_stack([cx + r * np.cos(t), cy + r * np.sin(t)])
+
+
+@case
+def plate_with_10000_holes(folder: Path) -> list[str]:
+    """A 1000 x 1000 mm plate with a 100 x 100 grid of 2 mm holes (12-gons)."""
+    f = folder / "holes.txt"
+    loops = [[(0, 0), (1000, 0), (1000, 1000), (0, 1000)]]
+    loops += [_circle(5 + 10 * i, 5 + 10 * j, 1.0, 12) for i in range(100) for j in range(100)]
+    f.write_text("units: mm\n" + "\n".join(_loop_text(lp) for lp in loops))
+    return ["props", str(f)]
+
+
+@case
+def traced_outline_200000(folder: Path) -> list[str]:
+    """A wavy disc of radius 100 mm traced with 200,000 vertices."""
+    import numpy as np
+
+    t = np.linspace(0.0, 2.0 * np.pi, 200_000, endpoint=False)
+    r = 100.0 + 2.0 * np.sin(12 * t)
+    f = folder / "traced.txt"
+    f.write_text("units: mm\n" + _loop_text(np.column_stack([r * np.cos(t), r * np.sin(t)])))
+    return ["props", str(f)]
+
+
+@case
+def separate_parts_200(folder: Path) -> list[str]:
+    """200 separate 4 x 2 mm bars on a grid, taken as one section (one pin per part)."""
+    f = folder / "bars.txt"
+    loops = [[(10 * i, 10 * j), (10 * i + 4, 10 * j), (10 * i + 4, 10 * j + 2), (10 * i, 10 * j + 2)]
+             for i in range(20) for j in range(10)]
+    f.write_text("units: mm\n" + "\n".join(_loop_text(lp) for lp in loops))
+    return ["props", str(f), "--all-parts"]
+
+
 #: The child process: the warpwise command, then its own peak resident memory on stderr.
 CHILD = ("import atexit, resource, sys\n"
          "atexit.register(lambda: print('peak KiB', resource.getrusage(resource.RUSAGE_SELF).ru_maxrss,"

@@ -20,6 +20,7 @@ ones instead.
 
 import faulthandler
 import functools
+import json
 import multiprocessing
 import os
 import signal
@@ -109,6 +110,45 @@ def test_shuffled_entities(workdir, name, seed, keep_compounds):
         assert outcome.kind in ("analysed", "repaired"), outcome.detail
         ref = baseline_area(name)
         assert abs(outcome.area - ref) <= fuzz.SAME_AREA * ref
+
+
+@share(0.1)
+@given(st.sampled_from(NAMES), st.integers(0, len(fuzz.STRANGE_NAMES) - 1))
+def test_strange_file_names(workdir, name, k):
+    # the same sample under a strange name: it must read and analyse as under its own
+    outcome = run(workdir, fuzz.strange_name(name, k), SAMPLES[name].read_bytes())
+    assert_clean(outcome)
+    assert outcome.kind in ("analysed", "repaired"), outcome.detail
+    assert abs(outcome.area - baseline_area(name)) <= fuzz.SAME_AREA * baseline_area(name)
+
+
+@share(0.1)
+@given(st.sampled_from(NAMES), st.integers(0, len(fuzz.ENCODINGS) - 1))
+def test_other_encodings(workdir, name, k):
+    data = fuzz.reencode(SAMPLES[name].read_bytes(), k, name.lower().endswith(".dxf"))
+    outcome = run(workdir, name, data)
+    assert_clean(outcome)
+    way = fuzz.ENCODINGS[k]
+    if not name.lower().endswith(".dxf") and way != "utf-16-le":
+        # outlines: every way but unmarked UTF-16 reads; a latin-1 byte is refused by name
+        if way == "latin-1-comment":
+            assert outcome.kind == "clean" and "is not UTF-8 text (byte 0xdf at offset 4, line 1)" \
+                in outcome.detail
+        else:
+            assert outcome.kind == "analysed", outcome.detail
+            assert abs(outcome.area - baseline_area(name)) <= fuzz.SAME_AREA * baseline_area(name)
+    elif way == "utf-16-le" and not name.lower().endswith(".dxf"):
+        assert "seems to be UTF-16 LE text without a byte-order mark" in outcome.detail
+
+
+@pytest.mark.parametrize("k", range(len(fuzz.STRANGE_NAMES)))
+def test_strange_names_on_the_command_line(cli, tmp_path, k):
+    # ends in a result (exit 0) whatever the name; the name is shown as given
+    f = tmp_path / fuzz.strange_name("bar.txt", k)
+    f.write_text("units: mm\n0 0\n20 0\n20 8\n0 8\n")
+    code, out, err = cli("props", f, "--json")
+    assert code == 0 and "Traceback" not in err, err
+    assert json.loads(out)["file"] == str(f)
 
 
 def test_shuffle_really_reorders():

@@ -33,9 +33,9 @@ from pathlib import Path
 
 from .errors import InputFileError, UsageError, WarpwiseError
 from .geometry.profile import LENGTH_UNITS
-from .io.files import read_input
 from .io.options import ReadOptions
 from .properties.run import AnalysisOptions
+from .textfiles import read_text
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -248,7 +248,7 @@ def read_manifest(path: str | Path, options: RunOptions | None = None) -> list[I
     where = str(path)
     base = options or RunOptions()
     try:
-        data = tomllib.loads(read_input(path).decode("utf-8"))
+        data = tomllib.loads(read_text(path, "a TOML manifest"))
     except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
         raise InputFileError(f"not a valid TOML manifest ({exc})", file=where) from None
     unknown = sorted(set(data) - {"profile"})

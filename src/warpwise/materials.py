@@ -27,6 +27,7 @@ from pathlib import Path
 import numpy as np
 
 from .errors import InputFileError, UsageError
+from .textfiles import read_text
 from .units import DENSITY, DENSITY_UNITS, STRESS, STRESS_UNITS, convert
 
 if sys.version_info >= (3, 11):
@@ -285,7 +286,7 @@ def read_materials(path: str | Path) -> dict[str, Material]:
     if not p.is_file():
         raise InputFileError("materials file not found", file=str(path))
     try:
-        data = tomllib.loads(p.read_text(encoding="utf-8"))
+        data = tomllib.loads(read_text(p, "a TOML materials table"))
     except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:
         raise InputFileError(f"not a valid TOML materials table ({exc})", file=str(path)) from None
     stress_factor, density_factor = _table_units(data, str(path))

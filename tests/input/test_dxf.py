@@ -407,8 +407,10 @@ def test_several_parts_need_a_choice(cli, tmp_path):
 def test_load_profile_refuses_dxf_options_for_outlines(box_file):
     with pytest.raises(UsageError, match="--layer applies to DXF"):
         load_profile(box_file, layers=["0"])
-    with pytest.raises(UsageError, match="--part applies to DXF"):
-        load_profile(box_file, part=1)
+    # --part and --all-parts apply to outline files too (one rule for separate parts)
+    assert load_profile(box_file, part=1).area == load_profile(box_file).area
+    with pytest.raises(UsageError, match="part 2 does not exist: the file has 1 part$"):
+        load_profile(box_file, part=2)
 
 
 # --- broken drawings --------------------------------------------------------------------------

@@ -19,7 +19,11 @@ def test_closing_point_repeated_is_fine():
 def test_even_odd_nesting_island_in_hole():
     def sq(s):
         return "\n".join(f"{x * s} {y * s}" for x, y in [(-1, -1), (1, -1), (1, 1), (-1, 1)])
-    p = parse_outline("\n\n".join([sq(10), sq(6), sq(3)]))
+    text = "\n\n".join([sq(10), sq(6), sq(3)])
+    # the island does not touch the ring around it: a separate part, as in a drawing
+    with pytest.raises(ProfileError, match="the file holds 2 separate parts"):
+        parse_outline(text)
+    p = parse_outline(text, all_parts=True)
     assert len(p.regions) == 2
     # even-odd: 400 - 144 + 36 (common practice, no source)
     assert p.area == pytest.approx(400 - 144 + 36, rel=1e-14)
@@ -53,8 +57,11 @@ def test_hole_touching_outer_boundary():
 
 
 def test_nan_rejected():
-    with pytest.raises(InputFileError, match="non-finite"):
-        parse_outline("0 0\nnan 1\n1 1\n")
+    # nan is not a number of the strict pattern; 1e999 is one, but overflows
+    with pytest.raises(InputFileError, match=r"^<text>: line 2 is not a pair of numbers: 'nan 1'$"):
+        parse_outline("0 0\nnan 1\n1 1\n", source="<text>")
+    with pytest.raises(InputFileError, match="line 2 has a non-finite coordinate: '1e999 1'"):
+        parse_outline("0 0\n1e999 1\n1 1\n")
 
 
 def test_binary_file(tmp_path):

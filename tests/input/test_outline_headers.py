@@ -47,13 +47,14 @@ def test_byte_order_mark_without_header(tmp_path):
     assert read_outline(f).area == pytest.approx(56.25, rel=1e-12)
 
 
-@pytest.mark.parametrize("bom, name", [(b"\xff\xfe", "UTF-16"), (b"\xfe\xff", "UTF-16")])
-def test_utf16_text_is_refused_by_name(tmp_path, bom, name):
+@pytest.mark.parametrize("bom, name", [(b"\xff\xfe", "UTF-16 LE"), (b"\xfe\xff", "UTF-16 BE")])
+def test_utf16_text_is_read_with_a_note(tmp_path, bom, name):
     f = tmp_path / "wide.txt"
     codec = "utf-16-le" if bom == b"\xff\xfe" else "utf-16-be"
     f.write_bytes(bom + "\n".join(rows(" ")).encode(codec))
-    with pytest.raises(InputFileError, match=f"is {name} text; save it as UTF-8"):
-        read_outline(f)
+    p = read_outline(f)
+    assert p.area == pytest.approx(56.25, rel=1e-12)
+    assert f"read as {name} text" in p.notes
 
 
 @pytest.mark.parametrize("text, where", [

@@ -18,7 +18,12 @@ Mutations:
   INSERT kept with its VERTEX/ATTRIB/SEQEND records (outline: reorder the loops): the same
   drawing, so it must give the same area;
 - ``shuffle_groups``: DXF, reorder every 0-group of the ENTITIES section, compound entities torn
-  apart (outline: reorder all lines): anything may come out, but cleanly.
+  apart (outline: reorder all lines): anything may come out, but cleanly;
+- ``names``: the same file under a strange name (``$``, ``=``, ``+``, a leading ``-``, ``@``,
+  quotes, spaces, unicode, a name of 200 characters; :data:`STRANGE_NAMES`);
+- ``encodings``: the same text saved another way (UTF-8 with a byte-order mark, UTF-16 LE and
+  BE with and without one, CRLF line ends, a latin-1 comment line; :data:`ENCODINGS`): read, or
+  refused naming the encoding.
 
 Every case runs in a forked child process so that a hang inside compiled code (the mesher),
 which no signal handler can interrupt, is stopped at the time limit, a hard crash of an
@@ -48,7 +53,16 @@ ROOT = Path(__file__).resolve().parents[2]
 SAMPLES = ROOT / "sample_sections"
 
 #: Mutations by name; each takes (data, rng) and returns the mutated bytes and a description.
-MUTATIONS = ("truncate", "flip", "numbers", "shuffle_entities", "shuffle_groups")
+MUTATIONS = ("truncate", "flip", "numbers", "shuffle_entities", "shuffle_groups", "names",
+             "encodings")
+
+#: File names (``{stem}`` the sample's, the ending kept) the names family gives a file.
+STRANGE_NAMES = ("${stem}", "a=b {stem}", "+{stem}", "-{stem}", "@{stem}", "'{stem}'",
+                 '"{stem}"', "with  spaces {stem} ", "ünïcødé — {stem}", "日本語 {stem}",
+                 "{stem} 😀", "x" * 200 + "{stem}", "$(echo hi){stem}", "--part=2 {stem}")
+
+#: Ways the encodings family saves a file's text.
+ENCODINGS = ("utf-8-bom", "utf-16-le-bom", "utf-16-be-bom", "utf-16-le", "crlf", "latin-1-comment")
 
 #: Numbers a mutated file may get in place of a coordinate.
 EXTREME_NUMBERS = ("nan", "inf", "-inf", "1e308", "-1e308", "1e-300", "0", "-0", "1e12", "-1e12",
@@ -164,6 +178,40 @@ def shuffle(data: bytes, seed: int, keep_compounds: bool, is_dxf: bool) -> bytes
     return ("\n\n".join(head + loops) + "\n").encode("latin-1")
 
 
+def strange_name(name: str, k: int) -> str:
+    """The file name ``name`` in the form ``STRANGE_NAMES[k]`` (ending kept, at most 250 bytes)."""
+    stem, dot, ending = name.rpartition(".")
+    new = STRANGE_NAMES[k % len(STRANGE_NAMES)].format(stem=stem or ending) + (dot + ending if dot else "")
+    while len(new.encode()) > 250:
+        new = new[1:]
+    return new
+
+
+def case_name(name: str, how: str) -> str:
+    """The name a mutated copy of the file ``name`` is saved under, from the mutation's description."""
+    if how.startswith("strange_name("):
+        return strange_name(name, int(how.removeprefix("strange_name(").removesuffix(")")))
+    return "case" + name[name.rfind("."):]
+
+
+def reencode(data: bytes, k: int, is_dxf: bool) -> bytes:
+    """The text of ``data`` saved the way ``ENCODINGS[k]`` says (bytes that are not UTF-8 kept
+    as they are where the way allows, replaced by ``?`` in UTF-16)."""
+    way = ENCODINGS[k % len(ENCODINGS)]
+    text = data.decode("utf-8", errors="surrogateescape")
+    plain = text.encode("utf-8", errors="surrogateescape")
+    if way == "crlf":
+        return plain.replace(b"\r\n", b"\n").replace(b"\n", b"\r\n")
+    if way == "latin-1-comment":
+        comment = "999\nMa\xdf und \xe9\n" if is_dxf else "# Ma\xdf und \xe9\n"
+        return comment.encode("latin-1") + plain
+    if way == "utf-8-bom":
+        return b"\xef\xbb\xbf" + plain
+    codec, bom = {"utf-16-le-bom": ("utf-16-le", b"\xff\xfe"), "utf-16-be-bom": ("utf-16-be", b"\xfe\xff"),
+                  "utf-16-le": ("utf-16-le", b"")}[way]
+    return bom + text.encode(codec, errors="replace")
+
+
 def mutate(data: bytes, name: str, kind: str, rng: random.Random) -> tuple[bytes, str]:
     """Apply mutation ``kind`` with parameters drawn from ``rng``; return data and description."""
     is_dxf = name.lower().endswith(".dxf")
@@ -176,6 +224,12 @@ def mutate(data: bytes, name: str, kind: str, rng: random.Random) -> tuple[bytes
     if kind == "numbers":
         picks = [(rng.random(), rng.randrange(len(EXTREME_NUMBERS))) for _ in range(rng.randrange(1, 4))]
         return replace_numbers(data, picks), f"replace_numbers({[(round(w, 6), k) for w, k in picks]})"
+    if kind == "names":  # the data stay; the runner names the file with strange_name(name, k)
+        k = rng.randrange(len(STRANGE_NAMES))
+        return data, f"strange_name({k})"
+    if kind == "encodings":
+        k = rng.randrange(len(ENCODINGS))
+        return reencode(data, k, is_dxf), f"reencode({ENCODINGS[k]!r})"
     seed = rng.randrange(2**32)
     keep = kind == "shuffle_entities"
     return shuffle(data, seed, keep, is_dxf), f"shuffle(seed={seed}, keep_compounds={keep})"
@@ -393,7 +447,7 @@ def main(argv: list[str] | None = None) -> int:  # noqa: D103
         src = rng.choice(files)
         kind = rng.choice(MUTATIONS)
         data, how = mutate(src.read_bytes(), src.name, kind, rng)
-        target = work / f"case{src.suffix}"
+        target = work / case_name(src.name, how)
         target.write_bytes(data)
         o = run_case(target, args.time_limit, args.mesh_factor)
         verdict = o.kind

@@ -129,10 +129,12 @@ def _input_options(p: argparse.ArgumentParser) -> None:
                         "other layers are of --material): a composite drawn by layers")
     which = p.add_mutually_exclusive_group()
     which.add_argument("--part", type=positive_int, metavar="N",
-                       help="DXF: analyse only part N of a drawing with several (numbers as "
-                            "listed by 'warpwise check', largest area first)")
+                       help="analyse only part N of a drawing or outline file with several "
+                            "separate parts (numbers as listed by 'warpwise check', largest "
+                            "area first)")
     which.add_argument("--all-parts", action="store_true",
-                       help="DXF: analyse all separate parts together as one section")
+                       help="analyse all separate parts of a drawing or outline file together "
+                            "as one section (J is the sum of the parts' J)")
     p.add_argument("--chord-tolerance", type=positive_float, metavar="S",
                    help="DXF: largest distance between a curve and its chords, drawing unit "
                         "(default: tied to the mesh size)")

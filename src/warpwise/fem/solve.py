@@ -1,7 +1,8 @@
 """Linear solvers for the singular Neumann problems of the section.
 
 The stiffness matrix of a pure Neumann problem is singular (the solution is defined up to a
-constant). :class:`PinnedSolver` removes one node, factorises the rest once and reuses the
+constant on each connected part of the mesh). :class:`PinnedSolver` finds the connected parts
+(:func:`connected_parts`), removes one node of each, factorises the rest once and reuses the
 factorisation for every right-hand side (torsion, the two shear functions, ...).
 
 Three methods, chosen by measurement (``scripts/bench.py``): SuperLU (scipy) for small and
@@ -16,6 +17,7 @@ from __future__ import annotations
 import numpy as np
 import scipy.sparse as sp
 import scipy.sparse.linalg as spla
+from scipy.sparse.csgraph import connected_components
 
 from ..errors import AnalysisError, UsageError
 
@@ -116,23 +118,52 @@ class SPDFactor:
         return out.reshape(rhs.shape)
 
 
+def connected_parts(matrix: sp.spmatrix) -> tuple[int, np.ndarray]:
+    """The connected parts of a stiffness matrix's graph (of the mesh): count and node labels.
+
+    Examples
+    --------
+    >>> k = sp.csr_matrix(np.array([[1.0, -1.0, 0.0], [-1.0, 1.0, 0.0], [0.0, 0.0, 1.0]]))
+    >>> count, labels = connected_parts(k)
+    >>> count, labels.tolist()
+    (2, [0, 0, 1])
+
+    """
+    count, labels = connected_components(sp.csr_matrix(matrix), directed=False)
+    return int(count), labels.astype(np.int64)
+
+
 class PinnedSolver:
-    """Factorise a symmetric positive semi-definite matrix with one node pinned to zero.
+    """Factorise a symmetric positive semi-definite matrix with one node of each part pinned.
 
     Parameters
     ----------
     matrix : scipy.sparse matrix
-        (n, n) stiffness matrix whose null space is the constant vector.
+        (n, n) stiffness matrix whose null space is the constant vector on each connected
+        part of its graph.
     pinned : int
-        Node whose value is fixed at zero.
+        Node whose value is fixed at zero; in each other part, its first node is pinned.
     method : str
         Linear solver, see :class:`SPDFactor`.
+
+    Attributes
+    ----------
+    n_parts : int
+        Number of connected parts.
+    labels : numpy.ndarray
+        Part of each node (n,), 0-based; the part of ``pinned`` is 0 only by chance.
+    pins : numpy.ndarray
+        The pinned node of each part.
 
     Examples
     --------
     >>> k = sp.csr_matrix(np.array([[1.0, -1.0], [-1.0, 1.0]]))
     >>> PinnedSolver(k, 0).solve(np.array([-1.0, 1.0])).tolist()
     [0.0, 1.0]
+    >>> two = sp.block_diag([k, k]).tocsr()  # two separate parts: each defined up to a constant
+    >>> s = PinnedSolver(two, 1)
+    >>> s.n_parts, s.pins.tolist(), s.solve(np.array([-1.0, 1.0, 2.0, -2.0])).tolist()
+    (2, [1, 2], [-1.0, 0.0, 0.0, -2.0])
 
     """
 
@@ -140,23 +171,32 @@ class PinnedSolver:
         n = matrix.shape[0]
         self.n = n
         self.pinned = int(pinned)
-        self.keep = np.delete(np.arange(n), self.pinned)
         mat = sp.csr_matrix(matrix)
+        self.n_parts, self.labels = connected_parts(mat) if n else (0, np.zeros(0, np.int64))
+        first = np.full(self.n_parts, n, dtype=np.int64)
+        np.minimum.at(first, self.labels, np.arange(n))
+        if n:
+            first[self.labels[self.pinned]] = self.pinned
+        self.pins = np.sort(first)
+        self.keep = np.delete(np.arange(n), self.pins)
         self.matrix = mat
         self._norm = float(abs(mat).sum(axis=1).max()) if n else 0.0
         self._factor = SPDFactor(mat[self.keep][:, self.keep], method)
         self.method = self._factor.method
 
-    @staticmethod
-    def compatible(rhs: np.ndarray) -> np.ndarray:
-        """Remove the round-off part of a Neumann right-hand side that breaks sum(f) = 0.
+    def compatible(self, rhs: np.ndarray) -> np.ndarray:
+        """Remove the round-off part of a Neumann right-hand side that breaks sum(f) = 0 on a part.
 
-        The loads of the section problems sum to zero exactly in exact arithmetic (the shape
-        functions sum to one); their computed sum is round-off, which would otherwise land
-        entirely on the pinned node.
+        The loads of the section problems sum to zero on each part exactly in exact arithmetic
+        (the shape functions sum to one there); their computed sum is round-off, which would
+        otherwise land entirely on the part's pinned node.
         """
         rhs = np.asarray(rhs, dtype=float)
-        return rhs - rhs.sum(axis=0) / rhs.shape[0]
+        cols = rhs.reshape(rhs.shape[0], -1)
+        count = np.bincount(self.labels, minlength=self.n_parts)
+        sums = np.stack([np.bincount(self.labels, weights=c, minlength=self.n_parts)
+                         for c in cols.T], axis=1)
+        return (cols - (sums / count[:, None])[self.labels]).reshape(rhs.shape)
 
     def solve(self, rhs: np.ndarray) -> np.ndarray:
         """Solve for one (n,) or several (n, r) right-hand sides; pinned value is zero.

@@ -23,6 +23,7 @@ import shapely
 from shapely.geometry.polygon import orient
 
 from .profile import Profile
+from .rays import first_hits
 
 #: Interior angle above which a corner counts as sharp and re-entrant, degrees.
 SHARP_ANGLE_DEG = 190.0
@@ -99,33 +100,49 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG, *,
                 sharp &= ~on
             for k in np.flatnonzero(sharp):
                 found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))
-    if measure:
-        found = [replace(c, radius=exclusion_radius(profile, c)) for c in found]
+    if measure and found:
+        radii = exclusion_radii(profile, np.array([(c.x, c.y) for c in found]))
+        found = [replace(c, radius=float(r)) for c, r in zip(found, radii, strict=True)]
     return found
 
 
 #: Radius around a sharp re-entrant corner left out of the reported maximum stress, as a
 #: fraction of the material depth seen from the corner along its bisector.
 EXCLUSION_FRACTION = 0.1
+#: Directions of the rays cast from a corner into the material, degrees.
+RAY_STEP_DEG = 5.0
+
+
+def exclusion_radii(profile: Profile, corners: np.ndarray) -> np.ndarray:
+    """Radius around each corner (k, 2) within which the singular stress is not reported, L.
+
+    The local material depth is the shortest distance from the corner to the outline across
+    the material (rays into the material every :data:`RAY_STEP_DEG` degrees, all corners at
+    once, :func:`~warpwise.geometry.rays.first_hits`); the radius is
+    :data:`EXCLUSION_FRACTION` of it (of the profile size where no ray meets the outline).
+    """
+    geom = profile.geometry()
+    size = profile.size
+    ang = np.radians(np.arange(0.0, 360.0, RAY_STEP_DEG))
+    d = np.column_stack([np.cos(ang), np.sin(ang)])
+    origin = np.repeat(corners, len(d), axis=0)
+    direction = np.tile(d, (len(corners), 1))
+    start = origin + 1e-6 * size * direction
+    inside = shapely.contains_xy(geom, start[:, 0], start[:, 1])
+    rings = [r for poly in getattr(geom, "geoms", [geom]) for r in (poly.exterior, *poly.interiors)]
+    xy = [np.asarray(r.coords) for r in rings]
+    seg_a = np.concatenate([c[:-1] for c in xy])
+    seg_b = np.concatenate([c[1:] for c in xy])
+    t = np.full(len(origin), np.inf)
+    t[inside] = first_hits(seg_a, seg_b, origin[inside], direction[inside], reach=2.0 * size,
+                           start=1e-6 * size, first=1.0 / 256.0)
+    depth = np.minimum(t.reshape(len(corners), len(d)).min(axis=1), size)
+    return EXCLUSION_FRACTION * depth
 
 
 def exclusion_radius(profile: Profile, corner: Corner) -> float:
     """Radius around ``corner`` within which the singular stress is not reported, drawing unit.
 
-    The local material depth is the shortest distance from the corner to the outline across
-    the material (rays into the material every 5 degrees); the radius is
-    :data:`EXCLUSION_FRACTION` of it.
+    See :func:`exclusion_radii`, which measures many corners at once.
     """
-    geom = profile.geometry()
-    c = np.array([corner.x, corner.y])
-    ang = np.radians(np.arange(0.0, 360.0, 5.0))
-    d = np.column_stack([np.cos(ang), np.sin(ang)])
-    start = c + 1e-6 * profile.size * d
-    inside = shapely.contains_xy(geom, start[:, 0], start[:, 1])
-    depth = profile.size
-    for s0, dk in zip(start[inside], d[inside], strict=True):
-        hit = shapely.LineString([s0, c + 2.0 * profile.size * dk]).intersection(geom.boundary)
-        pts = shapely.get_coordinates(hit)
-        if len(pts):
-            depth = min(depth, float(np.linalg.norm(pts - c, axis=1).min()))
-    return EXCLUSION_FRACTION * depth
+    return float(exclusion_radii(profile, np.array([[corner.x, corner.y]]))[0])

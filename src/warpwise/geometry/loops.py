@@ -33,6 +33,10 @@ MIN_VERTEX_ANGLE = 1e-3
 #: Relative size (to the largest dimension) below which two vertices are the same point.
 POINT_TOLERANCE = 1.0e-9
 
+#: Smallest profile handled, across, in the drawing unit (below it the sixth powers of the
+#: coordinates in the warping constant leave double precision).
+MIN_SIZE = 1.0e-12
+
 
 def check_points(points: object, what: str = "points", *, file: str | None = None) -> np.ndarray:
     """Return ``points`` as a float array of shape (n, 2), or raise a ProfileError.
@@ -203,13 +207,19 @@ def clean_loop(points: object, index: int, *, file: str | None = None, scale: fl
         Too few points, zero area, or a self-crossing loop (with the crossing point).
 
     """
-    arr = check_points(points, f"loop {index}", file=file)
-    tol = POINT_TOLERANCE * max(scale, np.abs(arr).max(initial=0.0), 1e-300)
+    given = check_points(points, f"loop {index}", file=file)
+    tol = POINT_TOLERANCE * max(scale, np.abs(given).max(initial=0.0), 1e-300)
+    arr = given
     if len(arr):
-        step = np.linalg.norm(np.diff(arr, axis=0, append=arr[:1]), axis=1)
+        step = np.hypot(*np.diff(arr, axis=0, append=arr[:1]).T)  # hypot: no underflow
         arr = arr[step > tol]
     if len(arr) < 3:
-        where = tuple(arr[0]) if len(arr) else None
+        where = tuple(given[0]) if len(given) else None
+        size = float(np.ptp(given, axis=0).max()) if len(given) else 0.0
+        if len({tuple(p) for p in given.tolist()}) >= 3:
+            raise ProfileError(f"loop {index} is {size:.3g} across, below the joining tolerance "
+                               f"of {tol:.3g} ({POINT_TOLERANCE:g} of the profile's size): its "
+                               f"{len(given)} points join into {len(arr)}", file=file, where=where)
         raise ProfileError(
             f"loop {index} has {len(arr)} distinct point(s); a loop needs at least 3",
             file=file, where=where,

@@ -33,6 +33,7 @@ from shapely.validation import explain_validity
 from ..errors import ProfileError
 from ..units import LENGTH_UNITS
 from .loops import (
+    MIN_SIZE,
     check_no_crossings,
     check_points,
     clean_loop,
@@ -218,6 +219,16 @@ class Profile:
         return Profile(regions, self.source, self.units, self.notes, arcs, self.warnings)
 
 
+def _check_scale(scale: float, units: str, file: str | None) -> None:
+    """Refuse a profile without extent, or smaller than :data:`~warpwise.geometry.loops.MIN_SIZE`."""
+    if scale <= 0:
+        raise ProfileError("the profile has no extent (all points coincide)", file=file)
+    if scale < MIN_SIZE:
+        raise ProfileError(f"the profile is {scale:.3g} {units} across, below the smallest size "
+                           f"handled ({MIN_SIZE:g} {units}): its points cannot be told apart",
+                           file=file)
+
+
 def profile_from_loops(
     loops: Sequence[object],
     materials: Sequence[str | None] | None = None,
@@ -282,8 +293,7 @@ def profile_from_loops(
     extent = max((float(np.abs(a).max(initial=0.0)) for a in raw), default=0.0)
     spans = [float(np.ptp(a, axis=0).max()) if len(a) else 0.0 for a in raw]
     scale = max(max(spans, default=0.0), extent * 1e-3)
-    if scale <= 0:
-        raise ProfileError("the profile has no extent (all points coincide)", file=file)
+    _check_scale(scale, units, file)
     cleaned = [clean_loop(a, k + 1, file=file, scale=scale) for k, a in enumerate(raw)]
     polys = [Polygon(a) for a in cleaned]
     labels = list(range(1, len(polys) + 1))

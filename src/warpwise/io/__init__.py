@@ -37,7 +37,8 @@ def _dxf_reader(path: str | Path, options: ReadOptions) -> Profile:
 
 def _outline_reader(path: str | Path, options: ReadOptions) -> Profile:
     refuse_dxf_options(path, options)
-    return read_outline(path, options.units)  # an outline file is always taken whole
+    return read_outline(path, options.units, part=options.part, all_parts=options.all_parts,
+                        mesh_size=options.mesh_size)
 
 
 #: File ending (lower case) -> the reader of such files.
@@ -86,9 +87,9 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
     layers : sequence of str, optional
         DXF only: the layers holding the profile (default every layer with closed geometry).
     part : int, optional
-        DXF only: analyse this part (1-based, largest first) of a drawing with several.
+        Analyse this part (1-based, largest first) of a file with several separate parts.
     all_parts : bool
-        Take every part of a drawing as one section (outline files always do).
+        Take every separate part of a file as one section.
     chord_tolerance : float, optional
         DXF only: largest distance between a chord and its curve, drawing unit (default tied
         to the mesh size).

@@ -205,7 +205,7 @@ def _check_outline(path: str | Path, o: ReadOptions) -> CheckReport:
     units = o.units
     profile: Profile | None = None
     try:
-        profile = read_outline(path, units)
+        profile = read_outline(path, units, part=o.part, all_parts=o.all_parts)
         verdict = "analysable"
         defects: tuple[Defect, ...] = ()
     except ProfileError as exc:

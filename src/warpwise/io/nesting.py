@@ -5,6 +5,12 @@ another loop (all of them, each with its point, where the profile builder stops 
 :func:`nest_loops` groups loops by even-odd nesting into parts (solid regions with their holes)
 and :func:`describe_part` puts a part in words for messages.
 Both build on the loop checks of :mod:`warpwise.geometry.loops`.
+
+The one rule for separate parts, which every reader follows: a file of one part is that part;
+of several, :func:`choose_part` takes the one asked for (``--part N``, largest area first) or
+all of them as one section (``--all-parts``), and refuses otherwise with
+:func:`separate_parts_error`, naming both options; :func:`parts_note` says what was taken.
+Loops of different materials that share an edge (a bonded insert) are one part.
 """
 
 from __future__ import annotations
@@ -16,8 +22,12 @@ import numpy as np
 import shapely
 from shapely.geometry import LinearRing, Polygon
 
+from ..errors import ProfileError, UsageError
 from ..geometry.loops import crossing_point, even_odd_nesting, meeting_pairs, meeting_point, signed_area
-from .defects import ERROR, Defect, fmt, fmt_point
+from .defects import ERROR, Defect, fmt, fmt_point, plural
+
+#: Largest number of parts named in a message.
+PARTS_IN_MESSAGE = 10
 
 
 def loop_defects(loops: Sequence[np.ndarray], labels: Sequence[str], layers: Sequence[str]) -> list[Defect]:
@@ -151,3 +161,123 @@ def nest_loops(loops: Sequence[np.ndarray], materials: Sequence[str | None] | No
     parts.sort(key=lambda p: (-round(p.area / top, 6) if top > 0 else 0.0, round(p.bounds[0], 9),
                               round(p.bounds[1], 9)))
     return depth, parts
+
+
+def parts_text(parts: Sequence[Part], unit: str) -> str:
+    """The first :data:`PARTS_IN_MESSAGE` parts in words, then how many more.
+
+    Examples
+    --------
+    >>> parts_text([Part((0,), 40.0, (0.0, 0.0, 10.0, 4.0), 0),
+    ...             Part((1,), 4.0, (20.0, 0.0, 22.0, 2.0), 1)], "mm")
+    'part 1: 10 x 4 mm at (0, 0), area 40 mm2; part 2: 2 x 2 mm at (20, 0), area 4 mm2, 1 hole'
+
+    """
+    items = []
+    for k, p in enumerate(parts[:PARTS_IN_MESSAGE]):
+        holes = f", {plural(p.holes, 'hole')}" if p.holes else ""
+        items.append(describe_part(k + 1, p.bounds, p.area, unit) + holes)
+    more = len(parts) - PARTS_IN_MESSAGE
+    if more > 0:
+        items.append(f"and {more} more")
+    return "; ".join(items)
+
+
+def separate_parts_error(parts: Sequence[Part], unit: str, source: str, *, holder: str = "file",
+                         numbering: str = "largest area first", why: str = "",
+                         advice: str = "") -> ProfileError:
+    """The refusal of several separate parts when neither a part nor all parts were chosen.
+
+    Parameters
+    ----------
+    parts : sequence of Part
+        The parts, largest first.
+    unit : str
+        Length unit of the sizes named.
+    source : str
+        The file.
+    holder : str
+        What holds the parts (``file``, ``drawing``).
+    numbering : str
+        How the parts are numbered, for ``--part N``.
+    why : str
+        Appended after the list (why no part was taken by itself).
+    advice : str
+        Appended at the end (other options that help).
+
+    Examples
+    --------
+    >>> two = [Part((0,), 40.0, (0.0, 0.0, 10.0, 4.0), 0), Part((1,), 4.0, (20.0, 0.0, 22.0, 2.0), 0)]
+    >>> print(separate_parts_error(two, "mm", "bars.txt"))  # doctest: +NORMALIZE_WHITESPACE
+    bars.txt: the file holds 2 separate parts (part 1: 10 x 4 mm at (0, 0), area 40 mm2;
+    part 2: 2 x 2 mm at (20, 0), area 4 mm2); analyse one with --part N (largest area first),
+    or all as one section with --all-parts
+
+    """
+    return ProfileError(
+        f"the {holder} holds {len(parts)} separate parts ({parts_text(parts, unit)}){why}; "
+        f"analyse one with --part N ({numbering}), or all as one section with --all-parts{advice}",
+        file=source)
+
+
+def choose_part(parts: Sequence[Part], part: int | None, all_parts: bool, source: str, *,
+                holder: str = "file") -> Part | None:
+    """The part asked for, None for all of them (or the only one); refuse a number out of range.
+
+    Parameters
+    ----------
+    parts : sequence of Part
+        The parts, largest first.
+    part : int or None
+        One-based part number asked for (``--part N``).
+    all_parts : bool
+        Every part as one section (``--all-parts``).
+    source : str
+        The file, for messages.
+    holder : str
+        What holds the parts, for messages.
+
+    Returns
+    -------
+    Part or None
+        The chosen part; None when every part is taken (``all_parts``, or only one part) or
+        when several parts remain for the caller to refuse (see :func:`separate_parts_error`).
+
+    Raises
+    ------
+    UsageError
+        Both a part and all parts, or a part number that does not exist.
+
+    """
+    if part is not None and all_parts:
+        raise UsageError("give either a part number (--part) or --all-parts, not both", file=source)
+    if part is None:
+        return None
+    if not 1 <= part <= len(parts):
+        raise UsageError(f"part {part} does not exist: the {holder} has {plural(len(parts), 'part')}",
+                         file=source)
+    return parts[part - 1]
+
+
+def parts_note(number: int | None, count: int) -> str | None:
+    """The note saying which parts were taken: ``part 2 of 3``, or all of several, or None.
+
+    Examples
+    --------
+    >>> parts_note(2, 3), parts_note(None, 1)
+    ('part 2 of 3', None)
+    >>> print(parts_note(None, 3))  # doctest: +NORMALIZE_WHITESPACE
+    all 3 parts analysed as one section: J is the sum of the parts' J; the shear centre and Cw
+    take the parts as kept in shape in their plane (by end plates or diaphragms) and free to
+    slide along each other; shear areas and the elastic shear centre are not computed (they need
+    the parts joined along the bar)
+
+    """
+    if number is not None:
+        return f"part {number} of {count}"
+    if count < 2:
+        return None
+    return (f"all {count} parts analysed as one section: J is the sum of the parts' J; the shear "
+            "centre and Cw take the parts as kept in shape in their plane (by end plates or "
+            "diaphragms) and free to slide along each other; shear areas and the elastic shear "
+            "centre are not computed (they need the parts joined along the bar)")

@@ -35,9 +35,9 @@ class ReadOptions:
     layers : tuple of str
         DXF layers holding the profile (empty: every layer with closed geometry).
     part : int or None
-        DXF: the part to analyse (1-based, largest first).
+        Of a file with several separate parts, the part to analyse (1-based, largest first).
     all_parts : bool
-        Take every part of a drawing as one section.
+        Take every separate part of a file as one section.
     chord_tolerance : float or None
         DXF: largest distance between a chord and its curve, drawing unit.
     mesh_size : float or None
@@ -92,8 +92,7 @@ class ReadOptions:
     @property
     def dxf_only(self) -> tuple[tuple[str, object], ...]:
         """The options that apply to DXF drawings only, with their values (flag, value)."""
-        return (("--layer", self.layers), ("--part", self.part),
-                ("--chord-tolerance", self.chord_tolerance),
+        return (("--layer", self.layers), ("--chord-tolerance", self.chord_tolerance),
                 ("--join-tolerance", self.join_tolerance),
                 ("--layer-material", self.layer_materials),
                 ("--max-entities", self.max_entities))

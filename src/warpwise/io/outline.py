@@ -6,7 +6,12 @@ not be repeated). Nesting is even-odd. ``material: NAME`` before a loop gives th
 following ones, until the next such line) a material; ``units: mm|cm|m|in|ft`` anywhere sets
 the length unit. A UTF-8 byte-order mark and one line of column names ``x`` and ``y`` before
 the first coordinates (as spreadsheets write them) are skipped with a note; decimal commas
-(``1,5;2,5``) are refused, since a comma also separates the numbers.
+(``1,5;2,5``) are refused, since a comma also separates the numbers. A number is an optional
+sign, digits with an optional decimal point and an optional exponent (:data:`NUMBER`); nothing
+else (``2_0``, ``inf``, ``0x10``) is read as one. The file may be UTF-8 (with or without a
+byte-order mark) or UTF-16 with its byte-order mark (:func:`warpwise.textfiles.decode_text`).
+Loops that form separate parts follow the one rule of every reader
+(:func:`warpwise.io.nesting.choose_part`): one part, or ``--part N``, or ``--all-parts``.
 
 Examples
 --------
@@ -24,19 +29,28 @@ warpwise.errors.InputFileError: bad.txt: line 2 is not a pair of numbers: '1 x'
 Traceback (most recent call last):
 ...
 warpwise.errors.InputFileError: comma.csv: line 2 has a decimal comma: '2,5;0' (write decimal points: 2.5 0)
+>>> parse_outline("0 0\n2_0 0\n", source="under.txt")
+Traceback (most recent call last):
+...
+warpwise.errors.InputFileError: under.txt: line 2 is not a pair of numbers: '2_0 0'
 
 """
 
 from __future__ import annotations
 
 import re
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
 
 from ..errors import InputFileError, UsageError
-from ..geometry.profile import LENGTH_UNITS, Profile, profile_from_loops
-from .files import MAX_FILE_BYTES, check_assumed_size, read_input, refuse_binary
+from ..geometry.loops import signed_area
+from ..geometry.profile import LENGTH_UNITS, Profile, default_element_size, profile_from_loops
+from ..geometry.simplify import simplify_dense_loops
+from ..textfiles import PLAIN
+from .files import MAX_FILE_BYTES, check_assumed_size, decode_text, read_input
+from .nesting import choose_part, nest_loops, parts_note, separate_parts_error
 from .options import ReadOptions
 
 _SPLIT = re.compile(r"[,;\s]+")
@@ -44,9 +58,8 @@ _SPLIT = re.compile(r"[,;\s]+")
 _DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
 #: Column names accepted as the one header line (not case-sensitive).
 HEADER_NAMES = ("x", "y")
-#: Byte-order marks of UTF-16 and UTF-32 text, which is refused with its name.
-_WIDE_BOMS = {b"\xff\xfe\x00\x00": "UTF-32", b"\x00\x00\xfe\xff": "UTF-32",
-              b"\xff\xfe": "UTF-16", b"\xfe\xff": "UTF-16"}
+#: A number: optional sign, digits with an optional decimal point, optional exponent.
+NUMBER = re.compile(r"[+-]?(?:[0-9]+\.?[0-9]*|\.[0-9]+)(?:[eE][+-]?[0-9]+)?")
 
 
 def read_text(path: str | Path, kind: str = "outline") -> str:
@@ -67,27 +80,24 @@ def read_text(path: str | Path, kind: str = "outline") -> str:
     Raises
     ------
     InputFileError
-        Missing, unreadable, too large, empty or binary file.
+        Missing, unreadable, too large, empty or binary file, or bytes that are not UTF-8 or
+        UTF-16 text (naming the encoding).
 
     """
-    data = read_input(path)
-    for bom, name in _WIDE_BOMS.items():
-        if data.startswith(bom):
-            raise InputFileError(f"is {name} text; save it as UTF-8 (or plain ASCII) text",
-                                 file=str(path))
-    refuse_binary(data, str(path), f"a text {kind} file")
-    return data.decode("utf-8", errors="replace")
+    return _decoded(path, kind)[0]
+
+
+def _decoded(path: str | Path, kind: str = "outline") -> tuple[str, str]:
+    """The text of a file and the name of its encoding."""
+    return decode_text(read_input(path), str(path), f"a text {kind} file")
 
 
 def _numbers(line: str) -> tuple[float, float] | None:
     """The two numbers of a coordinate line, or None when it is not two numbers."""
     parts = [p for p in _SPLIT.split(line) if p]
-    if len(parts) != 2:
+    if len(parts) != 2 or not all(NUMBER.fullmatch(p) for p in parts):
         return None
-    try:
-        return float(parts[0]), float(parts[1])
-    except ValueError:
-        return None
+    return float(parts[0]), float(parts[1])
 
 
 def _refuse_line(line: str, number: int, source: str, first: bool) -> InputFileError:
@@ -111,7 +121,9 @@ def _is_header(line: str) -> bool:
     return [p.lower() for p in _SPLIT.split(line) if p] == list(HEADER_NAMES)
 
 
-def parse_outline(text: str, *, source: str = "<text>", units: str | None = None) -> Profile:
+def parse_outline(text: str, *, source: str = "<text>", units: str | None = None,
+                  part: int | None = None, all_parts: bool = False,
+                  encoding: str = PLAIN, mesh_size: float | None = None) -> Profile:
     """Parse outline text into a validated profile.
 
     Parameters
@@ -122,6 +134,17 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
         Name used in messages.
     units : str, optional
         Length unit; overrides a ``units:`` line. Default mm.
+    part : int, optional
+        Of loops forming several separate parts, analyse this one (1-based, largest area
+        first).
+    all_parts : bool
+        Analyse every separate part together as one section.
+    encoding : str
+        The encoding the text was read in (named in a note unless plain UTF-8).
+    mesh_size : float, optional
+        The mesh size the profile is for, drawing unit (default from the area): a traced loop
+        of far more vertices than that size resolves is simplified under a tolerance well
+        below it, with a note (:func:`warpwise.geometry.simplify.simplify_dense_loops`).
 
     Returns
     -------
@@ -132,7 +155,10 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     InputFileError
         A line that is not two numbers, an unknown directive or unit.
     ProfileError
-        Invalid geometry (open, self-crossing, overlapping...).
+        Invalid geometry (open, self-crossing, overlapping...), or several separate parts
+        with neither ``part`` nor ``all_parts``.
+    UsageError
+        A part number that does not exist, or both ``part`` and ``all_parts``.
 
     """
     loops: list[np.ndarray] = []
@@ -143,7 +169,11 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     notes: list[str] = []
     if text.startswith("\ufeff"):
         text = text[1:]
+        encoding = "UTF-8 with byte-order mark"
+    if encoding == "UTF-8 with byte-order mark":
         notes.append("UTF-8 byte-order mark at the start of the file skipped")
+    elif encoding != PLAIN:
+        notes.append(f"read as {encoding} text")
     first = True  # no coordinate line read yet: one header line of column names may come
 
     def close() -> None:
@@ -184,13 +214,33 @@ def parse_outline(text: str, *, source: str = "<text>", units: str | None = None
     chosen = units or file_units or "mm"
     if not (units or file_units):
         notes.append("length unit not given: millimetres assumed")
+    largest = max(abs(signed_area(lp)) for lp in loops)
+    loops, simplified = simplify_dense_loops(loops, mesh_size or default_element_size(largest), chosen)
+    notes += simplified
     if all(m is None for m in materials):
         materials = None
     elif any(m is None for m in materials):
         raise InputFileError("some loops have a material and some do not: give every loop one "
                              "(a 'material:' line before the first loop)", file=source)
-    profile = profile_from_loops(loops, materials, source=source, units=chosen, notes=notes)
+    profile = _profile_of_parts(loops, materials, source, chosen, notes, part, all_parts)
     return profile if (units or file_units) else check_assumed_size(profile)
+
+
+def _profile_of_parts(loops: list[np.ndarray], materials: list[str | None] | None, source: str,
+                      units: str, notes: list[str], part: int | None, all_parts: bool) -> Profile:
+    """The profile of the part asked for, or of all parts; refuse several without a choice."""
+    choose_part((), None, all_parts and part is not None, source)  # both given: refused first
+    profile = profile_from_loops(loops, materials, source=source, units=units, notes=notes)
+    parts = nest_loops(loops, materials)[1]
+    chosen = choose_part(parts, part, all_parts, source)
+    if chosen is None and len(parts) > 1 and not all_parts:
+        raise separate_parts_error(parts, units, source)
+    note = parts_note(part, len(parts))
+    if chosen is None or len(parts) == 1:
+        return profile if note is None else replace(profile, notes=(*profile.notes, note))
+    mats = None if materials is None else [materials[i] for i in chosen.loops]
+    return profile_from_loops([loops[i] for i in chosen.loops], mats, source=source, units=units,
+                              notes=[*notes, note])
 
 
 def _unit_line(value: str, number: int, source: str, before: str | None) -> str:
@@ -214,7 +264,8 @@ def _coordinate(line: str, number: int, source: str, first: bool) -> tuple[float
     return pair
 
 
-def read_outline(path: str | Path, units: str | None = None) -> Profile:
+def read_outline(path: str | Path, units: str | None = None, *, part: int | None = None,
+                 all_parts: bool = False, mesh_size: float | None = None) -> Profile:
     """Read a coordinate outline file into a validated profile.
 
     Parameters
@@ -223,13 +274,21 @@ def read_outline(path: str | Path, units: str | None = None) -> Profile:
         Outline file.
     units : str, optional
         Length unit overriding the file's (default mm).
+    part : int, optional
+        Of several separate parts, analyse this one (1-based, largest area first).
+    all_parts : bool
+        Analyse every separate part together as one section.
+    mesh_size : float, optional
+        The mesh size the profile is for, drawing unit (see :func:`parse_outline`).
 
     Returns
     -------
     Profile
 
     """
-    return parse_outline(read_text(path), source=str(path), units=units)
+    text, encoding = _decoded(path)
+    return parse_outline(text, source=str(path), units=units, part=part, all_parts=all_parts,
+                         encoding=encoding, mesh_size=mesh_size)
 
 
 def refuse_dxf_options(path: str | Path, options: ReadOptions) -> None:
@@ -242,10 +301,10 @@ def refuse_dxf_options(path: str | Path, options: ReadOptions) -> None:
 
     Examples
     --------
-    >>> refuse_dxf_options("bar.txt", ReadOptions(part=2))
+    >>> refuse_dxf_options("bar.txt", ReadOptions(layers=("SECTION",)))
     Traceback (most recent call last):
     ...
-    warpwise.errors.UsageError: bar.txt: --part applies to DXF drawings only
+    warpwise.errors.UsageError: bar.txt: --layer applies to DXF drawings only
 
     """
     for flag, value in options.dxf_only:

@@ -28,11 +28,8 @@ from ..geometry.profile import Profile
 from ..geometry.symmetry import cut, mirror_mesh, symmetry_axes
 from .arcs import follow_arcs
 from .edges import Edges, mesh_edges
-from .sizing import ELEMENTS_ACROSS_WALL, default_size
+from .sizing import ELEMENTS_ACROSS_WALL, MAX_ELEMENTS, default_size
 from .triangulate import hole_seeds, to_quadratic, triangulate
-
-#: Largest number of elements a mesh may have before meshing is refused.
-MAX_ELEMENTS = 4_000_000
 
 
 @dataclass(frozen=True, eq=False)

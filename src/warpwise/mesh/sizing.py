@@ -9,9 +9,11 @@ from __future__ import annotations
 
 import numpy as np
 import shapely
+from scipy.spatial import cKDTree
 
 from ..errors import ProfileError
 from ..geometry.profile import Profile, default_element_size
+from ..geometry.rays import first_hits
 
 #: Elements through the local wall thickness at the boundary (at least two).
 ELEMENTS_ACROSS_WALL = 2.5
@@ -23,6 +25,11 @@ CORNER_GRADING = 0.3
 MIN_SIZE_FRACTION = 1e-3
 #: Largest number of boundary points before meshing is refused.
 MAX_BOUNDARY_POINTS = 400_000
+#: Largest number of elements a mesh may have before meshing is refused.
+MAX_ELEMENTS = 4_000_000
+#: Triangles of a graded mesh per boundary point, for the estimate before meshing (measured on
+#: plates with many small polygonal holes: 6.4 to 6.5; scripts/bench_limits.py).
+TRIANGLES_PER_BOUNDARY_POINT = 6.5
 
 
 def default_size(profile: Profile) -> float:
@@ -78,7 +85,7 @@ def _split_at_t_junctions(p: np.ndarray, seg: np.ndarray, tol: float) -> np.ndar
 
 
 def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.ndarray,
-                   seg_b: np.ndarray) -> np.ndarray:
+                   seg_b: np.ndarray, reach: float | None = None) -> np.ndarray:
     """Local material thickness seen from the midpoints of segments (a, b).
 
     A ray leaves each midpoint along each normal that points into the material and stops at
@@ -92,11 +99,14 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
         End points (k, 2) of the segments to measure from, drawing unit.
     seg_a, seg_b : numpy.ndarray
         End points (M, 2) of all boundary segments, drawing unit.
+    reach : float, optional
+        Look no further than this (a thicker wall does not change the mesh), drawing unit;
+        default twice the profile size.
 
     Returns
     -------
     numpy.ndarray
-        Thickness (k,), drawing unit; the profile size where no wall is found.
+        Thickness (k,), drawing unit; ``reach`` where no wall is found within it.
 
     """
     size = profile.size
@@ -106,33 +116,19 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
     normal = np.column_stack([-d[:, 1], d[:, 0]]) / np.maximum(length, 1e-300)[:, None]
     union = profile.geometry()
     shapely.prepare(union)
-    thickness = np.full(len(a), 2.0 * size)
+    reach = 2.0 * size if reach is None else min(float(reach), 2.0 * size)
+    thickness = np.full(len(a), reach)
     eps = 1e-7 * size
-    seg_lines = shapely.linestrings(np.stack([seg_a, seg_b], axis=1))
-    tree = shapely.STRtree(seg_lines)
-    reach = 2.0 * size
+    tree = shapely.STRtree(shapely.linestrings(np.stack([seg_a, seg_b], axis=1)))
     for sign in (1.0, -1.0):
         nvec = sign * normal
         inside = shapely.contains_xy(union, mid[:, 0] + eps * nvec[:, 0], mid[:, 1] + eps * nvec[:, 1])
         rays = np.flatnonzero(inside)
         if rays.size == 0:
             continue
-        start = mid[rays] + eps * nvec[rays]
-        end = mid[rays] + reach * nvec[rays]
-        lines = shapely.linestrings(np.stack([start, end], axis=1))
-        ray_i, seg_j = tree.query(lines, predicate="intersects")
-        r = rays[ray_i]
-        # ray p + t n against segment q + s e: solve the 2x2 system for t
-        p, n = mid[r], nvec[r]
-        q, e = seg_a[seg_j], seg_b[seg_j] - seg_a[seg_j]
-        det = n[:, 0] * (-e[:, 1]) + e[:, 0] * n[:, 1]
-        ok = np.abs(det) > 1e-300
-        w = q - p
-        t = np.where(ok, (w[:, 0] * (-e[:, 1]) + e[:, 0] * w[:, 1]) / np.where(ok, det, 1.0), np.inf)
-        t = np.where(t > 2 * eps, t, np.inf)
-        best = np.full(len(a), np.inf)
-        np.minimum.at(best, r, t)
-        thickness = np.minimum(thickness, best)
+        best = first_hits(seg_a, seg_b, mid[rays], nvec[rays], reach=reach, start=eps,
+                          t_min=2 * eps, tree=tree)
+        thickness[rays] = np.minimum(thickness[rays], best)
     return thickness
 
 
@@ -158,6 +154,40 @@ def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple[
     return np.vstack([p, new_pts]), np.column_stack([chain[t], chain[t + 1]])
 
 
+#: Nearest corners looked at first for each point by :func:`corner_target` (more where needed).
+CORNERS_NEAR = 8
+
+
+def corner_target(tree: cKDTree, h_corner: np.ndarray, grade: float, points: np.ndarray) -> np.ndarray:
+    """Exact min over corners k of h_k + grade * |point - corner k| at each point, drawing unit.
+
+    The nearest :data:`CORNERS_NEAR` corners (a k-d tree over the corners) give a candidate
+    minimum m; a corner further than (m - min h) / grade cannot do better, so the points whose
+    nearest corners do not reach that far are asked again with twice as many, until every
+    minimum is exact. Memory and time grow with the points times a few corners, not times all.
+
+    Examples
+    --------
+    >>> corners = np.array([[0.0, 0.0], [10.0, 0.0]])
+    >>> corner_target(cKDTree(corners), np.array([1.0, 0.1]), 0.5, np.array([[4.0, 0.0]])).tolist()
+    [3.0]
+    """
+    n_corners = len(h_corner)
+    out = np.empty(len(points))
+    todo = np.arange(len(points))
+    k = min(CORNERS_NEAR, n_corners)
+    h_min = float(h_corner.min())
+    while len(todo):
+        d, i = tree.query(points[todo], k=k)
+        d, i = d.reshape(len(todo), -1), i.reshape(len(todo), -1)
+        best = (h_corner[i] + grade * d).min(axis=1)
+        exact = (k == n_corners) | (d[:, -1] * grade >= best - h_min)
+        out[todo[exact]] = best[exact]
+        todo = todo[~exact]
+        k = min(2 * k, n_corners)
+    return out
+
+
 def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_corner: np.ndarray,
                       grade: float) -> tuple[np.ndarray, np.ndarray]:
     """Bisect boundary segments until each is shorter than h_c + grade * (distance to corner).
@@ -175,11 +205,13 @@ def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_co
     """
     if len(corners) == 0:
         return pts, sub
+    tree = cKDTree(corners)
     for _ in range(60):
+        if len(pts) > MAX_BOUNDARY_POINTS:
+            break  # refused by the caller, naming the count reached
         a, b = pts[sub[:, 0]], pts[sub[:, 1]]
         mid = 0.5 * (a + b)
-        d = np.linalg.norm(mid[:, None, :] - corners[None, :, :], axis=2)  # (s, k), k is small
-        target = (h_corner[None, :] + grade * d).min(axis=1)
+        target = corner_target(tree, h_corner, grade, mid)
         split = np.linalg.norm(b - a, axis=1) > target
         if not split.any():
             break

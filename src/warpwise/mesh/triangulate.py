@@ -5,6 +5,7 @@ from __future__ import annotations
 import numpy as np
 import shapely
 from meshpy import triangle
+from scipy.spatial import cKDTree
 
 from ..errors import ProfileError, UsageError
 from ..geometry.corners import reentrant_corners
@@ -14,7 +15,9 @@ from .sizing import (
     CORNER_GRADING,
     CORNER_SIZE_FACTOR,
     MAX_BOUNDARY_POINTS,
+    MAX_ELEMENTS,
     MIN_SIZE_FRACTION,
+    TRIANGLES_PER_BOUNDARY_POINT,
     check_boundary_budget,
     grade_to_corners,
     planar_graph,
@@ -44,6 +47,36 @@ def hole_seeds(part: Profile) -> list[np.ndarray]:
     return holes
 
 
+#: What to do about a mesh over the limits, for the messages.
+_LIMIT_ADVICE = ("give curved outlines more vertices (a turn of under 10 degrees at a vertex is "
+                 "no sharp corner) or draw them as arcs in a DXF, or analyse one part with --part N")
+
+
+def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h: float) -> None:
+    """Refuse, before meshing, a boundary or a mesh over the limits.
+
+    The limits are :data:`MAX_BOUNDARY_POINTS` and :data:`~warpwise.mesh.sizing.MAX_ELEMENTS`;
+    the elements are estimated from the boundary points and the area at size ``h`` (drawing
+    unit), over the whole profile when ``part`` is a mirrored half or quarter.
+
+    Raises
+    ------
+    UsageError
+        Naming the count, the limit, the sharp corners that asked for it and what helps.
+    """
+    graded = (f" graded towards {corners:,} sharp re-entrant corner{'s' if corners != 1 else ''}"
+              if corners else "")
+    if points > MAX_BOUNDARY_POINTS:
+        raise UsageError(f"the boundary needs more than {MAX_BOUNDARY_POINTS:,} points{graded} "
+                         f"(the limit); {_LIMIT_ADVICE}", file=full.source)
+    copies = full.area / max(part.area, 1e-300)
+    estimate = copies * (TRIANGLES_PER_BOUNDARY_POINT * points + part.area / (0.43 * h * h))
+    if estimate > MAX_ELEMENTS:
+        raise UsageError(f"the mesh would need about {estimate:,.0f} elements ({points * copies:,.0f} "
+                         f"boundary points{graded}), more than the limit of {MAX_ELEMENTS:,}; "
+                         f"{_LIMIT_ADVICE}", file=full.source)
+
+
 def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
                  refine_level: float = 1.0) -> tuple[
         np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -55,11 +88,12 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     # no element is asked to be smaller than MIN_SIZE_FRACTION of h (a wall thinning to nothing
     # would otherwise ask for endless boundary points)
     floor = MIN_SIZE_FRACTION * h
-    t1 = np.maximum(wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b),
-                    floor * across)
+    reach = 1.01 * across * h  # a wall thicker than this gets elements of size h all the same
+    t1 = np.maximum(wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b,
+                                   reach), floor * across)
     check_boundary_budget(vertices, seg, np.minimum(h, t1 / across), full)
     pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across))
-    t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b),
+    t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b, reach),
                     floor * across)
     check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)
     pts, sub = split_segments(pts, sub, np.minimum(h, t2 / across))
@@ -67,16 +101,13 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     if corners:
         cxy = np.array([(c.x, c.y) for c in corners])
         # size at the corner: a fraction of the local size there (wall thickness or h)
-        near = np.argmin(np.linalg.norm(pts[sub[:, 0]][:, None] - cxy[None], axis=2), axis=0)
+        near = cKDTree(pts[sub[:, 0]]).query(cxy)[1]  # the segment starting nearest each corner
         local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
         # the corner size shrinks faster than h under refinement (as h^2), which keeps the
         # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
         pts, sub = grade_to_corners(pts, sub, cxy, CORNER_SIZE_FACTOR * local / refine_level,
                                      CORNER_GRADING)
-    if len(pts) > MAX_BOUNDARY_POINTS:
-        raise UsageError(f"the boundary needs {len(pts):,} points after grading towards sharp "
-                         f"corners, more than the limit of {MAX_BOUNDARY_POINTS:,}",
-                         file=full.source)
+    check_mesh_budget(len(pts), len(corners), part, full, h)
     info = triangle.MeshInfo()
     info.set_points(pts)
     info.set_facets(sub)

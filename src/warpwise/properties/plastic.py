@@ -5,7 +5,8 @@ For bending with the neutral axis along a direction, the fully plastic stress bl
 two forces balance (for one material: where it halves the area). The plastic modulus is
 Wpl = int |d| dA, d the distance from the PNA; for several materials the plastic moment is
 Mpl = int fy |d| dA with the PNA from int fy sign(d) dA = 0. The integrals are taken exactly on
-the profile's polygons (shapely clipping), so they are exact for straight-sided outlines.
+the profile's polygons (Green's theorem on the boundary edges above the neutral axis, all edges
+at once), so they are exact for straight-sided outlines.
 
 Examples
 --------
@@ -23,6 +24,7 @@ from dataclasses import dataclass
 import numpy as np
 import shapely
 from shapely import affinity
+from shapely.geometry.polygon import orient
 
 from ..geometry.profile import Profile
 
@@ -58,42 +60,57 @@ class PlasticProperties:
     Mpl_2: float | None = None
 
 
-def _first_moment_about(polys: list[shapely.Polygon], weights: np.ndarray, yp: float,
-                        box: tuple[float, float, float, float]) -> tuple[float, float]:
-    """Weighted (force above - force below, int w |y - yp| dA) for a horizontal line y = yp."""
-    x0, y0, x1, y1 = box
-    net = 0.0
-    moment = 0.0
-    for poly, w in zip(polys, weights, strict=True):
-        up = shapely.clip_by_rect(poly, x0, yp, x1, y1)
-        down = shapely.clip_by_rect(poly, x0, y0, x1, yp)
-        a_up, a_dn = up.area, down.area
-        net += w * (a_up - a_dn)
-        if a_up > 0:
-            moment += w * a_up * (up.centroid.y - yp)
-        if a_dn > 0:
-            moment += w * a_dn * (yp - down.centroid.y)
-    return net, moment
+def _edges(polys: Sequence[shapely.Polygon], weights: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Every boundary edge (e, 2, 2), exterior counter-clockwise and holes clockwise, and its weight."""
+    out, w = [], []
+    for poly, weight in zip(polys, weights, strict=True):
+        poly = orient(poly, 1.0)
+        for ring in (poly.exterior, *poly.interiors):
+            xy = np.asarray(ring.coords)
+            out.append(np.stack([xy[:-1], xy[1:]], axis=1))
+            w.append(np.full(len(xy) - 1, weight))
+    return np.concatenate(out), np.concatenate(w)
+
+
+def _above(edges: np.ndarray, weights: np.ndarray, yp: float) -> tuple[float, float]:
+    """Weighted area and first moment int w y dA of the material above the line y = yp.
+
+    Green's theorem: area = closed integral of x dy, first moment = closed integral of x y dy
+    round the clipped boundary; its pieces along y = yp have dy = 0, so only the parts of the
+    edges above the line count, each integrated exactly (x is linear in y along an edge).
+    """
+    (xa, ya), (xb, yb) = edges[:, 0].T, edges[:, 1].T
+    lo, hi = np.maximum(np.minimum(ya, yb), yp), np.maximum(ya, yb)
+    keep = (hi > lo) & (yb != ya)
+    xa, ya, xb, yb, lo, hi, w = (v[keep] for v in (xa, ya, xb, yb, lo, hi, weights))
+    slope = (xb - xa) / (yb - ya)
+    sign = np.sign(yb - ya)
+    x_lo, x_hi = xa + slope * (lo - ya), xa + slope * (hi - ya)
+    area = sign * 0.5 * (x_lo + x_hi) * (hi - lo)
+    # int x y dy over [lo, hi] with x linear: Simpson's rule is exact for the quadratic
+    mid = 0.5 * (lo + hi)
+    moment = sign * (hi - lo) / 6.0 * (x_lo * lo + 4.0 * (0.5 * (x_lo + x_hi)) * mid + x_hi * hi)
+    return float(np.dot(w, area)), float(np.dot(w, moment))
 
 
 def _plastic_about_horizontal(polys: list[shapely.Polygon], weights: np.ndarray) -> tuple[float, float]:
     """PNA height and int w |y - yp| dA for a horizontal plastic neutral axis."""
-    bounds = np.array([p.bounds for p in polys])
-    x0, y0 = bounds[:, 0].min() - 1.0, bounds[:, 1].min()
-    x1, y1 = bounds[:, 2].max() + 1.0, bounds[:, 3].max()
-    pad = 1e-9 * max(y1 - y0, 1e-300)
-    box = (x0, y0 - pad, x1, y1 + pad)
+    edges, w = _edges(polys, weights)
+    total, first = _above(edges, w, -np.inf)
+    y0, y1 = float(edges[..., 1].min()), float(edges[..., 1].max())
     lo, hi = y0, y1
-    # bisection on the force balance, monotone in yp; 60 halvings reach round-off
+    # bisection on the force balance (above minus below), monotone in yp; 60 halvings reach
+    # round-off
     for _ in range(60):
         mid = 0.5 * (lo + hi)
-        net, _ = _first_moment_about(polys, weights, mid, box)
-        if net > 0:
+        if 2.0 * _above(edges, w, mid)[0] - total > 0:
             lo = mid
         else:
             hi = mid
     yp = 0.5 * (lo + hi)
-    return yp, _first_moment_about(polys, weights, yp, box)[1]
+    a_up, m_up = _above(edges, w, yp)
+    # int w |y - yp| dA = (M_up - yp A_up) + (yp A_down - M_down)
+    return yp, (m_up - yp * a_up) + (yp * (total - a_up) - (first - m_up))
 
 
 def plastic_properties(profile: Profile, alpha_deg: float = 0.0,

@@ -15,6 +15,11 @@ d(Theta)/dn = h . n on every boundary. In weak form (no boundary integral needed
 The stress field carries no torque about the elastic shear centre, which is therefore the point
 where Vx, Vy act without twisting the bar. Shear deformation follows from the complementary
 energy: int tau . tau dA = V^T C V, shear areas 1 / C, shear coefficients 1 / (A C).
+
+A section of several separate parts (``--all-parts``) bending as one needs longitudinal shear
+between the parts, which nothing carries: the flexure problem has no solution on each part
+alone (its load does not balance there). Its results are then not computed (nan, see
+:func:`not_computed`); J, the Trefftz shear centre and Cw are (:mod:`.torsion`).
 """
 
 from __future__ import annotations
@@ -131,6 +136,24 @@ def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     return np.column_stack(out)
 
 
+def not_computed(n_nodes: int, mats: ElementMaterials) -> ShearProperties:
+    """Shear properties of a section of separate parts: every value nan (not computed).
+
+    Parameters
+    ----------
+    n_nodes : int
+        Number of mesh nodes (the shear functions are nan at each).
+    mats : ElementMaterials
+        Element material data (Poisson's ratio).
+    """
+    nan = float("nan")
+    field = np.full(n_nodes, nan)
+    nu = float(mats.nu[0]) if not mats.composite else nan
+    return ShearProperties(poisson=nu, theta_x=field, theta_y=field, shear_centre=(nan, nan),
+                           flexibility=np.full((2, 2), nan), As_x=nan, As_y=nan, kappa_x=nan,
+                           kappa_y=nan, As_1=nan, As_2=nan, kappa_1=nan, kappa_2=nan, residual=0.0)
+
+
 def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
                      solver: PinnedSolver, mats: ElementMaterials) -> ShearProperties:
     """Solve both shear functions with the factorised stiffness and derive shear properties.
@@ -152,6 +175,8 @@ def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     -------
     ShearProperties
     """
+    if solver.n_parts > 1:
+        return not_computed(mesh.n_nodes, mats)
     loads = shear_loads(mesh, evc, geo, mats)
     theta = solver.solve(loads)
     residual = max(solver.residual(theta[:, k], loads[:, k]) for k in range(2))

@@ -9,6 +9,16 @@ The warping function psi solves, in weak form,
 ``f_i = int (y dN_i/dx - x dN_i/dy) dA``, which holds the Neumann condition
 d(psi)/dn = y n_x - x n_y on every boundary without any boundary integral (div(y, -x) = 0).
 Then ``J = Ix + Iy - psi^T K psi``.
+
+A section of several separate parts (taken as one with ``--all-parts``) has a warping function
+defined up to a constant on each part. J does not depend on the constants and is exactly the
+sum of the parts' J (each part twists with its own warping). The constants are fixed by a zero
+(modulus-weighted) mean on each part: each part, free to slide along the others, carries no
+axial force from warping. The shear centre and Cw then take the parts as held in shape in their
+plane (by end plates or diaphragms) and twisting about one axis, each part bending about its
+own centroid as it swings round that axis (as the flanges of an I-section do, Cw = If h^2 / 2):
+the Trefftz conditions use the sum of the parts' own second moments
+(:func:`own_second_moments`); for one part all of this is the usual definition.
 """
 
 from __future__ import annotations
@@ -47,13 +57,14 @@ class TorsionProperties:
     J : float
         Torsion constant, L^4.
     psi : numpy.ndarray
-        Nodal warping function about the centroid, zero mean, L^2.
+        Nodal warping function about the centroid, zero mean (on each part), L^2.
     shear_centre : tuple of float
         Shear centre (Trefftz definition) in drawing coordinates, L.
     Cw : float
         Warping constant int omega^2 dA, L^6.
     omega : numpy.ndarray
-        Nodal warping function about the shear centre, zero mean (sectorial coordinate), L^2.
+        Nodal warping function about the shear centre, zero mean on each part (sectorial
+        coordinate), L^2.
     omega_max : float
         Largest |omega| over the nodes, L^2.
     beta_1, beta_2 : float
@@ -89,9 +100,55 @@ def torsion_load(mesh: Mesh, evc: ElementValues, weight: np.ndarray | None = Non
 
 
 def zero_mean(mesh: Mesh, evc: ElementValues, nodal: np.ndarray, area: float,
-              weight: np.ndarray | None = None) -> np.ndarray:
-    """Shift a nodal field so that its (weighted) integral over the section is zero."""
-    return nodal - integrate(evc, interpolate(mesh, evc, nodal), weight) / area
+              weight: np.ndarray | None = None, parts: np.ndarray | None = None) -> np.ndarray:
+    """Shift a nodal field so that its (weighted) integral over the section is zero.
+
+    With ``parts`` (the connected part of each node, the ``labels`` of
+    :class:`~warpwise.fem.solve.PinnedSolver`), each part is shifted by its own constant
+    so that the integral over each part is zero; ``area`` is then not used.
+    """
+    if parts is None or not len(parts) or parts.max() == 0:
+        return nodal - integrate(evc, interpolate(mesh, evc, nodal), weight) / area
+    w = evc.dA if weight is None else evc.dA * weight[:, None]
+    part = parts[mesh.elements[:, 0]]
+    sums = np.bincount(part, weights=np.einsum("mq,mq->m", w, interpolate(mesh, evc, nodal)))
+    areas = np.bincount(part, weights=w.sum(axis=1))
+    return nodal - (sums / areas)[parts]
+
+
+def own_second_moments(mesh: Mesh, evc: ElementValues, parts: np.ndarray,
+                       weight: np.ndarray | None = None) -> tuple[float, float, float]:
+    """Sum over the parts of each part's second moments about its own centroid, L^4.
+
+    Parameters
+    ----------
+    mesh : Mesh
+        The mesh.
+    evc : ElementValues
+        Basis values in centroidal coordinates.
+    parts : numpy.ndarray
+        Connected part of each node (n,).
+    weight : numpy.ndarray, optional
+        Element modulus ratios (m,) of a composite section.
+
+    Returns
+    -------
+    (float, float, float)
+        (sum int (y - y_k)^2, sum int (x - x_k)^2, sum int (x - x_k)(y - y_k)) dA, the Ix, Iy,
+        Ixy of the parts each about its own (weighted) centroid (x_k, y_k); for one part the
+        centroidal Ix, Iy, Ixy.
+    """
+    w = evc.dA if weight is None else evc.dA * weight[:, None]
+    part = parts[mesh.elements[:, 0]]
+    x, y = evc.xy[..., 0], evc.xy[..., 1]
+
+    def by_part(f: np.ndarray) -> np.ndarray:
+        return np.bincount(part, weights=np.einsum("mq,mq->m", w, f))
+
+    a, sx, sy = by_part(np.ones_like(x)), by_part(x), by_part(y)
+    return (float(by_part(y * y).sum() - (sy * sy / a).sum()),
+            float(by_part(x * x).sum() - (sx * sx / a).sum()),
+            float(by_part(x * y).sum() - (sx * sy / a).sum()))
 
 
 def torsion_properties(
@@ -122,19 +179,23 @@ def torsion_properties(
     """
     psi = solver.solve(load)
     residual = solver.residual(psi, load)
-    psi = zero_mean(mesh, evc, psi, geo.A, wE)
+    parts = solver.labels if solver.n_parts > 1 else None
+    psi = zero_mean(mesh, evc, psi, geo.A, wE, parts)
     x, y = evc.xy[..., 0], evc.xy[..., 1]
     Ip_G = integrate(evc, x * x + y * y, wG)
     J = Ip_G - float(psi @ load)
     psi_q = interpolate(mesh, evc, psi)
     I_psi_x, I_psi_y = integrate(evc, psi_q * x, wE), integrate(evc, psi_q * y, wE)
-    # Trefftz: omega = psi - y0 x + x0 y is orthogonal to x and y
-    det = geo.Ix * geo.Iy - geo.Ixy**2
-    x0 = (geo.Ixy * I_psi_x - geo.Iy * I_psi_y) / det
-    y0 = (geo.Ix * I_psi_x - geo.Ixy * I_psi_y) / det
+    # Trefftz: omega = psi - y0 x + x0 y (zero mean on each part) is orthogonal to x and y;
+    # with several parts each part's own second moments count (see the module notes)
+    Ix, Iy, Ixy = (geo.Ix, geo.Iy, geo.Ixy) if parts is None else own_second_moments(
+        mesh, evc, parts, wE)
+    det = Ix * Iy - Ixy**2
+    x0 = (Ixy * I_psi_x - Iy * I_psi_y) / det
+    y0 = (Ix * I_psi_x - Ixy * I_psi_y) / det
     local = mesh.nodes - np.array(geo.centroid)
     omega = psi - y0 * local[:, 0] + x0 * local[:, 1]
-    omega = zero_mean(mesh, evc, omega, geo.A, wE)
+    omega = zero_mean(mesh, evc, omega, geo.A, wE, parts)
     Cw = integrate(evc, interpolate(mesh, evc, omega) ** 2, wE)
     centre = (geo.centroid[0] + x0, geo.centroid[1] + y0)
     beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0), wE)
@@ -175,5 +236,5 @@ def wagner_constants(evc: ElementValues, geo: GeometricProperties,
     return float(beta_1), float(beta_2)
 
 
-__all__ = ["TorsionProperties", "cw_round_off", "torsion_load", "torsion_properties", "wagner_constants",
-           "zero_mean"]
+__all__ = ["TorsionProperties", "cw_round_off", "own_second_moments", "torsion_load",
+           "torsion_properties", "wagner_constants", "zero_mean"]

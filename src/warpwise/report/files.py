@@ -50,7 +50,8 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
         if q.key not in in_points and v[q.key] == v[q.key]:
             obj[q.key] = v[q.key]
     for name, (kx, ky) in JSON_POINTS.items():
-        obj[name] = [v[kx], v[ky]]
+        if v[kx] == v[kx]:  # a point not computed (nan) is left out too
+            obj[name] = [v[kx], v[ky]]
     obj["mesh"] = {"nodes": rec.nodes, "elements": rec.elements, "size": rec.mesh_size}
     obj["notes"] = list(rec.remarks)
     obj["warnings"] = list(rec.warnings)

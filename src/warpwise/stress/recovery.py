@@ -23,6 +23,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import UsageError
 from ..fem.p2 import nodal_gradient
 from ..properties.analysis import SectionResult
 from ..properties.shear import bending_gradients, split_field
@@ -88,6 +89,10 @@ def shear_components(result: SectionResult, loads: Loads, local: np.ndarray, c: 
     if loads.T:
         out += loads.T * shear_per_torque(gradient_of(result.torsion.psi), local, result.torsion.J)
     if loads.Vx or loads.Vy:
+        if result.solver.n_parts > 1:
+            raise UsageError(f"shear forces on {result.solver.n_parts} separate parts taken as one "
+                             "section are not computed (the parts would need joining along the "
+                             "bar): analyse one part with --part N", file=result.profile.source)
         theta = loads.Vx * result.shear.theta_x + loads.Vy * result.shear.theta_y
         a, b = np.array([loads.Vx, loads.Vy]) @ bending_gradients(result.weighted)
         out += gradient_of(theta) - split_field(local, a, b, c)

@@ -16,12 +16,12 @@ from collections import Counter
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
-from ...errors import ProfileError, UsageError
+from ...errors import ProfileError
 from ...geometry.profile import Profile, default_element_size, profile_from_loops
 from ..chords import arcs_for_mesh, chord_error, loop_points
-from ..defects import Defect, fmt, plural
+from ..defects import Defect, fmt
 from ..files import check_assumed_size
-from ..nesting import Part, describe_part
+from ..nesting import PARTS_IN_MESSAGE, Part, choose_part, describe_part, parts_note, separate_parts_error
 from ..pieces import Piece
 from .layout import FRAME, JOIN_TOLERANCE, Layout, Loop
 
@@ -32,8 +32,6 @@ MIN_CHORD_PER_MESH_SIZE = 1e-7
 #: Relative area the chords of all curves may change (half of the 1e-4 promised, as margin for
 #: curves flattened by ezdxf).
 CHORD_AREA_BUDGET = 0.5e-4
-#: Largest number of parts named in a message.
-PARTS_IN_MESSAGE = 10
 
 
 class DrawingError(ProfileError):
@@ -90,18 +88,6 @@ class DxfProfile:
     chord_tolerance: float
     join_tolerance: float
     part: int | None = None
-
-
-def _parts_text(layout: Layout) -> str:
-    unit = layout.drawing.units.unit
-    items = []
-    for k, p in enumerate(layout.parts[:PARTS_IN_MESSAGE]):
-        holes = f", {plural(p.holes, 'hole')}" if p.holes else ""
-        items.append(describe_part(k + 1, p.bounds, p.area, unit) + holes)
-    more = len(layout.parts) - PARTS_IN_MESSAGE
-    if more > 0:
-        items.append(f"and {more} more")
-    return "; ".join(items)
 
 
 def _layers_text(layout: Layout) -> str:
@@ -182,17 +168,13 @@ def build_profile(layout: Layout, *, part: int | None = None, all_parts: bool = 
     """
     d = layout.drawing
     name = d.source
-    if part is not None and all_parts:
-        raise UsageError("give either a part number or all parts, not both")
     hint = f"run 'warpwise check {name}' to list and plot them"
     layer_hint = (f"; to use only some layers give --layer NAME (layers: {_layers_text(layout)})"
                   if len(d.layers) > 1 else "")
     if not layout.loops:
         raise _no_loop_error(layout, layer_hint)
     parts = layout.parts
-    if part is not None and not 1 <= part <= len(parts):
-        raise UsageError(f"part {part} does not exist: the drawing has {len(parts)} "
-                         f"part{'s' if len(parts) != 1 else ''}", file=name)
+    choose_part(parts, part, all_parts, name, holder="drawing")  # refuses a part out of range
     number = part
     if part is None and not all_parts and len(parts) > 1 and len(layout.hatched) == 1:
         number = layout.hatched[0] + 1  # the one cut section of the sheet
@@ -295,10 +277,8 @@ def _several_parts_error(layout: Layout, layer_hint: str) -> ProfileError:
             f"the drawing holds {len(hatched)} hatched sections ({which}) among {len(parts)} parts"
             f"{frame}; analyse one with --part N ({listing}), or every part as one section with "
             "--all-parts", file=d.source)
-    return ProfileError(
-        f"the drawing holds {len(parts)} separate parts ({_parts_text(layout)}) and no hatch marks "
-        f"one as the section{frame}; analyse one with --part N ({listing}), or all as one section "
-        f"with --all-parts{layer_hint}", file=d.source)
+    return separate_parts_error(parts, d.units.unit, d.source, holder="drawing", numbering=listing,
+                                why=f" and no hatch marks one as the section{frame}", advice=layer_hint)
 
 
 def _notes(layout: Layout, part: int | None, asked: bool, s: float, curved: float, hint: str) -> list[str]:
@@ -310,10 +290,8 @@ def _notes(layout: Layout, part: int | None, asked: bool, s: float, curved: floa
     if part is not None and asked:
         notes.append(f"part {part} of {len(layout.parts)} taken as the section: the only hatched part "
                      "(a cut section is drawn hatched); choose another with --part N")
-    elif part is not None:
-        notes.append(f"part {part} of {len(layout.parts)}")
-    elif len(layout.parts) > 1:
-        notes.append(f"all {len(layout.parts)} parts analysed as one section")
+    elif (taken := parts_note(part, len(layout.parts))) is not None:
+        notes.append(taken)
     if d.skipped:
         notes.append("left out (not geometry): " + ", ".join(
             f"{n} {t}" for t, n in sorted(d.skipped.items())))
