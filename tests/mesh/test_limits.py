@@ -25,4 +25,5 @@ def test_corner_grading_respects_the_boundary_point_limit(monkeypatch):
     assert str(exc.value) == (
         f"<profile>: the boundary needs more than {graded // 2:,} points graded towards 1 sharp "
         "re-entrant corner (the limit); give curved outlines more vertices (a turn of under 10 degrees at a "
-        "vertex is no sharp corner) or draw them as arcs in a DXF, or analyse one part with --part N")
+        "vertex is no sharp corner) or draw them as arcs in a DXF, or analyse one part with --part N; "
+        f"--max-elements N lifts the limit (now 4,000,000 elements, {graded // 2:,} boundary points)")

@@ -16,7 +16,7 @@ from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue, usa
 from ..errors import UsageError, WarpwiseError
 from ..geometry.shapes import describe_shapes, shape_from_spec
 from ..io.check import check_file, format_report
-from ..io.progress import bar
+from ..io.progress import Running, bar
 from ..materials import check_plausible
 from ..member import MemberLoads, check_member, extremes, solve_member, stations
 from ..properties.about_axis import axis_properties
@@ -104,7 +104,11 @@ def run_props(args: argparse.Namespace) -> int:
     reading, options = read_options(args), analysis_options(args)
     profiles = [reading.load(f) for f in args.files]
     profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
-    results = [run_analysis(p, options) for p in profiles]
+    results = []
+    with Running("analysing") as running:
+        for k, p in enumerate(profiles, 1):
+            running.step(f"analysing {p.source} ({k} of {len(profiles)})")
+            results.append(run_analysis(p, options))
     records = [record_of(r) for r in results]
     _warn(records)
     axes = _about_axis(args, results)

@@ -118,6 +118,9 @@ def _input_options(p: argparse.ArgumentParser) -> None:
     """Mesh size, input unit and what of a DXF drawing is the profile."""
     p.add_argument("--mesh-size", type=positive_float, metavar="H",
                    help="largest element size in the drawing unit (default: chosen from the profile)")
+    p.add_argument("--max-elements", type=positive_int, metavar="N",
+                   help="largest mesh any step may build, in elements (default 4,000,000; the "
+                        "limit of boundary points, 400,000, scales with it)")
     p.add_argument("--units", choices=sorted(LENGTH_UNITS),
                    help="length unit of the input coordinates (default: from the file, else mm)")
     p.add_argument("--layer", action="append", metavar="NAME",
@@ -358,4 +361,5 @@ def analysis_options(args: argparse.Namespace, *, bounds: bool = True) -> Analys
         materials=read_materials(args.materials) if args.materials else {},
         reference=args.reference, solver=args.solver, bounds=bounds,
         estimate_errors=getattr(args, "estimate_errors", False),
-        target_error=getattr(args, "target_error", None))
+        target_error=getattr(args, "target_error", None),
+        **({"max_elements": args.max_elements} if getattr(args, "max_elements", None) else {}))

@@ -83,3 +83,61 @@ class ProgressLine:
             self.stream.write("\r" + " " * self.width + "\r")
             self.stream.flush()
             self.width = 0
+
+
+class Running:
+    """A line on stderr while one long step runs: ``what ... 12 s``, from a timer thread.
+
+    For a step that reports no counts (an analysis): the line appears only when stderr is a
+    terminal and the step has taken longer than ``delay`` seconds, shows the seconds spent,
+    and is cleared when the step ends. Use as a context manager; :meth:`step` names the part
+    being worked on.
+
+    Parameters
+    ----------
+    what : str
+        The step, e.g. ``analysing plate.dxf``.
+    stream : text stream, optional
+        Where the line goes (default ``sys.stderr``).
+    delay : float
+        Seconds before the line first appears (default :data:`PROGRESS_DELAY`).
+    """
+
+    def __init__(self, what: str, stream: TextIO | None = None,
+                 delay: float = PROGRESS_DELAY) -> None:
+        import threading
+
+        self.line = ProgressLine(what, 0, "", stream=stream, delay=delay)
+        self.what = what
+        self.start = time.perf_counter()
+        self._stop = threading.Event()
+        self._lock = threading.Lock()
+        self._thread = threading.Thread(target=self._run, daemon=True) if self.line.on else None
+
+    def step(self, what: str) -> None:
+        """Name the part of the work now running (shown on the next refresh)."""
+        self.what = what
+
+    def _run(self) -> None:
+        line = self.line
+        if self._stop.wait(max(0.0, line.due - time.perf_counter())):
+            return
+        while not self._stop.is_set():
+            with self._lock:
+                text = f"{self.what} ... {time.perf_counter() - self.start:.0f} s"
+                line.stream.write("\r" + text.ljust(line.width))
+                line.stream.flush()
+                line.width = max(line.width, len(text))
+            self._stop.wait(1.0)
+
+    def __enter__(self) -> Running:
+        if self._thread is not None:
+            self._thread.start()
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        self._stop.set()
+        if self._thread is not None:
+            self._thread.join()
+        with self._lock:
+            self.line.close()

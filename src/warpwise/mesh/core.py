@@ -131,7 +131,8 @@ def boundary_edges(elements: np.ndarray, region: np.ndarray | None = None) -> np
 
 
 def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1.0,
-               min_angle: float = 30.0, use_symmetry: bool = True) -> Mesh:
+               min_angle: float = 30.0, use_symmetry: bool = True,
+               max_elements: int = MAX_ELEMENTS) -> Mesh:
     """Mesh a profile into six-node triangles.
 
     Parameters
@@ -149,6 +150,9 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
     use_symmetry : bool
         Mesh one half (or quarter) of a mirror-symmetric profile and mirror it, so that the
         mesh and the results are symmetric to round-off.
+    max_elements : int
+        Largest number of elements (``--max-elements``); the boundary-point limit scales with
+        it. Default :data:`MAX_ELEMENTS`.
 
     Returns
     -------
@@ -166,10 +170,11 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
         raise UsageError(f"refinement factor must be a positive number, got {refine!r}")
     h /= refine
     estimate = profile.area / (0.43 * h * h)
-    if estimate > MAX_ELEMENTS:
+    if estimate > max_elements:
         raise UsageError(
             f"mesh size {h:.4g} would give about {estimate:.3g} elements, more than the limit "
-            f"of {MAX_ELEMENTS:,}; choose a larger --mesh-size", file=profile.source,
+            f"of {max_elements:,}; choose a larger --mesh-size (--max-elements N lifts the limit)",
+            file=profile.source,
         )
     axes = symmetry_axes(profile) if use_symmetry else []
     if axes:
@@ -177,7 +182,7 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
     else:
         part, origin = profile, list(range(len(profile.regions)))
     nodes, tris, segs, region = triangulate(part, profile, h, min_angle,
-                                             ELEMENTS_ACROSS_WALL * refine, refine)
+                                             ELEMENTS_ACROSS_WALL * refine, refine, max_elements)
     tri = Triangulation(nodes, tris, segs, part, tuple(origin), tuple(axes), profile)
     return _quadratic_mesh(tri, region, h)
 

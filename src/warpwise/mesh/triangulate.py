@@ -52,12 +52,14 @@ _LIMIT_ADVICE = ("give curved outlines more vertices (a turn of under 10 degrees
                  "no sharp corner) or draw them as arcs in a DXF, or analyse one part with --part N")
 
 
-def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h: float) -> None:
+def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h: float,
+                      max_elements: int = MAX_ELEMENTS) -> None:
     """Refuse, before meshing, a boundary or a mesh over the limits.
 
     The limits are :data:`MAX_BOUNDARY_POINTS` and :data:`~warpwise.mesh.sizing.MAX_ELEMENTS`;
     the elements are estimated from the boundary points and the area at size ``h`` (drawing
-    unit), over the whole profile when ``part`` is a mirrored half or quarter.
+    unit), over the whole profile when ``part`` is a mirrored half or quarter. ``max_elements``
+    (``--max-elements``) replaces the element limit and scales the boundary limit with it.
 
     Raises
     ------
@@ -66,19 +68,22 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
     """
     graded = (f" graded towards {corners:,} sharp re-entrant corner{'s' if corners != 1 else ''}"
               if corners else "")
-    if points > MAX_BOUNDARY_POINTS:
-        raise UsageError(f"the boundary needs more than {MAX_BOUNDARY_POINTS:,} points{graded} "
-                         f"(the limit); {_LIMIT_ADVICE}", file=full.source)
+    max_points = max(1, round(MAX_BOUNDARY_POINTS * max_elements / MAX_ELEMENTS))
+    if points > max_points:
+        raise UsageError(f"the boundary needs more than {max_points:,} points{graded} "
+                         f"(the limit); {_LIMIT_ADVICE}; --max-elements N lifts the limit "
+                         f"(now {max_elements:,} elements, {max_points:,} boundary points)",
+                         file=full.source)
     copies = full.area / max(part.area, 1e-300)
     estimate = copies * (TRIANGLES_PER_BOUNDARY_POINT * points + part.area / (0.43 * h * h))
-    if estimate > MAX_ELEMENTS:
+    if estimate > max_elements:
         raise UsageError(f"the mesh would need about {estimate:,.0f} elements ({points * copies:,.0f} "
-                         f"boundary points{graded}), more than the limit of {MAX_ELEMENTS:,}; "
-                         f"{_LIMIT_ADVICE}", file=full.source)
+                         f"boundary points{graded}), more than the limit of {max_elements:,}; "
+                         f"{_LIMIT_ADVICE}; --max-elements N lifts the limit", file=full.source)
 
 
 def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
-                 refine_level: float = 1.0) -> tuple[
+                 refine_level: float = 1.0, max_elements: int = MAX_ELEMENTS) -> tuple[
         np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
     vertices, seg = planar_graph(part)
@@ -107,7 +112,7 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
         # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
         pts, sub = grade_to_corners(pts, sub, cxy, CORNER_SIZE_FACTOR * local / refine_level,
                                      CORNER_GRADING)
-    check_mesh_budget(len(pts), len(corners), part, full, h)
+    check_mesh_budget(len(pts), len(corners), part, full, h, max_elements)
     info = triangle.MeshInfo()
     info.set_points(pts)
     info.set_facets(sub)

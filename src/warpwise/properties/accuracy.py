@@ -21,6 +21,7 @@ import numpy as np
 
 from ..errors import UsageError
 from ..geometry.profile import Profile
+from ..mesh.core import MAX_ELEMENTS
 from .analysis import SectionResult, analyse
 from .shear import DEFAULT_POISSON
 
@@ -128,7 +129,7 @@ def richardson(q1: float, q2: float, q3: float, ratio: float) -> tuple[float, fl
 
 def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine: float = 1.0,
                     poisson: float = DEFAULT_POISSON, bounds: bool = False,
-                    solver: str = "auto") -> ErrorEstimate:
+                    solver: str = "auto", max_elements: int = MAX_ELEMENTS) -> ErrorEstimate:
     """Analyse a profile at ``refine`` and estimate the error of its main values.
 
     Parameters
@@ -145,6 +146,8 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
         Also compute the Prandtl lower bound on J for the first mesh.
     solver : str
         Linear solver (see :class:`warpwise.fem.solve.SPDFactor`).
+    max_elements : int
+        Largest mesh built, the finest one included (``--max-elements``).
 
     Returns
     -------
@@ -152,9 +155,10 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
         The result at ``refine`` and the estimated errors; costs about 7 analyses
         (meshes with 1, 2 and 4 times the elements).
     """
-    first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds, solver=solver)
-    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson, solver=solver)
-            for k in (1, 2)]
+    first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds, solver=solver,
+                    max_elements=max_elements)
+    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson, solver=solver,
+                    max_elements=max_elements) for k in (1, 2)]
     qs = [_quantities(r) for r in (first, *rest)]
     size = profile.size
     rel, rate, extra = {}, {}, {}

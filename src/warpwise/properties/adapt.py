@@ -116,7 +116,7 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
     """
     if not (np.isfinite(tolerance) and 0 < tolerance < 1):
         raise UsageError(f"tolerance must lie in (0, 1), got {tolerance}")
-    mesh = build_mesh(profile, mesh_size)
+    mesh = build_mesh(profile, mesh_size, max_elements=max_elements)
     history: list[tuple[int, float, float, float]] = []
     stopped = STEP_LIMIT
     for _ in range(max_steps):

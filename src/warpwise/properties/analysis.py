@@ -27,7 +27,7 @@ from ..fem.solve import PinnedSolver
 from ..geometry.corners import Corner, reentrant_corners
 from ..geometry.profile import Profile
 from ..materials import ElementMaterials, Material, check_poisson, resolve
-from ..mesh.core import Mesh, build_mesh
+from ..mesh.core import MAX_ELEMENTS, Mesh, build_mesh
 from .bounds import prandtl_lower_bound
 from .buckling import BucklingConstants, buckling_constants
 from .geometric import GeometricProperties, geometric_properties
@@ -278,7 +278,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
             poisson: float = DEFAULT_POISSON, bounds: bool = False,
             refine: float = 1.0, solver: str = "auto",
             materials: Material | Sequence[Material] | None = None,
-            reference: str | None = None) -> SectionResult:
+            reference: str | None = None, max_elements: int = MAX_ELEMENTS) -> SectionResult:
     """Mesh a profile and compute its geometric, torsion and warping properties.
 
     Parameters
@@ -308,6 +308,8 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     bounds : bool
         Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
         (``torsion.J_low``; J itself is the upper bound).
+    max_elements : int
+        Largest mesh built (``--max-elements``; see :func:`warpwise.mesh.build_mesh`).
 
     Returns
     -------
@@ -325,7 +327,7 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     clock = _Clock()
     check_poisson(poisson, file=profile.source)
     if mesh is None:
-        mesh = build_mesh(profile, mesh_size, refine=refine)
+        mesh = build_mesh(profile, mesh_size, refine=refine, max_elements=max_elements)
     clock.lap("mesh")
     mats = element_materials(profile, mesh, poisson, materials, reference)
     x0, y0, x1, y1 = profile.bounds

@@ -26,6 +26,7 @@ from ..errors import UsageError, WarpwiseError
 from ..fem.solve import METHODS
 from ..geometry.profile import Profile
 from ..materials import Material, check_poisson, resolve
+from ..mesh.core import MAX_ELEMENTS
 from .accuracy import estimate_errors, refinement_for
 from .adapt import refine_adaptively
 from .analysis import SectionResult, analyse
@@ -58,6 +59,9 @@ class AnalysisOptions:
         Estimate the errors of the main values (about 7 times the work).
     target_error : float or None
         Refine adaptively until J is certainly within this relative error.
+    max_elements : int
+        Largest mesh any step builds (``--max-elements``; default :data:`MAX_ELEMENTS`); the
+        boundary-point limit scales with it.
     """
 
     mesh_size: float | None = None
@@ -70,6 +74,7 @@ class AnalysisOptions:
     bounds: bool = True
     estimate_errors: bool = False
     target_error: float | None = None
+    max_elements: int = MAX_ELEMENTS
 
     def __post_init__(self) -> None:
         """Refuse options that cannot be right before any work is done."""
@@ -79,6 +84,9 @@ class AnalysisOptions:
             raise UsageError(f"unknown solver {self.solver!r} (use {', '.join(METHODS)})")
         if self.target_error is not None and not 0 < self.target_error < 1:
             raise UsageError(f"target error must lie in (0, 1), got {self.target_error}")
+        if isinstance(self.max_elements, bool) or not isinstance(self.max_elements, int) \
+                or self.max_elements < 1:
+            raise UsageError(f"the element limit must be a positive whole number, got {self.max_elements!r}")
         if self.mesh_size is not None and not (np.isfinite(self.mesh_size) and self.mesh_size > 0):
             raise UsageError(f"mesh size must be a positive number, got {self.mesh_size}")
 
@@ -146,14 +154,17 @@ def run_analysis(profile: Profile, options: AnalysisOptions | None = None) -> Se
         nu, refine = options.nu, options.refine
         mats = profile_materials(profile, options)
         kwargs = {"poisson": nu, "materials": mats, "reference": options.reference,
-                  "solver": options.solver, "bounds": options.bounds}
+                  "solver": options.solver, "bounds": options.bounds,
+                  "max_elements": options.max_elements}
         if options.target_error:
             run = refine_adaptively(geometry_only(profile), options.target_error,
-                                    options.mesh_size, poisson=nu, solver=options.solver)
+                                    options.mesh_size, poisson=nu, solver=options.solver,
+                                    max_elements=options.max_elements)
             return replace(analyse(profile, mesh=run.result.mesh, **kwargs), target=run.status)
         if options.estimate_errors:
             est = estimate_errors(geometry_only(profile), options.mesh_size, refine=refine,
-                                  poisson=nu, bounds=options.bounds, solver=options.solver)
+                                  poisson=nu, bounds=options.bounds, solver=options.solver,
+                                  max_elements=options.max_elements)
             if mats is None:
                 return est.result
             res = analyse(profile, options.mesh_size, refine=refine, **kwargs)
