@@ -158,8 +158,8 @@ CASES = {c.file: c for c in [
     Case("loop_of_two_points.txt", "0 0\n10 0\n", ("2 distinct point", "at least 3")),
     Case("loop_of_two_points.dxf", lambda p: _dxf(p, ([(0, 0), (40, 0)], True)), ("no area",)),
     # numbers
-    Case("nan.txt", "0 0\n10 0\nnan 10\n0 10\n", ("line 3", "non-finite")),
-    Case("inf.txt", "0 0\n10 0\n10 -inf\n0 10\n", ("line 3", "non-finite")),
+    Case("nan.txt", "0 0\n10 0\nnan 10\n0 10\n", ("line 3", "not a pair of numbers")),
+    Case("inf.txt", "0 0\n10 0\n10 -inf\n0 10\n", ("line 3", "not a pair of numbers")),
     Case("nan.dxf", _dxf_nan, ("not a finite number",)),
     Case("coordinates_1e12.txt", "0 0\n1e12 0\n1e12 1e12\n0 1e12\n", ("1e+12", "limit")),
     Case("coordinates_1e12.dxf",

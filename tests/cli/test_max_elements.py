@@ -31,12 +31,11 @@ def test_a_small_limit_refuses_and_names_the_option(cli):
     assert "more than the limit of 50" in err and "--max-elements N lifts the limit" in err
 
 
-def test_the_boundary_limit_scales_with_it(cli, tmp_path):
+def test_the_limit_refuses_before_meshing_and_lifts(cli, tmp_path):
     path = plate_with_holes(tmp_path)
-    # 400,000 boundary points at 4,000,000 elements: 100 points at 1,000 elements
     code, _, err = cli("props", path, "--max-elements", "1000")
     assert code == 2
-    assert "the boundary needs more than 100 points" in err and "--max-elements N lifts" in err
+    assert "more than the limit of 1,000" in err and "--max-elements N lifts" in err
     code, out, err = cli("props", path, "--max-elements", "100000", "--json")
     assert code == 0, err
     # closed form: 200 x 20 less 12 regular 24-gons of circumradius 2 (24/2 r^2 sin(2 pi/24))
@@ -44,6 +43,21 @@ def test_the_boundary_limit_scales_with_it(cli, tmp_path):
     # 1e-7: the hole vertices are written to 6 decimals, up to 5e-7 off each, so the area may be
     # off by about 5e-7 times the holes' perimeter (151 mm): 8e-5 mm2 = 2e-8 of A
     assert json.loads(out)["A"] == pytest.approx(4000 - 12 * hole, rel=1e-7)
+
+
+def test_a_larger_limit_lifts_the_boundary_limit_in_proportion(monkeypatch):
+    from warpwise.errors import UsageError as Refused
+    from warpwise.geometry.profile import profile_from_loops
+    from warpwise.mesh import triangulate
+    from warpwise.mesh.core import build_mesh
+
+    bar = profile_from_loops([[(0, 0), (30, 0), (30, 4), (4, 4), (4, 30), (0, 30)]])
+    points = len(build_mesh(bar).triangulation.segments)
+    monkeypatch.setattr(triangulate, "MAX_BOUNDARY_POINTS", points // 2)
+    with pytest.raises(Refused, match="--max-elements N lifts the limit"):
+        build_mesh(bar)
+    # twice the default element limit: twice the boundary points, enough here
+    assert build_mesh(bar, max_elements=2 * triangulate.MAX_ELEMENTS).n_elements > 0
 
 
 def test_estimates_and_adaptive_runs_keep_within_it(cli):

@@ -74,7 +74,8 @@ def test_plate_with_10000_holes_is_refused_naming_the_counts(tmp_path):
         f"warpwise: error: {f}: the boundary needs more than 400,000 points graded towards "
         "120,000 sharp re-entrant corners (the limit); give curved outlines more vertices (a turn "
         "of under 10 degrees at a vertex is no sharp corner) or draw them as arcs in a DXF, or "
-        "analyse one part with --part N")
+        "analyse one part with --part N; --max-elements N lifts the limit (now 4,000,000 elements, "
+        "400,000 boundary points)")
 
 
 def test_dense_loop_below_the_vertex_count_is_left_alone():

@@ -59,7 +59,8 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
     The limits are :data:`MAX_BOUNDARY_POINTS` and :data:`~warpwise.mesh.sizing.MAX_ELEMENTS`;
     the elements are estimated from the boundary points and the area at size ``h`` (drawing
     unit), over the whole profile when ``part`` is a mirrored half or quarter. ``max_elements``
-    (``--max-elements``) replaces the element limit and scales the boundary limit with it.
+    (``--max-elements``) replaces the element limit; above the default it lifts the boundary
+    limit in proportion.
 
     Raises
     ------
@@ -68,7 +69,9 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
     """
     graded = (f" graded towards {corners:,} sharp re-entrant corner{'s' if corners != 1 else ''}"
               if corners else "")
-    max_points = max(1, round(MAX_BOUNDARY_POINTS * max_elements / MAX_ELEMENTS))
+    # a larger element limit lifts the boundary limit with it; a smaller one leaves it (small
+    # meshes have many boundary points per element)
+    max_points = round(MAX_BOUNDARY_POINTS * max(1.0, max_elements / MAX_ELEMENTS))
     if points > max_points:
         raise UsageError(f"the boundary needs more than {max_points:,} points{graded} "
                          f"(the limit); {_LIMIT_ADVICE}; --max-elements N lifts the limit "

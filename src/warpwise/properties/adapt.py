@@ -116,7 +116,11 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
     """
     if not (np.isfinite(tolerance) and 0 < tolerance < 1):
         raise UsageError(f"tolerance must lie in (0, 1), got {tolerance}")
-    mesh = build_mesh(profile, mesh_size, max_elements=max_elements)
+    # the pre-mesh estimate is cautious (about twice the count): count the mesh built instead
+    mesh = build_mesh(profile, mesh_size, max_elements=max(max_elements, MAX_ELEMENTS))
+    if mesh.n_elements > max_elements:
+        raise UsageError(f"the starting mesh has {mesh.n_elements:,} elements, more than the limit "
+                         f"of {max_elements:,}; --max-elements N lifts the limit")
     history: list[tuple[int, float, float, float]] = []
     stopped = STEP_LIMIT
     for _ in range(max_steps):

@@ -11,7 +11,7 @@ The file is plain text, comma separated::
 Lines starting with ``#`` and blank lines are skipped. An optional ``units:`` line before the
 header names the unit system of the loads (:data:`warpwise.units.SYSTEMS`: mm means N and N*mm);
 without it the loads are in the report's unit system. The header is ``case`` and any of the
-load names N, Mx, My, Vx, Vy, T (signs as in :class:`~warpwise.stress.loads.Loads`; a load
+load names N, Mx, My, Vx, Vy, T, B (signs as in :class:`~warpwise.stress.loads.Loads`; a load
 left out is zero). Each later line is one case: its name and one number per load column.
 
 Examples
@@ -22,7 +22,7 @@ Examples
 >>> parse_load_cases("case, Mz\nx, 1\n", source="a.csv")
 Traceback (most recent call last):
 ...
-warpwise.errors.InputFileError: a.csv: line 1: unknown column 'Mz' (columns: case, N, Mx, My, Vx, Vy, T)
+warpwise.errors.InputFileError: a.csv: line 1: unknown column 'Mz' (columns: case, N, Mx, My, Vx, Vy, T, B)
 """
 
 from __future__ import annotations
