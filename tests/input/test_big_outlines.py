@@ -10,13 +10,11 @@ relative); the simplified loop may change the area by at most 0.5e-4 (the stated
 
 import json
 import math
-import resource
-import subprocess
-import sys
 
 import numpy as np
 import pytest
 
+from support.limits import warpwise_limited
 from warpwise.geometry.simplify import simplify_dense_loops
 from warpwise.io import parse_outline
 
@@ -25,14 +23,8 @@ TIME_LIMIT = 300
 MEMORY_LIMIT = 3 * 1024**3
 
 
-def _limit() -> None:
-    resource.setrlimit(resource.RLIMIT_AS, (MEMORY_LIMIT, MEMORY_LIMIT))
-
-
 def run_limited(*args):
-    proc = subprocess.run([sys.executable, "-m", "warpwise.cli", *map(str, args)],
-                          capture_output=True, text=True, timeout=TIME_LIMIT, preexec_fn=_limit)
-    return proc.returncode, proc.stdout, proc.stderr
+    return warpwise_limited(*args, memory=MEMORY_LIMIT, seconds=TIME_LIMIT)
 
 
 def loop_text(points):

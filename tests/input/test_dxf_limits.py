@@ -14,14 +14,12 @@ limit and a 2 GB memory limit, as a safety net only; their timings are measured 
 """
 
 import math
-import os
-import subprocess
-import sys
 
 import ezdxf
 import numpy as np
 import pytest
 
+from support.limits import python_limited, warpwise_limited
 from warpwise.errors import InputFileError, UsageError
 from warpwise.io import ReadOptions, load_profile
 from warpwise.io.dxf import CHORD_AREA_BUDGET, MAX_ENTITIES, read_drawing
@@ -36,23 +34,13 @@ MEMORY_LIMIT = 2 * 1024**3
 TIME_LIMIT = 120
 
 
-def _cap_memory():
-    import resource
-
-    resource.setrlimit(resource.RLIMIT_AS, (MEMORY_LIMIT, MEMORY_LIMIT))
-
-
 def limited(*args):
     """``python ARGS`` in a subprocess with the time and memory limits; (code, stdout, stderr)."""
-    env = dict(os.environ, OMP_NUM_THREADS="1", OPENBLAS_NUM_THREADS="1", MKL_NUM_THREADS="1")
-    proc = subprocess.run([sys.executable, *map(str, args)], capture_output=True, text=True,
-                          timeout=TIME_LIMIT, env=env,
-                          preexec_fn=_cap_memory if sys.platform.startswith("linux") else None)
-    return proc.returncode, proc.stdout, proc.stderr
+    return python_limited(*args, memory=MEMORY_LIMIT, seconds=TIME_LIMIT)
 
 
 def warpwise(*args):
-    return limited("-m", "warpwise.cli", *args)
+    return warpwise_limited(*args, memory=MEMORY_LIMIT, seconds=TIME_LIMIT)
 
 
 def new_doc():
