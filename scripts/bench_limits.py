@@ -54,26 +54,26 @@ def _fan_out(folder: Path, name: str, levels: int, fan: int) -> list[str]:
     return ["check", str(folder / name)]
 
 
+
+def _minsert(folder: Path, name: str, rows: int, columns: int) -> list[str]:
+    """A rows x columns MINSERT array of a one-line block; the props command on it."""
+    doc, msp = _drawing()
+    doc.blocks.new("CELL").add_line((0, 0), (1, 0))
+    msp.add_blockref("CELL", (0, 0), dxfattribs={"row_count": rows, "column_count": columns,
+                                                  "row_spacing": 2, "column_spacing": 2})
+    doc.saveas(folder / name)
+    return ["props", str(folder / name)]
+
 @case
 def minsert_million_copies(folder: Path) -> list[str]:
     """A 1000 x 1000 MINSERT array of a one-line block: refused before it is expanded."""
-    doc, msp = _drawing()
-    doc.blocks.new("CELL").add_line((0, 0), (1, 0))
-    msp.add_blockref("CELL", (0, 0), dxfattribs={"row_count": 1000, "column_count": 1000,
-                                                  "row_spacing": 2, "column_spacing": 2})
-    doc.saveas(folder / "minsert_million.dxf")
-    return ["props", str(folder / "minsert_million.dxf")]
+    return _minsert(folder, "minsert_million.dxf", 1000, 1000)
 
 
 @case
 def minsert_at_the_limit(folder: Path) -> list[str]:
     """A 250 x 400 MINSERT of a one-line block: 200,000 entities, the limit, read and joined."""
-    doc, msp = _drawing()
-    doc.blocks.new("CELL").add_line((0, 0), (1, 0))
-    msp.add_blockref("CELL", (0, 0), dxfattribs={"row_count": 250, "column_count": 400,
-                                                  "row_spacing": 2, "column_spacing": 2})
-    doc.saveas(folder / "minsert_limit.dxf")
-    return ["props", str(folder / "minsert_limit.dxf")]
+    return _minsert(folder, "minsert_limit.dxf", 250, 400)
 
 
 @case
