@@ -146,9 +146,52 @@ def skfem_section(mesh: Mesh) -> dict:
     omega = psi - y0 * X + x0 * Y
     omega -= integral(lambda w: w.om, om=basis.interpolate(omega)) / A
     Cw = integral(lambda w: w.om**2, om=basis.interpolate(omega))
+
+    # Flexure (shear) functions of a unit Vx and a unit Vy: laplace(Theta) = -(a x + b y) with
+    # d(Theta)/dn = h . n (h the Poisson split field, c = nu / (2 (1 + nu))), in the weak form
+    # int grad(Theta) . grad(v) = int (h . grad(v) + v (a x + b y)); then tau = grad(Theta) - h
+    # and C_ij = int tau_i . tau_j dA. Written here from the elasticity problem (Pilkey 2002,
+    # from memory), with scikit-fem's forms: for nu = 0.3 and for nu = 0.
+    D = Ix * Iy - Ixy**2
+    gradients = np.array([[Ix, -Ixy], [-Ixy, Iy]]) / D  # rows (a, b) for a unit Vx, Vy
+
+    def split(x, y, a, b, c):
+        return (c * (a * 0.5 * (x * x - y * y) + b * x * y),
+                c * (a * x * y + b * 0.5 * (y * y - x * x)))
+
+    def flexibility(nu):
+        c = nu / (2.0 * (1.0 + nu))
+        fields = []
+        for a, b in gradients:
+            @LinearForm
+            def flexure_load(v, w, a=a, b=b):
+                x, y = w.x[0] - cx, w.x[1] - cy
+                hx, hy = split(x, y, a, b, c)
+                return hx * v.grad[0] + hy * v.grad[1] + v * (a * x + b * y)
+
+            rhs = flexure_load.assemble(basis)
+            theta = np.zeros(basis.N)
+            theta[keep] = spla.spsolve(K[keep][:, keep].tocsc(), rhs[keep])
+            fields.append((basis.interpolate(theta), a, b))
+
+        def energy(i, j):
+            (ti, ai, bi), (tj, aj, bj) = fields[i], fields[j]
+
+            @Functional
+            def product(w):
+                x, y = w.x[0] - cx, w.x[1] - cy
+                hxi, hyi = split(x, y, ai, bi, c)
+                hxj, hyj = split(x, y, aj, bj, c)
+                return ((w.ti.grad[0] - hxi) * (w.tj.grad[0] - hxj)
+                        + (w.ti.grad[1] - hyi) * (w.tj.grad[1] - hyj))
+
+            return float(product.assemble(basis, ti=ti, tj=tj))
+
+        return np.array([[energy(i, j) for j in range(2)] for i in range(2)])
+
     return {"A": A, "centroid": np.array([cx, cy]), "Ix": Ix, "Iy": Iy, "Ixy": Ixy, "J": J,
             "shear_centre": np.array([cx + x0, cy + y0]), "Cw": Cw, "K": K, "f": f,
-            "psi": psi, "ours": ours}
+            "psi": psi, "ours": ours, "C_poisson": flexibility(0.3), "C_beam": flexibility(0.0)}
 
 
 @pytest.fixture(scope="module", params=sorted(CASES))
@@ -228,6 +271,21 @@ def test_torsion_and_warping_match(case):
     assert errs["J"] < TOL_J, errs
     for key in ("J/Ip", "shear_centre", "Cw", "psi"):
         assert errs[key] < TOL_SOLVED, errs
+
+
+def test_shear_flexibility_matches(case):
+    # both shear fields (Poisson's ratio 0.3 of the default material, and 0 for the beam's
+    # shear areas): the same weak problem on the same space, so to the round-off of the solves
+    # (TOL_SOLVED, measured below 1e-12)
+    name, _, _, ref, res = case
+    sh = res.shear
+    assert sh.poisson == 0.3
+    errs = {"C_poisson": rel(sh.flexibility_poisson, ref["C_poisson"]),
+            "C_beam": rel(sh.flexibility, ref["C_beam"])}
+    print(f"\n  {name}: " + ", ".join(f"{k} {v:.1e}" for k, v in errs.items()))
+    assert max(errs.values()) < TOL_SOLVED, errs
+    # the two fields differ on these sections (else the comparison would test one thing)
+    assert rel(ref["C_poisson"], ref["C_beam"]) > 1e-4
 
 
 def test_asymmetric_cases_are_not_trivial(case):

@@ -36,7 +36,7 @@ from .plot_files import svg_text
 from .plot_parts import profile_name
 from .plot_section import figure_outline, figure_warping
 from .plot_stress import figure_torsion
-from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of
+from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of, shear_notes, table_shows
 from .records import Record, record_of
 from .table import corner_note, system_text
 
@@ -59,7 +59,7 @@ def _property_rows(result: SectionResult, v: dict[str, float], show: Converter) 
     rows, shown, group = [], [], None
     for q in QUANTITIES:
         value = v[q.key]
-        if not np.isfinite(value):
+        if not table_shows(v, q.key):
             continue
         if q.group != group:
             if group is not None:
@@ -122,7 +122,7 @@ def _glossary(shown: list[str], show: Converter) -> str:
 
 
 def _notes(result: SectionResult, rec: Record) -> list[str]:
-    out = [escape(n) for n in rec.notes]
+    out = [escape(n) for n in (*rec.notes, *shear_notes(rec.values))]
     for c in rec.corners:
         note = corner_note(c, rec.units)
         out.append(escape(f"{note[:1].upper()}{note[1:]}."))

@@ -10,8 +10,11 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 from typing import Any
 
+import numpy as np
+
 from ..properties.accuracy import ERROR_OF_QUANTITY
 from ..properties.analysis import SectionResult
+from ..properties.shear import POISSON_SHEAR_SPREAD
 from ..units import (
     ANGLE,
     AREA,
@@ -172,17 +175,29 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
     ),
     "Shear": (
         ("nu", "nu", "Poisson's ratio used for shear", 0,
-         "enters the shear functions; from the material, else 0.3"),
+         "of the shear stresses, the elastic shear centre and kx,nu, ky,nu; from the material, "
+         "else 0.3"),
         ("xse", "xse", "elastic shear centre, x", 1, "point where Vy causes no twist (shear functions)"),
         ("yse", "yse", "elastic shear centre, y", 1, "point where Vx causes no twist (shear functions)"),
-        ("As_x", "As,x", "shear area for a force along x", 2, "1 / integral of tau.tau dA for a unit Vx"),
-        ("As_y", "As,y", "shear area for a force along y", 2, "1 / integral of tau.tau dA for a unit Vy"),
-        ("kappa_x", "kx", "shear coefficient along x", 0, "As,x / A"),
+        ("As_x", "As,x", "shear area for a force along x", 2,
+         "Timoshenko beam shear area: 1 / integral of tau.tau dA for a unit Vx, tau the flexure "
+         "field of Poisson's ratio 0 (the flow that carries V; Renton 1991)"),
+        ("As_y", "As,y", "shear area for a force along y", 2,
+         "as As,x for a unit Vy"),
+        ("kappa_x", "kx", "shear coefficient along x", 0,
+         "As,x / A (5/6 for a rectangle, 6/7 for a solid circle: Cowper 1966 at nu = 0)"),
         ("kappa_y", "ky", "shear coefficient along y", 0, "As,y / A"),
         ("As_1", "As,1", "shear area for a force along axis 1", 2,
-         "1 / integral of tau.tau dA for a unit force along axis 1"),
+         "as As,x for a unit force along axis 1"),
         ("As_2", "As,2", "shear area for a force along axis 2", 2,
-         "1 / integral of tau.tau dA for a unit force along axis 2"),
+         "as As,x for a unit force along axis 2"),
+        ("kappa_x_poisson", "kx,nu", "energy shear coefficient with nu, along x", 0,
+         "1 / (A integral of tau.tau dA) of the flexure field with nu: adds the shear stresses of "
+         "the section's anticlastic curling in bending, which are no shear of the beam; falls "
+         "with the width across the force (0.18 for a 100 x 10 rectangle sheared across its "
+         "thickness at nu = 0.3); the table shows it where it differs from kx by over 20 %"),
+        ("kappa_y_poisson", "ky,nu", "energy shear coefficient with nu, along y", 0,
+         "as kx,nu for a unit Vy"),
     ),
     "Materials": (
         ("E_ref", "Eref", "Young's modulus of the reference material", 0,
@@ -219,6 +234,50 @@ QUANTITIES: tuple[Quantity, ...] = tuple(
 QUANTITY_BY_KEY = {q.key: q for q in QUANTITIES}
 
 
+#: Quantities a table or datasheet shows only where they differ from the one named (by more
+#: than :data:`~warpwise.properties.shear.POISSON_SHEAR_SPREAD`); CSV and JSON always hold them.
+SHOWN_WHEN_DIFFERENT = {"kappa_x_poisson": "kappa_x", "kappa_y_poisson": "kappa_y"}
+
+
+def differs(values: Mapping[str, float], key: str) -> bool:
+    """True when a quantity of :data:`SHOWN_WHEN_DIFFERENT` differs enough to be shown.
+
+    Examples
+    --------
+    >>> differs({"kappa_y": 0.833, "kappa_y_poisson": 0.179}, "kappa_y_poisson")
+    True
+    >>> differs({"kappa_y": 0.833, "kappa_y_poisson": 0.80}, "kappa_y_poisson")
+    False
+    """
+    base = values[SHOWN_WHEN_DIFFERENT[key]]
+    return bool(abs(values[key] / base - 1.0) > POISSON_SHEAR_SPREAD)
+
+
+def table_shows(values: Mapping[str, float], key: str) -> bool:
+    """True for a quantity a table or datasheet shows: computed, and not a near-copy of another."""
+    if not np.isfinite(values[key]):
+        return False
+    return key not in SHOWN_WHEN_DIFFERENT or differs(values, key)
+
+
+def shear_notes(values: Mapping[str, float]) -> tuple[str, ...]:
+    """Why the energy shear coefficient with Poisson's ratio is shown beside the beam's.
+
+    One note for each direction where :func:`differs`; none otherwise.
+    """
+    out = []
+    for key, base in SHOWN_WHEN_DIFFERENT.items():
+        if np.isfinite(values[key]) and differs(values, key):
+            q, b = QUANTITY_BY_KEY[key], QUANTITY_BY_KEY[base]
+            out.append(
+                f"{q.symbol} = {values[key]:.3g} (the energy of the whole flexure field with "
+                f"nu = {values['nu']:.3g}) against {b.symbol} = {values[base]:.3g}: the difference "
+                "is the shear stress of the section's anticlastic curling under bending (Poisson's "
+                f"ratio), which a wide section across the force has and which is no shear "
+                f"deformation of the beam; a Timoshenko beam takes {b.symbol} and its shear area")
+    return tuple(out)
+
+
 def unit_of(q: Quantity, length: str) -> str:
     """Unit text of a quantity in the unit system of a length unit, e.g. ``mm4``, ``deg``."""
     return system(length).text(q.dimension)
@@ -246,7 +305,8 @@ def values(result: SectionResult) -> dict[str, float]:
     out.update({
         "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],
         "As_x": sh.As_x, "As_y": sh.As_y, "kappa_x": sh.kappa_x, "kappa_y": sh.kappa_y,
-        "As_1": sh.As_1, "As_2": sh.As_2,
+        "As_1": sh.As_1, "As_2": sh.As_2, "kappa_x_poisson": sh.kappa_x_poisson,
+        "kappa_y_poisson": sh.kappa_y_poisson,
     })
     for k, v in g.Wel.items():
         if "_" in k:

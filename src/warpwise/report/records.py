@@ -11,7 +11,7 @@ from dataclasses import dataclass, field, replace
 from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult, TargetStatus
 from ..units import LENGTH, convert
-from .quantities import QUANTITIES, values
+from .quantities import QUANTITIES, shear_notes, values
 from .table import corner_note
 
 
@@ -76,12 +76,12 @@ class Record:
 
     @property
     def remarks(self) -> tuple[str, ...]:
-        """Every note to print: the reader's, the materials', a target met, the sharp corners.
+        """Every note to print: reader's, materials', shear coefficients', target, corners.
 
         Corner notes are in ``units``; a target missed is one of the ``warnings`` instead.
         """
         target = (self.target.text,) if self.target is not None and self.target.met else ()
-        return (*self.notes, *self.material_notes, *target,
+        return (*self.notes, *self.material_notes, *shear_notes(self.values), *target,
                 *(corner_note(c, self.units) for c in self.corners))
 
     @property

@@ -4,11 +4,9 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING
 
-import numpy as np
-
 from ..geometry.corners import Corner
 from ..units import system
-from .quantities import QUANTITIES, error_of, unit_of
+from .quantities import QUANTITIES, error_of, table_shows, unit_of
 
 if TYPE_CHECKING:
     from .records import Record
@@ -87,7 +85,7 @@ def property_table(rec: Record) -> str:
     lines += [f"  note: {n}" for n in rec.remarks]
     group = None
     for q in QUANTITIES:
-        if np.isnan(v[q.key]):
+        if not table_shows(v, q.key):
             continue
         if q.group != group:
             group = q.group
