@@ -161,11 +161,15 @@ def test_sharp_corner_flagged_and_stress_grows():
     # around the theoretical -1/3 (the deviation measured is below 0.005).
     p = np.diff(np.log(at_corner)) / np.diff(np.log(sizes))
     assert np.all(np.abs(p + 1.0 / 3.0) < 0.02), (p, at_corner)
-    # The maximum reported away from the corner stays bounded: 88.47, 90.48, 90.00 MPa. It is
-    # the stress at the first nodes beyond the excluded radius (0.8 mm), where the singular
-    # field still dominates, so it moves with where those nodes fall (0.82 ... 0.91 mm from
-    # the corner, (0.8 / 0.91)^(1/3) = 0.96): 2.3% spread measured, 3% allowed.
-    assert (max(top) - min(top)) / min(top) < 0.03, top
+    # The maximum reported away from the corner converges: 71.832, 71.911, 71.923 MPa. The
+    # excluded disc is half the wall (4 mm, geometry/corners.py), and the maximum outside it is
+    # on the outer face opposite the corner (8.00 to 8.02 mm from it), a smooth boundary where
+    # the field is regular: 0.13 % spread measured, 0.5 % allowed. (With a tenth of the wall
+    # it was the stress at the first nodes beyond 0.8 mm, inside the singular zone: 88.47,
+    # 90.48, 90.00 MPa, moving with where those nodes fell.)
+    assert (max(top) - min(top)) / min(top) < 0.005, top
+    x, y = st.tau_max_at
+    assert min(abs(x), abs(y)) < 1e-9  # on an outer face
     assert at_corner[-1] > 4.0 * max(top)
 
 

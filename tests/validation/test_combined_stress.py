@@ -278,3 +278,27 @@ def test_concentric_bar_torque_jump():
     assert len(common) == n * 2  # the interface's corner and mid-side nodes
     ratio = by["sleeve"].tau[i2] / by["core"].tau[i1]
     assert np.abs(ratio - sleeve.G / core.G).max() < 1e-13
+
+
+def test_largest_shear_stress_is_reported_where_it_is(tmp_path, capsys):
+    # Regression: the JSON's tau_max_at was the von Mises location. A 40 x 20 bar with My and
+    # T: von Mises is largest on the short faces x = 0, 40 (bending), the torsion shear stress at
+    # the middle of the long sides (x = 20, y = 0 or 20; Timoshenko & Goodier, torsion of a
+    # rectangle, from memory), so the two points differ. tau_max_at must be the node of the
+    # largest nodal tau (the same node as the torsion-only report, to round-off).
+    import json
+
+    from warpwise.cli import main
+
+    path = tmp_path / "bar.txt"
+    path.write_text("units: mm\n0, 0\n40, 0\n40, 20\n0, 20\n")
+    assert main(["stress", str(path), "--material", "aluminium-6082-T6", "--torque", "1e5",
+                 "--moment-y", "1e6", "--json"]) == 0
+    obj = json.loads(capsys.readouterr().out)
+    x, y = obj["tau_max_at"]
+    assert x == pytest.approx(20.0, abs=1e-9) and min(y, 20.0 - y) == pytest.approx(0.0, abs=1e-9)
+    assert obj["von_mises_max_at"][0] in (pytest.approx(0.0, abs=1e-9), pytest.approx(40.0))
+    assert main(["stress", str(path), "--material", "aluminium-6082-T6", "--torque", "1e5",
+                 "--json"]) == 0
+    alone = json.loads(capsys.readouterr().out)
+    assert obj["tau_max"] == pytest.approx(alone["tau_max"], rel=1e-12)

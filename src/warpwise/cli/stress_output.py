@@ -7,15 +7,16 @@ The stresses are computed in the profile's unit system; every number is converte
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
+from ..geometry.corners import Corner
 from ..properties.analysis import SectionResult
 from ..report.files import standard_json
 from ..report.quantities import SOLVED_ROUND_OFF
 from ..report.table import CAUTION, corner_note, format_value
 from ..stress import BIMOMENT, CombinedStress, ShearStress
 from ..stress.points import NormalExtremes, PointStress
-from ..units import FORCE, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
+from ..units import FORCE, LENGTH, MOMENT, STRESS, TWIST, Converter, Dimension, twist_in_degrees
 from .point_output import extreme_json, extreme_rows, point_json, point_rows
 
 
@@ -41,6 +42,22 @@ class _View(Converter):
         return {"length": s.length, "force": s.force, "moment": s.text(MOMENT),
                 "stress": s.stress, "twist_rate": s.text(TWIST),
                 "twist_rate_deg": f"deg/{s.long_length}"}
+
+
+def _corners(result: SectionResult, v: _View) -> list[Corner]:
+    """The sharp re-entrant corners with location and excluded radius in the report's units."""
+    return [replace(c, x=x, y=y, radius=v(c.radius, LENGTH))
+            for c in result.corners for x, y in [v.point((c.x, c.y))]]
+
+
+def _corner_lines(result: SectionResult, v: _View) -> list[str]:
+    return [f"  note: {corner_note(c, v.target)}" for c in _corners(result, v)]
+
+
+def _corner_json(result: SectionResult, v: _View) -> list[dict]:
+    """Each sharp corner: where, its interior angle and the radius left out of the maxima."""
+    return [{"at": [c.x, c.y], "angle_deg": c.angle_deg, "excluded_radius": c.radius}
+            for c in _corners(result, v)]
 
 
 def _row(width: int) -> Callable[[str, str, float, str], str]:
@@ -74,6 +91,7 @@ def shear_json(file: str, result: SectionResult, s: ShearStress, G: float | None
         "tau_max_torsion": v(s.tau_max_torsion, STRESS),
         "tau_max_shear": v(s.tau_max_shear, STRESS),
         "twist_rate": v(s.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(s.twist_rate),
+        "corners": _corner_json(result, v),
         "warnings": list(result.profile.warnings),
     }
     return standard_json(obj, file=file)
@@ -100,7 +118,8 @@ def shear_text(file: str, result: SectionResult, s: ShearStress, G: float | None
     lines += [row("largest shear stress, torque alone", "tau_T", v(s.tau_max_torsion, STRESS), stress),
               row("largest shear stress, forces alone", "tau_V", v(s.tau_max_shear, STRESS), stress),
               row("largest combined shear stress", "tau_max", v(s.tau_max, STRESS), stress),
-              f"    at ({format_value(x)}, {format_value(y)}) {L}", "", f"  {CAUTION}", ""]
+              f"    at ({format_value(x)}, {format_value(y)}) {L}", *_corner_lines(result, v),
+              "", f"  {CAUTION}", ""]
     return "\n".join(lines)
 
 
@@ -125,7 +144,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
         "shear_modulus": v(G, STRESS), "J": v(result.torsion.J, Dimension(4)),
         "shear_centre": v.point(result.torsion.shear_centre),
         "tau_max": v(max(m.tau_max for m in c.by_material), STRESS),
-        "tau_max_at": v.point(max(c.by_material, key=lambda m: m.tau_max).von_mises_at),
+        "tau_max_at": v.point(max(c.by_material, key=lambda m: m.tau_max).tau_at),
         "twist_rate": v(c.twist_rate, TWIST), "twist_rate_deg": v.twist_deg(c.twist_rate),
         "von_mises_max": v(top.von_mises_max, STRESS),
         "von_mises_max_at": v.point(top.von_mises_at),
@@ -133,6 +152,7 @@ def combined_json(file: str, result: SectionResult, c: CombinedStress, G: float 
                        "tau_max": v(m.tau_max, STRESS), "von_mises_max": v(m.von_mises_max, STRESS),
                        "von_mises_at": v.point(m.von_mises_at), "fy": v(m.fy, STRESS),
                        "utilisation": m.utilisation} for m in c.by_material],
+        "corners": _corner_json(result, v),
         "warnings": list(result.profile.warnings),
     }
     for mat, e in zip(obj["materials"], extremes or (), strict=False):
@@ -178,7 +198,7 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress,
         lines += extreme_rows(row, extremes[k], v) if extremes else []
         if m.utilisation is not None:
             lines.append(row("von Mises / fy (informative, not a code check)", "u", m.utilisation, "-"))
-    lines += [f"  note: {corner_note(corner, result.units)}" for corner in result.corners]
+    lines += _corner_lines(result, v)
     lines += point_rows(at, v) if at is not None else []
     lines += ["", f"  {CAUTION}", ""]
     return "\n".join(lines)

@@ -142,6 +142,10 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
          "2 int phi dA + 2 sum c_k A_k, Prandtl phi on the same mesh; J_low <= J(exact) <= J"),
         ("Wt", "Wt", "torsional section modulus", 3,
          "T / tau_max, tau_max of the Saint-Venant stress field away from sharp re-entrant corners"),
+        ("r_corner", "r,corner", "radius left out around sharp re-entrant corners", 1,
+         "half the material depth at the corner (its shortest crossing of the material, the "
+         "wall thickness at a thin wall's inside corner), the largest over the corners; Wt and "
+         "every largest stress are taken outside; not given without sharp corners"),
         ("xs", "xs", "shear centre, x", 1,
          "Trefftz: point about which the warping function is orthogonal to x and y"),
         ("ys", "ys", "shear centre, y", 1, "as xs, drawing coordinates"),
@@ -300,7 +304,8 @@ def values(result: SectionResult) -> dict[str, float]:
     out.update(_outline_values(result))
     b, wt = result.buckling, result.torsion_modulus
     out.update({"xs0": b.xs0, "ys0": b.ys0, "i0": b.i0,
-                "Wt": float("nan") if wt is None else wt.Wt})
+                "Wt": float("nan") if wt is None else wt.Wt,
+                "r_corner": max((c.radius for c in result.corners), default=float("nan"))})
     sh = result.shear
     out.update({
         "nu": sh.poisson, "xse": sh.shear_centre[0], "yse": sh.shear_centre[1],

@@ -14,7 +14,6 @@ from ..properties.analysis import SectionResult
 from .combined import combined_stress
 from .loads import Loads
 from .points import NormalExtremes, normal_extremes
-from .recovery import away_from_corners, peak
 
 
 @dataclass(frozen=True)
@@ -66,8 +65,7 @@ def case_results(result: SectionResult, names: Sequence[str], loads: Sequence[Lo
     for name, case in zip(names, loads, strict=True):
         c = combined_stress(result, case, G)
         for m, e in zip(c.by_material, normal_extremes(result, c), strict=True):
-            tau, tau_at = peak(result, m.tau, m.nodes, keep=away_from_corners(result, m.nodes))
-            out.append(CaseResult(name, case, e, tau, tau_at, m.von_mises_max, m.von_mises_at,
+            out.append(CaseResult(name, case, e, m.tau_max, m.tau_at, m.von_mises_max, m.von_mises_at,
                                   m.utilisation))
     return out
 

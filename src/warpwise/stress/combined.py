@@ -44,6 +44,8 @@ class MaterialStress:
         von_mises_max / fy (informative, not a code check).
     field : MaterialField
         The recovered stress components at ``nodes``.
+    tau_at : tuple of float
+        Where the largest shear stress ``tau_max`` is, L.
     """
 
     material: str
@@ -58,6 +60,7 @@ class MaterialStress:
     fy: float | None
     utilisation: float | None
     field: MaterialField | None = None
+    tau_at: tuple[float, float] = (float("nan"), float("nan"))
 
 
 @dataclass(frozen=True, eq=False)
@@ -118,13 +121,14 @@ def combined_stress(result: SectionResult, loads: Loads, G: float | None = None)
         keep = away_from_corners(result, f.nodes)
         sig, tau, vm = f.sigma, f.tau, f.von_mises
         vmax, at = peak(result, vm, f.nodes, keep=keep)
+        tmax, tau_at = peak(result, tau, f.nodes, keep=keep)
         mat = next((m for m in mats.materials if m.name == f.material), None)
         fy = None if mat is None else mat.fy
         out.append(MaterialStress(
             material=f.material, nodes=f.nodes, sigma=sig, tau=tau, von_mises=vm,
-            sigma_max=float(np.abs(sig[keep]).max()), tau_max=float(tau[keep].max()),
+            sigma_max=float(np.abs(sig[keep]).max()), tau_max=tmax,
             von_mises_max=vmax, von_mises_at=at, fy=fy,
-            utilisation=None if fy is None else vmax / fy, field=f))
+            utilisation=None if fy is None else vmax / fy, field=f, tau_at=tau_at))
     excluded = [(c.x, c.y, c.radius) for c in result.corners]
     if warping is None:
         return CombinedStress(loads, out, twist, excluded)
