@@ -82,3 +82,19 @@ def test_material_needed(capsys):
     _, err = capsys.readouterr()
     assert code == 2
     assert_one_line_error(code, err, "--material")
+
+
+def test_one_section_printed_once(capsys):
+    # fixed at both ends, torque at midspan: |B| and |T_w| are both largest just past the load
+    # point (antisymmetric halves; Seaburg & Carter 1997, case of a concentrated torque, from
+    # memory), so the text prints that section once; the JSON keeps one entry per quantity
+    args = ["--length", 2000, "--ends", "fixed,fixed", "--point-torque", "5e4@1000"]
+    code, out, _ = _run(capsys, *args)
+    assert code == 0
+    assert out.count("where |B| and |T_w| are largest, z = 1000 mm") == 1
+    assert "where |B| is largest" not in out and "where |T_w| is largest" not in out
+    assert out.count("where |T_sv| is largest") == 1
+    code, out, _ = _run(capsys, *args, "--json")
+    got = json.loads(out)["governing_sections"]
+    assert [s["governs"] for s in got] == ["B", "T_w", "T_sv"]
+    assert got[0]["z"] == got[1]["z"] == 1000.0

@@ -138,8 +138,14 @@ def _about_axis(args: argparse.Namespace, results: list[SectionResult]) -> list[
     for r in results:
         into = Converter(system(args.report_units or r.units).length, r.units)
         x0, y0, angle = args.about_axis
-        out.append((axis_properties(r.weighted, into.point((x0, y0)), angle,
-                                    [into.point(f) for f in args.fibre or ()]), r.units))
+        fibres = [into.point(f) for f in args.fibre or ()]
+        inside = r.profile.covers(fibres) if fibres else np.ones(0, bool)
+        if not inside.all():
+            x, y = (args.fibre or [])[int(np.argmin(inside))]
+            raise UsageError(f"fibre ({x:g}, {y:g}) {into.source} is outside the section; a "
+                                 "section modulus is to a point of the material (drawing "
+                                 "coordinates in the report's length unit)", file=r.profile.source)
+        out.append((axis_properties(r.weighted, into.point((x0, y0)), angle, fibres), r.units))
     return out
 
 

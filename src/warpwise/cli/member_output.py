@@ -123,8 +123,16 @@ def _stress_lines(v: MemberView, sections: list[SectionStresses]) -> list[str]:
 
     lines = ["", "  largest stresses at the governing sections (away from sharp corners; each "
                  "at its own point)"]
-    for s in sections:
-        lines.append(f"  where {GOVERNS[s.governs]} is largest, z = {format_value(v(s.z, 'z'))} "
+    merged: list[tuple[list[str], SectionStresses]] = []
+    for s in sections:  # sections of several largest values at one z are printed once
+        same = next((m for m in merged if m[1] == replace(s, governs=m[1].governs)), None)
+        if same is None:
+            merged.append(([GOVERNS[s.governs]], s))
+        else:
+            same[0].append(GOVERNS[s.governs])
+    for names, s in merged:
+        what = " and ".join(names) + (" are" if len(names) > 1 else " is")
+        lines.append(f"  where {what} largest, z = {format_value(v(s.z, 'z'))} "
                      f"{L}: B {format_value(v(s.B, 'B'))} {v.unit('B')}, T_w "
                      f"{format_value(v(s.T_w, 'T_w'))} {v.unit('T_w')}, T_sv "
                      f"{format_value(v(s.T_sv, 'T_sv'))} {v.unit('T_sv')}")

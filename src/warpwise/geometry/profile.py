@@ -180,6 +180,36 @@ class Profile:
         """Union of all regions (material outline, interfaces dissolved) as shapely geometry."""
         return shapely.union_all([r.polygon for r in self.regions])
 
+    def covers(self, points: Sequence[Sequence[float]] | np.ndarray) -> np.ndarray:
+        """True for each point (k, 2) in or on the material, drawing unit.
+
+        The polygon's edges count (to 1e-9 of the size), and the true arcs decide between
+        their chords: the sliver between an arc bulging out of the material and its chords is
+        material (an extreme fibre on a round face lies there), the sliver between the chords
+        of a round hole or inside fillet and the true arc is not.
+        """
+        pts = np.asarray(points, dtype=float).reshape(-1, 2)
+        geom = self.geometry()
+        d = shapely.distance(geom, shapely.points(pts))
+        ok = d <= 1e-9 * self.size
+        boundary = geom.boundary
+        for arc in self.arcs:
+            mid = arc.start + 0.5 * arc.sweep
+            out = np.array([math.cos(mid), math.sin(mid)])
+            m = np.array([arc.cx, arc.cy]) + arc.r * out  # the true arc's middle
+            # a step towards the centre past the chords (twice m's distance from them) lands in
+            # the material when it lies inside the circle, in the hole when outside it
+            step = 2.0 * boundary.distance(shapely.Point(*m)) + 1e-6 * arc.r
+            inward = m - step * out
+            rel = pts - np.array([arc.cx, arc.cy])
+            rho = np.hypot(rel[:, 0], rel[:, 1])
+            swept = arc.contains_angle(np.arctan2(rel[:, 1], rel[:, 0]))
+            if geom.covers(shapely.Point(*inward)):  # material inside the circle
+                ok |= (rho <= arc.r * (1.0 + 1e-9)) & swept & (d <= 0.1 * arc.r)
+            else:  # material outside it (a round hole, an inside fillet)
+                ok &= ~((rho < arc.r * (1.0 - 1e-9)) & swept)
+        return ok
+
     def transformed(self, **kwargs: object) -> Profile:
         """Deprecated name of :meth:`moved` (kept for one release)."""
         import warnings

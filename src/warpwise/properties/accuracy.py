@@ -46,6 +46,8 @@ def refinement_for(accuracy: str) -> float:
 ESTIMATED: dict[str, tuple[Callable[[SectionResult], float], tuple[str, ...], bool]] = {
     "J": (lambda r: r.torsion.J, ("J",), False),
     "Cw": (lambda r: r.torsion.Cw, ("Cw",), False),
+    "Wt": (lambda r: float("nan") if r.torsion_modulus is None else r.torsion_modulus.Wt,
+           ("Wt",), False),
     "xs": (lambda r: r.torsion.shear_centre[0], ("xs",), True),
     "ys": (lambda r: r.torsion.shear_centre[1], ("ys",), True),
     "Wel_x": (lambda r: r.geometric.Wel["x"], ("Wel_x_top", "Wel_x_bottom"), False),
