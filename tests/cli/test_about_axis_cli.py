@@ -77,3 +77,16 @@ def test_bad_requests_are_one_line_usage_errors(cli, rect, args, words):
     code, _, err = cli("props", rect, "--accuracy", "draft", *args)
     assert code == 2
     assert_one_line_error(code, err, *words)
+
+
+def test_json_and_csv_name_each_value_alike(cli, rect, tmp_path):
+    # one name per value (the README's): the JSON keys of about_axis are the CSV headers' names
+    out_csv = tmp_path / "a.csv"
+    code, out, _ = cli("props", rect, "--accuracy", "draft", "--about-axis", "0,0,0",
+                       "--fibre", "10,50", "--json", "--csv", str(out_csv))
+    assert code == 0
+    obj = json.loads(out)
+    a = obj["about_axis"] if isinstance(obj, dict) else obj[0]["about_axis"]
+    header = out_csv.read_text().splitlines()[0]
+    for key in ("I_axis", "I_across", "I_uv", "Ip_point"):
+        assert key in a and f"{key} (mm4)" in header

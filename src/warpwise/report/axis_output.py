@@ -45,7 +45,7 @@ def axis_json(a: AxisProperties, v: Converter) -> dict[str, Any]:
     """The ``about_axis`` JSON object, in the report's units ``v``."""
     return {"point": v.point(a.point), "angle_deg": a.angle_deg,
             "I_axis": v(a.I_axis, SECOND_MOMENT), "I_across": v(a.I_across, SECOND_MOMENT),
-            "I_product": v(a.I_product, SECOND_MOMENT), "Ip_point": v(a.Ip, SECOND_MOMENT),
+            "I_uv": v(a.I_product, SECOND_MOMENT), "Ip_point": v(a.Ip, SECOND_MOMENT),
             "fibres": [{"point": v.point(f), "distance": v(d, LENGTH), "W": v(w, MODULUS)}
                        for f, d, w in zip(a.fibres, a.distances, a.moduli, strict=True)]}
 
