@@ -306,14 +306,12 @@ def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = 
         result = run_analysis(options.read.load(path), options.analysis)
         sheet = thumb = None
         if options.datasheet_dir:
+            from .report.datasheet import nominal_torsion
             from .report.html import thumbnail_svg, write_datasheet
-            from .stress import torsion_stress
-            from .units import MOMENT, convert
 
             shown = options.report_units or result.units
-            unit_torque = convert(1.0, MOMENT, shown, result.units)  # 1 in the page's units
             sheet = str(write_datasheet(result, options.datasheet_dir,
-                                        torsion=torsion_stress(result, unit_torque),
+                                        torsion=nominal_torsion(result, shown),
                                         nominal_torque=True, filename=sheet_name, units=shown,
                                         title=item.title, label=label))
             thumb = thumbnail_svg(result)

@@ -99,8 +99,11 @@ def run_props(args: argparse.Namespace) -> int:
     """``warpwise props``: table or JSON on stdout (or the CSV, with ``--csv -``), optional CSV."""
     if not args.files and not args.shape:
         raise UsageError("give a FILE or a --shape")
-    check_outputs([Output("--csv", args.csv), Output("--json", STDOUT if args.json else None)],
-                  _inputs(args, args.files))
+    check_outputs([Output("--csv", args.csv), Output("--json", STDOUT if args.json else None),
+                   Output("--html", args.html)], _inputs(args, args.files))
+    if args.html and len(args.files) + len(args.shape or ()) != 1:
+        raise UsageError("--html writes the datasheet of one profile; for several use "
+                         "'warpwise catalogue ... --html DIR'")
     reading, options = read_options(args), analysis_options(args)
     profiles = [reading.load(f) for f in args.files]
     profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
@@ -119,9 +122,17 @@ def run_props(args: argparse.Namespace) -> int:
     text = json_text(shown, extra=axis_objects(axes, args.report_units)) if args.json else \
         "\n".join(axis_table(property_table(r), a, args.report_units)
                   for r, a in zip(shown, axes or [None] * len(shown), strict=True))
-    if not (args.csv and is_stdout(args.csv)):  # the CSV takes the place of the table
-        sys.stdout.write(text)
-    write_outputs([(args.csv, table)])
+    sheet = None
+    if args.html:
+        from ..report.datasheet import datasheet_html, nominal_torsion
+
+        shown_units = args.report_units or results[0].units
+        sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),
+                               nominal_torque=True, units=shown_units,
+                               about_axis=axes[0][0] if axes else None)
+    if not (args.csv and is_stdout(args.csv)) and not (args.html and is_stdout(args.html)):
+        sys.stdout.write(text)  # the CSV or the page on standard output take its place
+    write_outputs([(args.csv, table), (args.html, sheet)])
     return _missed_exit(records)
 
 

@@ -224,6 +224,9 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--fibre", action="append", type=numbers(2, "X,Y"), metavar="X,Y",
                    help="with --about-axis: the section modulus about that axis to the fibre at "
                         "(X, Y) (repeatable)")
+    p.add_argument("--html", metavar="OUT.html",
+                   help="also write the HTML datasheet of the profile (one profile; with "
+                        "--about-axis its values too) to OUT.html")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)

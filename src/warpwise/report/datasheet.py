@@ -16,9 +16,11 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import UsageError
+from ..properties.about_axis import AxisProperties
 from ..properties.analysis import SectionResult
 from ..stress import TorsionStress
 from ..units import AREA, MOMENT, STRESS, TWIST, Converter, twist_in_degrees
+from .axis_output import axis_html
 from .files import atomic_write
 from .html_parts import (
     caution_box,
@@ -103,7 +105,7 @@ def _key_values(v: dict[str, float], show: Converter) -> str:
     return f'<table class="key" id="key-values"><tbody>{rows}</tbody></table>'
 
 
-def _glossary(shown: list[str], show: Converter) -> str:
+def _glossary(shown: list[str], show: Converter, more: str = "") -> str:
     items = []
     for key in shown:
         q = QUANTITY_BY_KEY[key]
@@ -118,7 +120,7 @@ def _glossary(shown: list[str], show: Converter) -> str:
              "axes parallel to x and y; axis 1 is the major and axis 2 the minor principal axis, "
              "at the angle \u03b1 from +x (counter-clockwise positive). "
              f"Units: {escape(system_text(show.target))}.</p>")
-    return f'{intro}<dl class="glossary" id="glossary">{"".join(items)}</dl>'
+    return f'{intro}<dl class="glossary" id="glossary">{"".join(items)}{more}</dl>'
 
 
 def _notes(result: SectionResult, rec: Record) -> list[str]:
@@ -206,7 +208,7 @@ def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torq
 
 def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_torque: bool = False,
                    title: str | None = None, warping: bool = True, units: str | None = None,
-                   label: str | None = None) -> str:
+                   label: str | None = None, about_axis: AxisProperties | None = None) -> str:
     """A self-contained HTML5 datasheet of one analysed profile.
 
     Parameters
@@ -229,6 +231,9 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     label : str, optional
         The profile's name in the heading and the line below it; default its file name (a
         catalogue gives :func:`~warpwise.report.html_parts.relative_names`).
+    about_axis : AxisProperties, optional
+        Properties about a given axis (in the profile's units), shown after the property
+        table with their glossary entries.
 
     Returns
     -------
@@ -270,8 +275,9 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
         "through the centroid, arrow heads on their positive directions.</figcaption></figure>"
         f"<div><h3 class=\"meta\">Key values</h3>{_key_values(v, show)}</div></div></section>",
         f'<section id="properties"><h2>Section properties</h2>{table}</section>',
-        _torsion_section(result, torsion, nominal_torque, show),
     ]
+    axis_section, axis_glossary = axis_html(about_axis, show) if about_axis else ("", "")
+    parts += [axis_section, _torsion_section(result, torsion, nominal_torque, show)]
     if warping:
         svg = svg_text(figure_warping(result, width=7.0 if _wide(result) else 6.0, units=u),
                        "warping-")
@@ -282,12 +288,25 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
             "bar by w = \u03b8 \u03c9. Restraining it (end plates, welded ends) gives warping "
             f"stresses governed by C<sub>w</sub> = {number_html(v['Cw'], 5)} "
             f"{unit_html(u + '6')}.</figcaption></figure></section>")
-    parts.append(f'<section id="symbols"><h2>Glossary of symbols</h2>{_glossary(shown, show)}</section>')
+    parts.append(f'<section id="symbols"><h2>Glossary of symbols</h2>'
+                 f'{_glossary(shown, show, axis_glossary)}</section>')
     notes = "".join(f"<li>{n}</li>" for n in _notes(result, rec))
     parts.append(f'<section id="notes"><h2>Notes</h2><ul class="notes">{notes}</ul></section>')
     parts.append(caution_box())
     parts.append(footer())
     return page(f"{heading}: section properties", "\n".join(parts))
+
+
+def nominal_torsion(result: SectionResult, units: str | None = None) -> TorsionStress:
+    """Torsion stresses of the nominal torque of a datasheet: 1 in the page's moment unit.
+
+    ``units`` is the page's unit system (default the profile's); the stresses are in the
+    profile's units, for ``datasheet_html(..., nominal_torque=True)``.
+    """
+    from ..stress import torsion_stress
+    from ..units import convert
+
+    return torsion_stress(result, convert(1.0, MOMENT, units or result.units, result.units))
 
 
 def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: TorsionStress,
