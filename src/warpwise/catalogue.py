@@ -306,8 +306,8 @@ def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = 
         result = run_analysis(options.read.load(path), options.analysis)
         sheet = thumb = None
         if options.datasheet_dir:
-            from .report.datasheet import nominal_torsion
             from .report.html import thumbnail_svg, write_datasheet
+            from .stress import nominal_torsion
 
             shown = options.report_units or result.units
             sheet = str(write_datasheet(result, options.datasheet_dir,

@@ -27,7 +27,14 @@ from ..report.files import csv_text, json_text
 from ..report.outputs import STDOUT, Output, check_outputs, is_stdout, staged_folder, write_outputs
 from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
-from ..stress import Loads, combined_stress, shear_modulus, shear_stress, torsion_stress
+from ..stress import (
+    Loads,
+    combined_stress,
+    nominal_torsion,
+    shear_modulus,
+    shear_stress,
+    torsion_stress,
+)
 from ..stress.case_results import case_results
 from ..stress.cases import read_load_cases
 from ..stress.member_stress import governing_stresses
@@ -124,7 +131,7 @@ def run_props(args: argparse.Namespace) -> int:
                   for r, a in zip(shown, axes or [None] * len(shown), strict=True))
     sheet = None
     if args.html:
-        from ..report.datasheet import datasheet_html, nominal_torsion
+        from ..report.datasheet import datasheet_html
 
         shown_units = args.report_units or results[0].units
         sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),

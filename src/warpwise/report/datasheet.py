@@ -297,18 +297,6 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     return page(f"{heading}: section properties", "\n".join(parts))
 
 
-def nominal_torsion(result: SectionResult, units: str | None = None) -> TorsionStress:
-    """Torsion stresses of the nominal torque of a datasheet: 1 in the page's moment unit.
-
-    ``units`` is the page's unit system (default the profile's); the stresses are in the
-    profile's units, for ``datasheet_html(..., nominal_torque=True)``.
-    """
-    from ..stress import torsion_stress
-    from ..units import convert
-
-    return torsion_stress(result, convert(1.0, MOMENT, units or result.units, result.units))
-
-
 def write_datasheet(result: SectionResult, folder: str | Path, *, torsion: TorsionStress,
                     nominal_torque: bool = False, filename: str | None = None,
                     title: str | None = None, units: str | None = None,

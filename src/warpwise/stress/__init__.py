@@ -14,10 +14,11 @@ from .shear import (
     MaterialPeak,
     ShearStress,
     TorsionStress,
+    nominal_torsion,
     shear_stress,
     torsion_stress,
 )
 
 __all__ = ["BIMOMENT", "CombinedStress", "CornerStress", "Loads", "MaterialField", "MaterialPeak",
            "MaterialStress", "ShearStress", "TorsionStress", "combined_stress", "recover", "shear_modulus",
-           "shear_stress", "torsion_stress"]
+           "nominal_torsion", "shear_stress", "torsion_stress"]

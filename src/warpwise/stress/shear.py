@@ -164,6 +164,17 @@ def _twist(result: SectionResult, torque: float, G: float | None) -> float | Non
     return None if G is None else float(torque / (G * result.torsion.J))
 
 
+def nominal_torsion(result: SectionResult, units: str | None = None) -> TorsionStress:
+    """Torsion stresses of a datasheet's nominal torque: 1 in the page's moment unit.
+
+    ``units`` is the page's unit system (default the profile's); the stresses are in the
+    profile's units (F/L^2), for ``datasheet_html(..., nominal_torque=True)``.
+    """
+    from ..units import MOMENT, convert
+
+    return torsion_stress(result, convert(1.0, MOMENT, units or result.units, result.units))
+
+
 def torsion_stress(result: SectionResult, torque: float, G: float | None = None) -> TorsionStress:
     """Shear stresses and twist rate for a torque.
 
