@@ -59,8 +59,9 @@ def point_html(xy: Sequence[float] | None) -> str:
 
 
 def point_cell(xy: Sequence[float] | None, key: str) -> str:
-    """A point cell with the JSON path of the point in ``data-key``."""
-    return f'<td class="num" data-key="{escape(key)}">{point_html(xy)}</td>'
+    """A point cell with the JSON path of the point in ``data-key`` (en dash for none)."""
+    null = ' data-null=""' if xy is None else ""
+    return f'<td class="num" data-key="{escape(key)}"{null}>{point_html(xy)}</td>'
 
 
 def value_rows(obj: Mapping[str, Any], keys: Iterable[str], terms: Mapping[str, Term],
@@ -104,7 +105,8 @@ def key_table(rows: str, table_id: str) -> str:
 
 def head_cell(term: Term, shown: Shown, unit: str | None = None) -> str:
     """A column head: the symbol over its unit (``unit``, a unit text, when not the term's)."""
-    text = shown.unit(term) if unit is None else unit_html(unit)
+    text = shown.unit(term)  # records the term for the glossary
+    text = text if unit is None else unit_html(unit)
     return (f'<th scope="col" class="num" data-key="{escape(term.key)}">'
             f"{symbol_html(term.symbol)}<br>{text}</th>")
 
