@@ -44,6 +44,7 @@ from ..units import FORCE, LENGTH, MOMENT, STRESS, Converter, convert, system
 from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
 from .case_output import cases_csv, cases_json, cases_text
 from .options import analysis_options, build_parser, read_options
+from .page_output import member_html, page_outputs, prints_report, stress_html
 from .stress_output import combined_json, combined_text, shear_json, shear_text
 
 EXIT_INPUT = 1
@@ -196,7 +197,8 @@ def run_load_cases(args: argparse.Namespace) -> int:
     if any(_loads(args).__dict__.values()) or args.at:
         raise UsageError("--load-cases takes the loads from its file: give no load options "
                          "or --at with it")
-    check_outputs([Output("--csv", args.csv)], [*_inputs(args, [args.file]), args.load_cases])
+    check_outputs([Output("--csv", args.csv), *page_outputs(args)],
+                  [*_inputs(args, [args.file]), args.load_cases])
     cases = read_load_cases(args.load_cases)
     _given_modulus(args)
     result = _analyse_file(args.file, args, bounds=False)
@@ -211,10 +213,10 @@ def run_load_cases(args: argparse.Namespace) -> int:
     rows = case_results(result, cases.names, loads, G)
     v = Converter.of(result.units, args.report_units)
     table = cases_csv(rows, v) if args.csv else ""
-    if not (args.csv and is_stdout(args.csv)):
-        sys.stdout.write(cases_json(args.file, args.load_cases, rows, v) if args.json else
-                         cases_text(args.file, args.load_cases, rows, v))
-    write_outputs([(args.csv, table)])
+    obj = cases_json(args.file, args.load_cases, rows, v) if args.json or args.html else ""
+    if not (args.csv and is_stdout(args.csv)) and prints_report(args):
+        sys.stdout.write(obj if args.json else cases_text(args.file, args.load_cases, rows, v))
+    write_outputs([(args.csv, table), (args.html, stress_html(obj) if args.html else "")])
     return 0
 
 
@@ -228,6 +230,7 @@ def run_stress(args: argparse.Namespace) -> int:
         raise UsageError("give a load: --torque, --shear-x, --shear-y, --axial, --moment-x, "
                          "--moment-y and/or --bimoment")
     _given_modulus(args)  # a bad modulus is refused before the analysis
+    check_outputs(page_outputs(args), _inputs(args, [args.file]))
     result = _analyse_file(args.file, args, bounds=False)
     _warn([record_of(result)])
     loads, G = _in_profile_units(args, result)
@@ -242,14 +245,29 @@ def run_stress(args: argparse.Namespace) -> int:
         at = stress_at_points(result, loads, [into.point(p) for p in args.at],
                               shown=args.at) if args.at else None
         extremes = normal_extremes(result, c)
-        text = combined_json(args.file, result, c, G, units, extremes, at) if args.json else \
-            combined_text(args.file, result, c, units, extremes, at)
+        obj = combined_json(args.file, result, c, G, units, extremes, at)
+        text = obj if args.json else combined_text(args.file, result, c, units, extremes, at)
+        picture = _stress_figure(args, result, c)
     else:
         s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
-        text = shear_json(args.file, result, s, G, units) if args.json else \
-            shear_text(args.file, result, s, G, units)
-    sys.stdout.write(text)
+        obj = shear_json(args.file, result, s, G, units)
+        text = obj if args.json else shear_text(args.file, result, s, G, units)
+        picture = _stress_figure(args, result, torsion_stress(result, loads.T, G)
+                                 if args.html and loads.T else None)
+    if prints_report(args):
+        sys.stdout.write(text)
+    write_outputs([(args.html, stress_html(obj, picture) if args.html else "")])
     return 0
+
+
+def _stress_figure(args: argparse.Namespace, result: SectionResult, stress):
+    """The picture of the stresses on the ``--html`` page (None when no page or no stress)."""
+    if not args.html or stress is None:
+        return None
+    from ..report.plots import figure_combined, figure_torsion
+
+    draw = figure_torsion if hasattr(stress, "torque") else figure_combined
+    return draw(result, stress, units=args.report_units)
 
 
 def run_check(args: argparse.Namespace) -> int:
@@ -379,7 +397,9 @@ def run_member(args: argparse.Namespace) -> int:
         raise UsageError("give a load: --point-torque T@Z and/or --distributed-torque M")
     check_member(args.length, args.ends, MemberLoads(tuple(args.point_torque or ()),
                                                      args.distributed_torque))
-    check_outputs([Output("--csv", args.csv)], _inputs(args, [args.file]))
+    check_outputs([Output("--csv", args.csv), *page_outputs(args),
+                   Output("--plot", args.plot, to_stdout=False, what=PICTURE)],
+                  _inputs(args, [args.file]))
     _check_picture("--plot", args.plot, args, [args.file])
     if not args.material and not args.layer_material:
         raise UsageError("a member needs E and G: give --material (built in, or with "
@@ -396,17 +416,23 @@ def run_member(args: argparse.Namespace) -> int:
     at = member.actions(stations(member, args.stations))
     top = extremes(member)
     sections = governing_stresses(result, member, top)
-    text = (member_json if args.json else member_text)(args.file, member, at, top,
-                                                       args.report_units, result.units, sections)
-    if args.plot:
+    shown = (args.file, member, at, top, args.report_units, result.units, sections)
+    obj = member_json(*shown) if args.json or args.html else ""
+    text = obj if args.json else member_text(*shown)
+    figure = None
+    if args.plot or args.html:
         from ..report.plot_files import save_figure
         from ..report.plot_member import figure_member
 
         along = member.actions(np.union1d(np.linspace(0.0, member.length, 801), member.starts))
-        save_figure(figure_member(along, args.file, args.report_units, result.units), args.plot)
-    sys.stdout.write(text)
+        figure = figure_member(along, args.file, args.report_units, result.units)
+        if args.plot:
+            save_figure(figure, args.plot)
+    if prints_report(args):
+        sys.stdout.write(text)
     write_outputs([(args.csv, member_csv(at, top, args.report_units, result.units)
-                    if args.csv else "")])
+                    if args.csv else ""),
+                   (args.html, member_html(obj, figure, record.warnings) if args.html else "")])
     return 0
 
 

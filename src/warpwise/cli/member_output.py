@@ -12,20 +12,17 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from ..member import END_TEXT, QUANTITIES, Extreme, MemberActions, MemberTorsion
+from ..member import END_TEXT, QUANTITIES, TERM_BY_KEY, Extreme, MemberActions, MemberTorsion
 from ..report.files import standard_json
 from ..report.table import CAUTION, format_value
 from ..stress.member_stress import SectionStresses
-from ..units import FORCE, LENGTH, MOMENT, NUMBER, STRESS, Converter, Dimension
+from ..units import FORCE, MOMENT, STRESS, Converter, Dimension
 
-#: Dimension of each quantity along a member (phi in rad: a number).
-DIMENSIONS = {"z": LENGTH, "phi": NUMBER, "phi1": Dimension(-1), "phi2": Dimension(-2),
-              "phi3": Dimension(-3), "T_sv": MOMENT, "T_w": MOMENT, "B": Dimension(2, 1)}
+#: Dimension of each quantity along a member (phi in rad: a number), from the one list.
+DIMENSIONS = {n: TERM_BY_KEY[n].dimension for n in ("z", *dict(QUANTITIES))}
 
-#: What each quantity is, for the table of maxima.
-MEANING = {"phi": "angle of twist", "phi1": "twist rate", "phi2": "second derivative of twist",
-           "phi3": "third derivative of twist", "T_sv": "Saint-Venant torque G J phi'",
-           "T_w": "warping torque -E Cw phi'''", "B": "bimoment -E Cw phi''"}
+#: What each quantity is, for the table of maxima, from the one list.
+MEANING = {n: TERM_BY_KEY[n].legend for n in dict(QUANTITIES)}
 
 
 @dataclass(frozen=True)
@@ -36,9 +33,7 @@ class MemberView:
 
     def unit(self, name: str) -> str:
         """Unit text of a quantity along the member."""
-        L = self.show.system.length
-        return {"z": L, "phi": "rad", "phi1": f"rad/{L}", "phi2": f"rad/{L}2",
-                "phi3": f"rad/{L}3"}.get(name) or self.show.unit(DIMENSIONS[name])
+        return TERM_BY_KEY[name].unit(self.show.target)
 
     def __call__(self, value, name: str):
         """A value (or array) of quantity ``name`` in the report's units."""
@@ -48,9 +43,8 @@ class MemberView:
         """The unit of every quantity, for the JSON."""
         s = self.show.system
         return {"length": s.length, "force": s.force, "torque": s.text(MOMENT),
-                "distributed_torque": f"{s.text(MOMENT)}/{s.length}",
-                **{name: self.unit(name) for name, _ in QUANTITIES}, "GJ": s.text(Dimension(2, 1)),
-                "ECw": s.text(Dimension(4, 1))}
+                **{name: self.unit(name) for name in ("distributed_torque", *dict(QUANTITIES),
+                                                      "GJ", "ECw")}}
 
 
 #: A value below this fraction of the largest |value| of its quantity along the member is
@@ -136,12 +130,12 @@ def _stress_lines(v: MemberView, sections: list[SectionStresses]) -> list[str]:
                      f"{L}: B {format_value(v(s.B, 'B'))} {v.unit('B')}, T_w "
                      f"{format_value(v(s.T_w, 'T_w'))} {v.unit('T_w')}, T_sv "
                      f"{format_value(v(s.T_sv, 'T_sv'))} {v.unit('T_sv')}")
-        for label, sym, val, xy in (
-                ("warping normal stress -B omega/Cw", "sigma_w", s.sigma_w, s.sigma_w_at),
-                ("warping shear stress", "tau_w", s.tau_w, s.tau_w_at),
-                ("Saint-Venant shear stress", "tau_sv", s.tau_sv, s.tau_sv_at)):
+        for key, val, xy in (("sigma_w", s.sigma_w, s.sigma_w_at),
+                             ("tau_w", s.tau_w, s.tau_w_at), ("tau_sv", s.tau_sv, s.tau_sv_at)):
             if val is not None:
-                lines.append(f"    {label:<34} {sym:<7} {format_value(show(val, STRESS)):>14}  "
+                term = TERM_BY_KEY[key]
+                lines.append(f"    {term.legend:<34} {term.symbol:<7} "
+                             f"{format_value(show(val, STRESS)):>14}  "
                              f"{stress}{where(xy)}")
     return lines
 

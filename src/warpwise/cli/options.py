@@ -232,6 +232,13 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
     _analysis_options(p, estimate=True)
 
 
+def _html_option(p: argparse.ArgumentParser) -> None:
+    """``--html OUT.html``: the results of one command as one page."""
+    p.add_argument("--html", metavar="OUT.html",
+                   help="also write the results as one self-contained HTML page (- for "
+                        "standard output, instead of the report)")
+
+
 def _add_stress(sub: argparse._SubParsersAction) -> None:
     p = sub.add_parser(
         "stress", help="shear stress and twist under a torque and shear forces",
@@ -250,6 +257,7 @@ def _add_stress(sub: argparse._SubParsersAction) -> None:
                         "prints one results table")
     p.add_argument("--csv", metavar="OUT", help="with --load-cases: also write the results "
                                                 "table as CSV to OUT (- for standard output)")
+    _html_option(p)
     _moduli_options(p)
     _report_options(p, loads=True)
     p.add_argument("--json", action="store_true", help="print JSON instead of text")
@@ -314,6 +322,7 @@ def _add_member(sub: argparse._SubParsersAction) -> None:
                    help="evenly spaced stations printed, load points added (default 11)")
     p.add_argument("--json", action="store_true", help="print JSON instead of text")
     p.add_argument("--csv", metavar="OUT", help="also write the values at the stations to OUT")
+    _html_option(p)
     p.add_argument("--plot", metavar="OUT.png",
                    help="also draw phi and the bimoment along the member (.png, .pdf or .svg)")
     _report_options(p, loads=True)

@@ -14,6 +14,8 @@ from .solution import (
     check_member,
     solve_member,
 )
+from .terms import MEMBER_TERMS, TERM_BY_KEY, Term
 
-__all__ = ["END_TEXT", "ENDS", "QUANTITIES", "Extreme", "MemberActions", "MemberLoads",
-           "MemberTorsion", "check_member", "extremes", "solve_member", "stations"]
+__all__ = ["END_TEXT", "ENDS", "MEMBER_TERMS", "QUANTITIES", "TERM_BY_KEY", "Extreme",
+           "MemberActions", "MemberLoads", "MemberTorsion", "Term", "check_member", "extremes",
+           "solve_member", "stations"]

@@ -14,10 +14,7 @@ import numpy as np
 from scipy.optimize import minimize_scalar
 
 from .solution import MemberTorsion
-
-#: The quantities along a member, in their report order: (attribute, symbol).
-QUANTITIES = (("phi", "phi"), ("phi1", "phi'"), ("phi2", "phi''"), ("phi3", "phi'''"),
-              ("T_sv", "T_sv"), ("T_w", "T_w"), ("B", "B"))
+from .terms import QUANTITIES
 
 #: Grid points per segment for the search of the maxima.
 GRID = 400

@@ -37,7 +37,8 @@ CAUTIONS = (
 )
 
 _GREEK = {"alpha": "\u03b1", "beta": "\u03b2", "omega": "\u03c9", "nu": "\u03bd",
-          "theta": "\u03b8", "tau": "\u03c4", "psi": "\u03c8", "sigma": "\u03c3", "kappa": "\u03ba"}
+          "theta": "\u03b8", "tau": "\u03c4", "psi": "\u03c8", "sigma": "\u03c3", "kappa": "\u03ba",
+          "phi": "\u03c6"}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -52,8 +53,13 @@ def symbol_html(symbol: str) -> str:
     'W<sub>el,x+</sub>'
     >>> symbol_html("beta_1"), symbol_html("EIx"), symbol_html("A")
     ('\u03b2<sub>1</sub>', 'EI<sub>x</sub>', 'A')
+    >>> symbol_html("phi''"), symbol_html("T_sv")
+    ('\u03c6\u2032\u2032', 'T<sub>sv</sub>')
 
     """
+    primes = len(symbol) - len(symbol.rstrip("'"))
+    if primes and symbol.rstrip("'"):
+        return symbol_html(symbol.rstrip("'")) + "\u2032" * primes
     if "/" in symbol:
         return "/".join(symbol_html(part) for part in symbol.split("/"))
     if "_" in symbol:
