@@ -12,12 +12,13 @@ from typing import Any
 
 from ..report.files import csv_safe, standard_json
 from ..report.table import CAUTION, format_value
+from ..stress import BIMOMENT
 from ..stress.case_results import CaseResult
 from ..units import FORCE, MOMENT, STRESS, Converter
 
 #: (key, dimension) of the loads in the order of the load-case file.
 LOAD_KEYS = (("N", FORCE), ("Mx", MOMENT), ("My", MOMENT), ("Vx", FORCE), ("Vy", FORCE),
-             ("T", MOMENT))
+             ("T", MOMENT), ("B", BIMOMENT))
 
 
 def _cells(r: CaseResult, v: Converter) -> list[tuple[str, Any]]:

@@ -24,7 +24,7 @@ from ..properties.analysis import SectionResult
 from ..properties.run import run_analysis
 from ..report import outputs
 from ..report.files import csv_text, json_text
-from ..report.outputs import STDOUT, Output, check_outputs, is_stdout, staged_folder, write_outputs
+from ..report.outputs import STDOUT, Output, check_outputs, staged_folder, write_outputs
 from ..report.records import Record, record_of, report_units
 from ..report.table import property_table
 from ..stress import (
@@ -138,8 +138,8 @@ def run_props(args: argparse.Namespace) -> int:
         sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),
                                nominal_torque=True, units=shown_units,
                                about_axis=axes[0][0] if axes else None)
-    if not (args.csv and is_stdout(args.csv)) and not (args.html and is_stdout(args.html)):
-        sys.stdout.write(text)  # the CSV or the page on standard output take its place
+    if prints_report(args):  # the CSV or the page on standard output take its place
+        sys.stdout.write(text)
     write_outputs([(args.csv, table), (args.html, sheet)])
     return _missed_exit(records)
 
@@ -214,7 +214,7 @@ def run_load_cases(args: argparse.Namespace) -> int:
     v = Converter.of(result.units, args.report_units)
     table = cases_csv(rows, v) if args.csv else ""
     obj = cases_json(args.file, args.load_cases, rows, v) if args.json or args.html else ""
-    if not (args.csv and is_stdout(args.csv)) and prints_report(args):
+    if prints_report(args):
         sys.stdout.write(obj if args.json else cases_text(args.file, args.load_cases, rows, v))
     write_outputs([(args.csv, table), (args.html, stress_html(obj) if args.html else "")])
     return 0

@@ -27,9 +27,9 @@ def page_outputs(args: argparse.Namespace) -> list[Output]:
 
 
 def prints_report(args: argparse.Namespace) -> bool:
-    """Whether the text or JSON report goes to standard output (not when the page does)."""
-    html = getattr(args, "html", None)
-    return not (html and is_stdout(html))
+    """Whether the text or JSON report goes to standard output (not when a page or CSV does)."""
+    return not any(path and is_stdout(path) for path in (getattr(args, "html", None),
+                                                          getattr(args, "csv", None)))
 
 
 def member_html(json_text: str, figure, warnings: tuple[str, ...]) -> str:

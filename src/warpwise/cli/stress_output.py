@@ -185,7 +185,7 @@ def combined_text(file: str, result: SectionResult, c: CombinedStress,
         x, y = v.point(c.sigma_w_at)
         lines += [row("bimoment", "B", v(loads.B, BIMOMENT), v.unit(BIMOMENT)),
                   row("warping constant", "Cw", v(result.torsion.Cw, Dimension(6)), f"{L}6"),
-                  row("largest warping normal stress -B omega/Cw", "sigma_w", v(c.sigma_w, STRESS),
+                  row("largest warping stress -B omega/Cw", "sigma_w", v(c.sigma_w, STRESS),
                       stress), f"    at ({format_value(x)}, {format_value(y)}) {L}"]
     lines += _twist_rows(row, v, c.twist_rate)
     for k, m in enumerate(c.by_material):

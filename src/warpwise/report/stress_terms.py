@@ -66,6 +66,9 @@ STRESS_TERMS: tuple[Term, ...] = (
     _section("tau_max", "tau_max", "largest shear stress",
              f"largest resultant shear stress sqrt(tau_zx^2 + tau_zy^2), {_AWAY}", STRESS),
     _section("tau_max_at", "", "where tau_max is", "[x, y], drawing coordinates", LENGTH),
+    _section("corners", "", "sharp re-entrant corners",
+             "each corner's `at` [x, y], `angle_deg` and `excluded_radius`, the disc (half the "
+             "local wall thickness) left out of every largest stress", unit_text="{L}, deg, {L}"),
     _section("tau_max_torsion", "tau_T", "largest shear stress, torque alone",
              f"of the torque alone, {_AWAY}", STRESS),
     _section("tau_max_shear", "tau_V", "largest shear stress, forces alone",
@@ -111,8 +114,8 @@ STRESS_TERMS: tuple[Term, ...] = (
            "list of `case`, `material`, `loads`, the signed extremes, `tau_max`, "
            "`von_mises_max` (each with its point) and `utilisation`", unit_text="as each value"),
     _given("case", "", "the case's name", "the first column of its line"),
-    _given("loads", "", "the case's loads", "`N`, `Vx`, `Vy` (force) and `Mx`, `My`, `T` "
-           "(moment), in the report's units", unit_text="{F}, {M}"),
+    _given("loads", "", "the case's loads", "`N`, `Vx`, `Vy` (force), `Mx`, `My`, `T` "
+           "(moment) and `B` (bimoment), in the report's units", unit_text="{F}, {M}, {F}*{L}2"),
 )
 
 STRESS_TERM_BY_KEY = {t.key: t for t in STRESS_TERMS}
