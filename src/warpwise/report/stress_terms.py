@@ -9,7 +9,7 @@ points and several load cases".
 Examples
 --------
 >>> STRESS_TERM_BY_KEY["bimoment"].unit("cm"), STRESS_TERM_BY_KEY["loads"].unit("m")
-('kN*cm2', 'N, N*m')
+('kN*cm2', 'N, N*m, N*m2')
 """
 
 from __future__ import annotations
