@@ -119,8 +119,9 @@ def _input_options(p: argparse.ArgumentParser) -> None:
     p.add_argument("--mesh-size", type=positive_float, metavar="H",
                    help="largest element size in the drawing unit (default: chosen from the profile)")
     p.add_argument("--max-elements", type=positive_int, metavar="N",
-                   help="largest mesh any step may build, in elements (default 4,000,000; the "
-                        "limit of boundary points, 400,000, scales with it)")
+                   help="largest mesh any step may build, in elements (default: what 60 %% of "
+                        "this machine's available memory holds at 15 kB per element, at most "
+                        "4,000,000; the limit of boundary points, 400,000, scales with it)")
     p.add_argument("--units", choices=sorted(LENGTH_UNITS),
                    help="length unit of the input coordinates (default: from the file, else mm)")
     p.add_argument("--layer", action="append", metavar="NAME",

@@ -143,7 +143,8 @@ def refine_adaptively(profile: Profile, tolerance: float, mesh_size: float | Non
             stopped = ELEMENT_BUDGET
             break
         mesh = finer
-    status = TargetStatus(float(tolerance), estimate, len(history), stopped)
+    status = TargetStatus(float(tolerance), estimate, len(history), stopped,
+                          nodes=history[-1][0], limit=max_elements)
     return AdaptiveRun(result, estimate, history, status)
 
 

@@ -68,12 +68,18 @@ class TargetStatus:
         Meshes solved (the first one included).
     stopped : str
         Why the refinement stopped, a key of :data:`STOP_REASONS`.
+    nodes : int
+        Nodes of the last mesh solved (0: not recorded).
+    limit : int
+        The element limit in force (0: not recorded), named when it stopped the refinement.
     """
 
     target: float
     reached: float
     meshes: int
     stopped: str
+    nodes: int = 0
+    limit: int = 0
 
     @property
     def met(self) -> bool:
@@ -91,11 +97,18 @@ class TargetStatus:
         the step limit: no more meshes are solved'
         """
         outcome = "met" if self.met else "missed"
+        last = "" if not self.nodes else (f" of {self.nodes:,} nodes" if self.meshes == 1 else
+                                          f", the last of {self.nodes:,} nodes")
         head = (f"target error {self.target:.3g} {outcome}: J is certainly within "
-                f"{self.reached:.2g} after {self.meshes} mesh{'' if self.meshes == 1 else 'es'}")
+                f"{self.reached:.2g} after {self.meshes} mesh{'' if self.meshes == 1 else 'es'}"
+                f"{last}")
         if self.met:
             return head
-        return f"{head}; stopped at the {self.stopped}: {STOP_REASONS[self.stopped]}"
+        why = STOP_REASONS[self.stopped]
+        if self.stopped == ELEMENT_BUDGET and self.limit:
+            why = (f"the next mesh would have had more than {self.limit:,} elements, the limit "
+                   "(--max-elements N sets it; the default follows this machine's memory)")
+        return f"{head}; stopped at the {self.stopped}: {why}"
 
 
 @dataclass(frozen=True, eq=False)

@@ -26,7 +26,7 @@ from ..errors import UsageError, WarpwiseError
 from ..fem.solve import METHODS
 from ..geometry.profile import Profile
 from ..materials import Material, check_poisson, resolve
-from ..mesh.core import MAX_ELEMENTS
+from ..mesh.budget import default_element_limit
 from .accuracy import estimate_errors, refinement_for
 from .adapt import refine_adaptively
 from .analysis import SectionResult, analyse
@@ -60,8 +60,9 @@ class AnalysisOptions:
     target_error : float or None
         Refine adaptively until J is certainly within this relative error.
     max_elements : int
-        Largest mesh any step builds (``--max-elements``; default :data:`MAX_ELEMENTS`); the
-        boundary-point limit scales with it.
+        Largest mesh any step builds (``--max-elements``; default this machine's limit from
+        its memory, :func:`~warpwise.mesh.budget.default_element_limit`, at most
+        :data:`~warpwise.mesh.sizing.MAX_ELEMENTS`); the boundary-point limit scales with it.
     """
 
     mesh_size: float | None = None
@@ -74,7 +75,7 @@ class AnalysisOptions:
     bounds: bool = True
     estimate_errors: bool = False
     target_error: float | None = None
-    max_elements: int = MAX_ELEMENTS
+    max_elements: int = field(default_factory=default_element_limit)
 
     def __post_init__(self) -> None:
         """Refuse options that cannot be right before any work is done."""

@@ -60,7 +60,7 @@ def to_json_object(item: SectionResult | Record) -> dict[str, Any]:
     if rec.target is not None:
         t = rec.target
         obj["target"] = {"error": t.target, "reached": t.reached, "meshes": t.meshes,
-                         "stopped": t.stopped, "met": t.met}
+                         "nodes": t.nodes, "stopped": t.stopped, "met": t.met}
     return obj
 
 
