@@ -10,6 +10,7 @@ relative); the simplified loop may change the area by at most 0.5e-4 (the stated
 
 import json
 import math
+import re
 
 import numpy as np
 import pytest
@@ -62,12 +63,14 @@ def test_plate_with_10000_holes_is_refused_naming_the_counts(tmp_path):
     code, out, err = run_limited("props", f)
     assert code == 2 and out == "" and "Traceback" not in err
     # a regular 12-gon turns 30 degrees at each vertex: 210 degrees of material, a sharp corner
-    assert err.strip() == (
+    # the element limit named is this machine's default (mesh/budget.py), read by that process
+    head, limit = err.strip().rsplit(" (now ", 1)
+    assert head == (
         f"warpwise: error: {f}: the boundary needs more than 400,000 points graded towards "
         "120,000 sharp re-entrant corners (the limit); give curved outlines more vertices (a turn "
         "of under 10 degrees at a vertex is no sharp corner) or draw them as arcs in a DXF, or "
-        "analyse one part with --part N; --max-elements N lifts the limit (now 4,000,000 elements, "
-        "400,000 boundary points)")
+        "analyse one part with --part N; --max-elements N lifts the limit")
+    assert re.fullmatch(r"[0-9,]+ elements, 400,000 boundary points\)", limit), limit
 
 
 def test_dense_loop_below_the_vertex_count_is_left_alone():
