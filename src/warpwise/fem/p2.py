@@ -115,12 +115,16 @@ class ElementValues:
     xy: np.ndarray
 
 
-def _physical_gradients(X: np.ndarray, dN: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Physical gradients (m, q, 6, 2) and Jacobians (m, q) of the isoparametric map.
+def _jacobians(X: np.ndarray, dN: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Entries j00, j01, j10, j11 and determinant (each (m, q)) of the isoparametric map.
 
-    The Jacobian is formed from coordinates relative to each element's first corner (the map's
-    derivatives do not change, and the round-off of large absolute coordinates is avoided),
-    by four small matrix products over all elements at once.
+    From coordinates relative to each element's first corner (the derivatives do not change,
+    and the round-off of large absolute coordinates is avoided).
+
+    Raises
+    ------
+    ValueError
+        If an element is inverted or degenerate (non-positive Jacobian).
     """
     rel = X - X[:, :1, :]
     x, y = rel[..., 0], rel[..., 1]
@@ -129,6 +133,18 @@ def _physical_gradients(X: np.ndarray, dN: np.ndarray) -> tuple[np.ndarray, np.n
     det = j00 * j11 - j01 * j10
     if np.any(det <= 0):
         raise ValueError(f"{int(np.sum(np.any(det <= 0, axis=1)))} element(s) are inverted")
+    return j00, j01, j10, j11, det
+
+
+def _physical_gradients(X: np.ndarray, dN: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Physical gradients (m, q, 6, 2) and Jacobians (m, q) of the isoparametric map.
+
+    The Jacobian is formed from coordinates relative to each element's first corner (the map's
+    derivatives do not change, and the round-off of large absolute coordinates is avoided),
+    by four small matrix products over all elements at once.
+    """
+    a, b = dN[..., 0], dN[..., 1]  # (q, 6): d N / d xi, d N / d eta
+    j00, j01, j10, j11, det = _jacobians(X, dN)
     r = 1.0 / det
     grad = np.empty((X.shape[0], dN.shape[0], dN.shape[1], 2))
     grad[..., 0] = a * (j11 * r)[..., None] - b * (j10 * r)[..., None]
@@ -379,11 +395,14 @@ def nodal_gradient(mesh: Mesh, nodal: np.ndarray, elements: np.ndarray | None = 
     """
     conn = mesh.elements if elements is None else mesh.elements[elements]
     _, dN = shape_functions(NODE_POINTS)
-    grad, det = _physical_gradients(mesh.nodes[conn], dN)
-    g = np.einsum("mk,mqki->mqi", nodal[conn], grad)  # (m, 6 nodes, 2)
+    j00, j01, j10, j11, det = _jacobians(mesh.nodes[conn], dN)
+    u = nodal[conn]  # (m, 6)
+    g_xi, g_eta = u @ dN[..., 0].T, u @ dN[..., 1].T  # (m, 6 nodes): reference derivatives
+    # physical gradient J^-T (g_xi, g_eta), weighted by det for the average: det cancels
+    wx, wy = g_xi * j11 - g_eta * j10, g_eta * j00 - g_xi * j01
     idx = conn.ravel()
     total = np.bincount(idx, weights=det.ravel(), minlength=mesh.n_nodes)
     with np.errstate(invalid="ignore", divide="ignore"):
-        gx = np.bincount(idx, weights=(det * g[..., 0]).ravel(), minlength=mesh.n_nodes) / total
-        gy = np.bincount(idx, weights=(det * g[..., 1]).ravel(), minlength=mesh.n_nodes) / total
+        gx = np.bincount(idx, weights=wx.ravel(), minlength=mesh.n_nodes) / total
+        gy = np.bincount(idx, weights=wy.ravel(), minlength=mesh.n_nodes) / total
     return np.column_stack([gx, gy])

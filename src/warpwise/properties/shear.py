@@ -160,12 +160,13 @@ def shear_loads(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
     wG = evc.dA * mats.G[:, None]
     wE = evc.dA * mats.E[:, None]
     c = mats.c if c is None else c
+    split = bool(np.any(c))  # with nu = 0 the split field h is zero: no term of its own
     out = []
     for a, b in bending_gradients(geo):
-        h = split_field(evc.xy, a, b, c)
         lin = a * evc.xy[..., 0] + b * evc.xy[..., 1]
-        local = np.einsum("mq,mqki,mqi->mk", wG, evc.grad, h) + np.einsum(
-            "mq,qk->mk", wE * lin, evc.N)
+        local = np.einsum("mq,qk->mk", wE * lin, evc.N)
+        if split:
+            local += np.einsum("mq,mqki,mqi->mk", wG, evc.grad, split_field(evc.xy, a, b, c))
         out.append(assemble_vector(mesh, local))
     return np.column_stack(out)
 
@@ -249,7 +250,9 @@ def shear_properties(mesh: Mesh, evc: ElementValues, geo: GeometricProperties,
 def _stresses(mesh: Mesh, evc: ElementValues, geo: GeometricProperties, mats: ElementMaterials,
               theta: np.ndarray, c: np.ndarray | float) -> list[np.ndarray]:
     """Shear stresses (m, q, 2) at the quadrature points of a unit Vx and a unit Vy, 1/L^2."""
-    return [mats.G[:, None, None] * (gradient(mesh, evc, theta[:, k]) - split_field(evc.xy, a, b, c))
+    split = bool(np.any(c))  # with nu = 0 the split field is zero
+    return [mats.G[:, None, None] * (gradient(mesh, evc, theta[:, k])
+                                     - (split_field(evc.xy, a, b, c) if split else 0.0))
             for k, (a, b) in enumerate(bending_gradients(geo))]
 
 

@@ -102,7 +102,8 @@ def torsion_modulus(mesh: Mesh, tor: TorsionProperties, centroid: tuple[float, f
     top, at = -1.0, (0.0, 0.0)
     for gi in range(len(mats.names)):  # per material, each vectorised over its nodes
         mask = mats.group == gi
-        nodes = np.unique(mesh.elements[mask])
+        # one material: every node (np.unique of the connectivity sorts it, a cost at 1M nodes)
+        nodes = np.arange(mesh.n_nodes) if len(mats.names) == 1 else np.unique(mesh.elements[mask])
         tau = float(mats.G[np.flatnonzero(mask)[0]]) * np.hypot(
             *unit_torque_shear(mesh, tor, mask, nodes, local_all[nodes]).T)
         keep = corner_mask(mesh.nodes[nodes], corners)
