@@ -7,21 +7,46 @@ The packages follow the pipeline: :mod:`.io` (files to loops) -> :mod:`.geometry
 profiles) -> :mod:`.mesh` -> :mod:`.fem` (element, assembly, solvers) -> :mod:`.properties`
 (every section property) -> :mod:`.stress` (stresses under loads) -> :mod:`.report` (tables,
 files, figures) -> :mod:`.catalogue` and :mod:`.cli`. Nothing downstream is imported upstream.
+
+The re-exported names are loaded on first use (a module-level ``__getattr__``), so that
+``import warpwise`` and a command that needs only part of the pipeline start quickly.
 """
+
+from __future__ import annotations
+
+import importlib
 
 from . import _moved
 from .errors import AnalysisError, InputFileError, ProfileError, UsageError, WarpwiseError
-from .geometry import LENGTH_UNITS, Profile, Region, profile_from_loops
-from .mesh import Mesh, build_mesh
-from .properties import SectionResult, analyse
-from .stress import TorsionStress, shear_modulus, torsion_stress
 
 _moved.install()
 
 __version__ = "0.1.0"
+
+#: Public name -> the package that holds it (imported when the name is first used).
+_LAZY = {
+    "LENGTH_UNITS": "geometry", "Profile": "geometry", "Region": "geometry",
+    "profile_from_loops": "geometry", "Mesh": "mesh", "build_mesh": "mesh",
+    "SectionResult": "properties", "analyse": "properties", "TorsionStress": "stress",
+    "shear_modulus": "stress", "torsion_stress": "stress",
+}
 
 __all__ = [
     "LENGTH_UNITS", "AnalysisError", "InputFileError", "Mesh", "Profile", "ProfileError",
     "Region", "SectionResult", "TorsionStress", "UsageError", "WarpwiseError", "analyse",
     "build_mesh", "profile_from_loops", "shear_modulus", "torsion_stress",
 ]
+
+
+def __getattr__(name: str) -> object:
+    """A public name from the package that holds it, imported on first use."""
+    home = _LAZY.get(name)
+    if home is None:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(importlib.import_module(f".{home}", __name__), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(__all__))

@@ -8,8 +8,7 @@ names the new place. Removed in the release after 0.2.
 from __future__ import annotations
 
 import importlib
-import importlib.abc
-import importlib.util
+import importlib.machinery
 import sys
 import types
 import warnings
@@ -32,14 +31,18 @@ MOVED: dict[str, tuple[str, ...]] = {
 }
 
 
-class _MovedModules(importlib.abc.MetaPathFinder, importlib.abc.Loader):
-    """Finder and loader of the old module names in :data:`MOVED`."""
+class _MovedModules:
+    """Finder and loader of the old module names in :data:`MOVED`.
+
+    The finder and loader protocols of :mod:`importlib` are met by the methods alone, so the
+    abstract base classes (and ``importlib.abc``, which costs start-up time) are not needed.
+    """
 
     def find_spec(self, fullname: str, path: object = None,
                   target: object = None) -> importlib.machinery.ModuleSpec | None:  # noqa: D102
         if fullname not in MOVED:
             return None
-        return importlib.util.spec_from_loader(fullname, self)
+        return importlib.machinery.ModuleSpec(fullname, self)
 
     def create_module(self, spec: importlib.machinery.ModuleSpec) -> None:  # noqa: D102
         return None

@@ -30,10 +30,14 @@ from .errors import InputFileError, UsageError
 from .textfiles import read_text
 from .units import DENSITY, DENSITY_UNITS, STRESS, STRESS_UNITS, convert
 
-if sys.version_info >= (3, 11):
-    import tomllib
-else:  # pragma: no cover - Python 3.10
-    import tomli as tomllib
+
+def _toml():
+    """The TOML parser (imported when a table is read, not at start-up)."""
+    if sys.version_info >= (3, 11):
+        import tomllib
+    else:  # pragma: no cover - Python 3.10
+        import tomli as tomllib
+    return tomllib
 
 
 @dataclass(frozen=True)
@@ -285,6 +289,7 @@ def read_materials(path: str | Path) -> dict[str, Material]:
     p = Path(path)
     if not p.is_file():
         raise InputFileError("materials file not found", file=str(path))
+    tomllib = _toml()
     try:
         data = tomllib.loads(read_text(p, "a TOML materials table"))
     except (tomllib.TOMLDecodeError, UnicodeDecodeError) as exc:

@@ -6,14 +6,18 @@ to the report's system by :mod:`warpwise.report.axis_output`.
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from ..properties.about_axis import AxisProperties
-from ..report.axis_output import axis_csv, axis_json, axis_rows
 from ..units import Converter
 
+if TYPE_CHECKING:
+    from ..properties.about_axis import AxisProperties
+
 #: The properties about the given axis of one profile, and the unit system they are in.
-AxisRequest = tuple[AxisProperties, str]
+AxisRequest = tuple["AxisProperties", str]
+
+# the report's axis rows are imported when a request is there (props without --about-axis
+# does not load them)
 
 
 def axis_table(table: str, request: AxisRequest | None, units: str | None) -> str:
@@ -23,6 +27,8 @@ def axis_table(table: str, request: AxisRequest | None, units: str | None) -> st
     """
     if request is None:
         return table
+    from ..report.axis_output import axis_rows
+
     a, source = request
     head, sep, tail = table.rpartition("\n\n  ")
     return "\n".join([head, *axis_rows(a, Converter.of(source, units))]) + sep + tail
@@ -32,6 +38,8 @@ def axis_objects(requests: list[AxisRequest], units: str | None) -> list[dict[st
     """The ``about_axis`` JSON object of each profile (None without --about-axis)."""
     if not requests:
         return None
+    from ..report.axis_output import axis_json
+
     return [{"about_axis": axis_json(a, Converter.of(source, units))} for a, source in requests]
 
 
@@ -39,5 +47,7 @@ def axis_columns(requests: list[AxisRequest], units: str) -> tuple[list[str], li
     """CSV headers and one row of cells per profile, in the table's ``units``."""
     if not requests:
         return None
+    from ..report.axis_output import axis_csv
+
     parts = [axis_csv(a, Converter.of(source, units)) for a, source in requests]
     return parts[0][0], [cells for _, cells in parts]

@@ -5,47 +5,23 @@ from __future__ import annotations
 import argparse
 import os
 import sys
-import time
 from collections.abc import Sequence
-from dataclasses import replace
-from pathlib import Path
+from typing import TYPE_CHECKING
 
-import numpy as np
-
-from ..catalogue import Outcome, RunOptions, catalogue_items, run_catalogue, usable_cpus, worker_count
 from ..errors import UsageError, WarpwiseError
-from ..geometry.shapes import describe_shapes, shape_from_spec
-from ..io.check import check_file, format_report
-from ..io.progress import Running, bar
-from ..materials import check_plausible
-from ..member import MemberLoads, check_member, extremes, solve_member, stations
-from ..properties.about_axis import axis_properties
-from ..properties.analysis import SectionResult
-from ..properties.run import run_analysis
 from ..report import outputs
-from ..report.files import csv_text, json_text
-from ..report.outputs import STDOUT, Output, check_outputs, staged_folder, write_outputs
-from ..report.records import Record, record_of, report_units
-from ..report.table import property_table
-from ..stress import (
-    Loads,
-    combined_stress,
-    nominal_torsion,
-    shear_modulus,
-    shear_stress,
-    torsion_stress,
-)
-from ..stress.case_results import case_results
-from ..stress.cases import read_load_cases
-from ..stress.member_stress import governing_stresses
-from ..stress.points import normal_extremes, stress_at_points
-from ..stress.recovery import reference_shear_modulus
-from ..units import FORCE, LENGTH, MOMENT, STRESS, Converter, convert, system
-from .axis_output import AxisRequest, axis_columns, axis_objects, axis_table
-from .case_output import cases_csv, cases_json, cases_text
+from ..report.outputs import STDOUT, Output, check_outputs, write_outputs
 from .options import analysis_options, build_parser, read_options
-from .page_output import member_html, page_outputs, prints_report, stress_html
-from .stress_output import combined_json, combined_text, shear_json, shear_text
+
+if TYPE_CHECKING:
+    from ..properties.analysis import SectionResult
+    from ..report.records import Record
+    from ..stress import Loads
+    from .axis_output import AxisRequest
+
+# Each command imports what it needs inside its function: ``warpwise props`` on an outline
+# file never loads the DXF reader (ezdxf), the catalogue's process pool, the member solver
+# (scipy.optimize), the stress recovery or matplotlib (tests/cli/test_start_up.py).
 
 EXIT_INPUT = 1
 EXIT_USAGE = 2
@@ -57,11 +33,15 @@ EXIT_TARGET = 4
 
 def _analyse_file(path: str, args: argparse.Namespace, *, bounds: bool = True) -> SectionResult:
     """Read one file and analyse it with the command's options."""
+    from ..properties.run import run_analysis
+
     return run_analysis(read_options(args).load(path), analysis_options(args, bounds=bounds))
 
 
 def _loads(args: argparse.Namespace) -> Loads:
     """The loads as given, in the report's unit system."""
+    from ..stress.loads import Loads
+
     return Loads(N=args.axial, Mx=args.moment_x, My=args.moment_y, Vx=args.shear_x,
                  Vy=args.shear_y, T=args.torque, B=args.bimoment)
 
@@ -70,11 +50,16 @@ def _given_modulus(args: argparse.Namespace) -> float | None:
     """G from --shear-modulus or --youngs-modulus with --poisson, report units (None: not given)."""
     if args.shear_modulus is None and getattr(args, "youngs_modulus", None) is None:
         return None
+    from ..stress.loads import shear_modulus
+
     return shear_modulus(args.shear_modulus, getattr(args, "youngs_modulus", None), args.poisson)
 
 
 def _in_profile_units(args: argparse.Namespace, result: SectionResult) -> tuple[Loads, float | None]:
     """Loads and the given G from the report's unit system into the profile's."""
+    from ..materials import check_plausible
+    from ..units import STRESS, convert
+
     given = args.report_units or result.units
     G = _given_modulus(args)
     if G is not None:
@@ -112,9 +97,20 @@ def run_props(args: argparse.Namespace) -> int:
     if args.html and len(args.files) + len(args.shape or ()) != 1:
         raise UsageError("--html writes the datasheet of one profile; for several use "
                          "'warpwise catalogue ... --html DIR'")
+    from ..io.progress import Running
+    from ..properties.run import run_analysis
+    from ..report.files import csv_text, json_text
+    from ..report.records import record_of
+    from ..report.table import property_table
+    from .axis_output import axis_columns, axis_objects, axis_table
+    from .page_output import prints_report
+
     reading, options = read_options(args), analysis_options(args)
     profiles = [reading.load(f) for f in args.files]
-    profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape or ()]
+    if args.shape:
+        from ..geometry.shapes import shape_from_spec
+
+        profiles += [shape_from_spec(spec, units=args.units or "mm") for spec in args.shape]
     results = []
     with Running("analysing") as running:
         for k, p in enumerate(profiles, 1):
@@ -133,6 +129,7 @@ def run_props(args: argparse.Namespace) -> int:
     sheet = None
     if args.html:
         from ..report.datasheet import datasheet_html
+        from ..stress.shear import nominal_torsion
 
         shown_units = args.report_units or results[0].units
         sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),
@@ -153,6 +150,11 @@ def _about_axis(args: argparse.Namespace, results: list[SectionResult]) -> list[
         if args.fibre:
             raise UsageError("--fibre needs --about-axis (the axis its section modulus is about)")
         return []
+    import numpy as np
+
+    from ..properties.about_axis import axis_properties
+    from ..units import Converter, system
+
     out = []
     for r in results:
         into = Converter(system(args.report_units or r.units).length, r.units)
@@ -184,6 +186,8 @@ def _warn(records: list[Record]) -> None:
 
 def _table_units(records: list[Record], chosen: str | None) -> str:
     """The one unit system of a table over several profiles, said on stderr when mixed."""
+    from ..report.records import report_units
+
     units = report_units([r.units for r in records], chosen)
     found = sorted({r.units for r in records})
     if chosen is None and len(found) > 1:
@@ -197,6 +201,14 @@ def run_load_cases(args: argparse.Namespace) -> int:
     if any(_loads(args).__dict__.values()) or args.at:
         raise UsageError("--load-cases takes the loads from its file: give no load options "
                          "or --at with it")
+    from ..report.records import record_of
+    from ..stress.case_results import case_results
+    from ..stress.cases import read_load_cases
+    from ..stress.recovery import reference_shear_modulus
+    from ..units import Converter
+    from .case_output import cases_csv, cases_json, cases_text
+    from .page_output import page_outputs, prints_report, stress_html
+
     check_outputs([Output("--csv", args.csv), *page_outputs(args)],
                   [*_inputs(args, [args.file]), args.load_cases])
     cases = read_load_cases(args.load_cases)
@@ -224,6 +236,14 @@ def run_stress(args: argparse.Namespace) -> int:
     """``warpwise stress``: stresses for a torque, shear forces, axial force and moments."""
     if args.load_cases:
         return run_load_cases(args)
+    from ..report.records import record_of
+    from ..stress import combined_stress, shear_stress, torsion_stress
+    from ..stress.points import normal_extremes, stress_at_points
+    from ..stress.recovery import reference_shear_modulus
+    from ..units import Converter, system
+    from .page_output import page_outputs, prints_report, stress_html
+    from .stress_output import combined_json, combined_text, shear_json, shear_text
+
     if args.csv:
         raise UsageError("--csv writes the table of --load-cases: give a load-case file")
     if not any(_loads(args).__dict__.values()):
@@ -272,6 +292,8 @@ def _stress_figure(args: argparse.Namespace, result: SectionResult, stress):
 
 def run_check(args: argparse.Namespace) -> int:
     """``warpwise check``: the report on stdout; exit code 1 when not analysable."""
+    from ..io.check import check_file, format_report
+
     _check_picture("--plot", args.plot, args, [args.file])
     report = check_file(args.file, read_options(args))
     if args.plot:
@@ -288,77 +310,11 @@ def run_check(args: argparse.Namespace) -> int:
     return 0
 
 
-class _Progress:
-    """Progress on stderr: a bar on a terminal, plain lines otherwise."""
-
-    def __init__(self, total: int) -> None:
-        self.total = total
-        self.tty = sys.stderr.isatty()
-        self.start = time.perf_counter()
-
-    def __call__(self, out: Outcome, done: int, total: int) -> None:
-        state = "ok" if out.ok else "failed"
-        if self.tty:
-            sys.stderr.write(f"\r{bar(done, total)} {done}/{total} {Path(out.path).name[:40]:<40}")
-            if done == total:
-                sys.stderr.write("\n")
-        else:
-            sys.stderr.write(f"{done}/{total} {out.path}: {state} ({out.seconds:.2f} s)\n")
-        sys.stderr.flush()
-
-
-def _catalogue_outputs(args: argparse.Namespace) -> list[Output]:
-    """The outputs of a catalogue run."""
-    return [Output("--csv", args.csv), Output("--json", args.json),
-            Output("--html", args.html, folder=True, to_stdout=False, what="a folder")]
-
-
-def _jobs(asked: int | None, total: int) -> int:
-    """Worker processes for ``total`` profiles, with a note when fewer than asked."""
-    jobs = worker_count(asked, total)
-    if asked is not None and jobs < asked:
-        cpus = usable_cpus()
-        print(f"warpwise: note: --jobs {asked} capped to {jobs} ({total} profile"
-              f"{'s' if total != 1 else ''}, {cpus} CPU{'s' if cpus != 1 else ''})", file=sys.stderr)
-    return jobs
-
-
 def run_catalogue_command(args: argparse.Namespace) -> int:
-    """``warpwise catalogue``: every profile analysed; good rows written; failures listed.
+    """``warpwise catalogue`` (:mod:`.catalogue_command`, loaded for that command only)."""
+    from .catalogue_command import run_catalogue_command as run
 
-    Every output path is checked before any analysis; the datasheets are built in a staging
-    folder, and all outputs are written together at the end.
-    """
-    if not (args.csv or args.json or args.html):
-        raise UsageError("say where the results go: --csv OUT, --json OUT and/or --html DIR")
-    wanted = _catalogue_outputs(args)
-    check_outputs(wanted, _inputs(args, args.items))
-    options = RunOptions(read=read_options(args), analysis=analysis_options(args))
-    with staged_folder(args.html) as stage:
-        if stage is not None:
-            options = replace(options, datasheet_dir=str(stage), report_units=args.report_units)
-        items = catalogue_items(args.items, options, exclude=[f for f in (args.csv, args.json) if f])
-        check_outputs(wanted, [it.path for it in items])  # the drawings a manifest names
-        jobs = _jobs(args.jobs, len(items))
-        outcomes = run_catalogue(items, options, jobs=jobs, on_done=_Progress(len(items)))
-        good = [o for o in outcomes if o.ok]
-        bad = [o for o in outcomes if not o.ok]
-        _warn([o.record for o in good])
-        units = _table_units([o.record for o in good], args.report_units) if good else "mm"
-        files = [(args.csv, csv_text([o.record for o in good], units=units) if args.csv else ""),
-                 (args.json, json_text([o.record.in_units(units) for o in good]) if args.json
-                  else "")] if good else []
-        if stage is not None:
-            from ..report.html import write_catalogue_index
-
-            write_catalogue_index(outcomes, stage, units)
-        seconds = sum(o.seconds for o in outcomes)
-        print(f"{len(good)} of {len(outcomes)} profiles analysed ({seconds:.1f} s of analysis)",
-              file=sys.stderr)
-        for o in bad:
-            print(f"warpwise: error: {o.error}", file=sys.stderr)
-        write_outputs(files, [(stage, args.html)])
-    return EXIT_INPUT if bad else _missed_exit([o.record for o in good])
+    return run(args)
 
 
 def run_plot(args: argparse.Namespace) -> int:
@@ -370,6 +326,8 @@ def run_plot(args: argparse.Namespace) -> int:
         figure_warping,
         save_figure,
     )
+    from ..stress import combined_stress, torsion_stress
+    from ..stress.loads import Loads
 
     _check_picture("-o", args.output, args, [args.file])
     result = _analyse_file(args.file, args, bounds=False)
@@ -391,7 +349,14 @@ def run_plot(args: argparse.Namespace) -> int:
 
 def run_member(args: argparse.Namespace) -> int:
     """``warpwise member``: torsion with restrained warping along a member."""
+    import numpy as np
+
+    from ..member import MemberLoads, check_member, extremes, solve_member, stations
+    from ..report.records import record_of
+    from ..stress.member_stress import governing_stresses
+    from ..units import FORCE, LENGTH, MOMENT, convert
     from .member_output import member_csv, member_json, member_text
+    from .page_output import member_html, page_outputs, prints_report
 
     if not args.point_torque and not args.distributed_torque:
         raise UsageError("give a load: --point-torque T@Z and/or --distributed-torque M")
@@ -438,6 +403,8 @@ def run_member(args: argparse.Namespace) -> int:
 
 def run_shapes(args: argparse.Namespace) -> int:
     """``warpwise shapes``: the parametric profiles and their parameters."""
+    from ..geometry.shapes import describe_shapes
+
     sys.stdout.write(describe_shapes() + "\n")
     return 0
 
@@ -449,7 +416,8 @@ COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
 
 def main(argv: Sequence[str] | None = None) -> int:
     """Entry point of the ``warpwise`` command; returns the exit code."""
-    parser = build_parser()
+    argv = sys.argv[1:] if argv is None else [str(a) for a in argv]
+    parser = build_parser(argv[0] if argv else None)
     outputs.WRITTEN.clear()
     try:
         args = parser.parse_args(argv)

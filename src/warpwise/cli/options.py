@@ -12,10 +12,9 @@ import argparse
 from ..errors import UsageError
 from ..fem.solve import METHODS
 from ..geometry.profile import LENGTH_UNITS
-from ..io.dxf import MAX_ENTITIES
-from ..io.options import ReadOptions
+from ..io.options import MAX_ENTITIES, ReadOptions
 from ..materials import BUILTIN, read_materials
-from ..member import END_TEXT, ENDS
+from ..member.solution import END_TEXT, ENDS
 from ..properties.accuracy import ACCURACY_LEVELS
 from ..properties.run import AnalysisOptions
 from ..properties.shear import DEFAULT_POISSON
@@ -331,19 +330,12 @@ def _add_member(sub: argparse._SubParsersAction) -> None:
     _analysis_options(p)
 
 
-def build_parser() -> argparse.ArgumentParser:
-    """The argument parser of the ``warpwise`` command."""
-    parser = _Parser(prog="warpwise", description=(
-        "Section properties of bar and extrusion profiles by six-node finite elements. "
-        + CAUTION))
-    sub = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
-    _add_props(sub)
-    _add_stress(sub)
-    _add_catalogue(sub)
-    _add_plot(sub)
-    _add_member(sub)
+def _add_shapes(sub: argparse._SubParsersAction) -> None:
     sub.add_parser("shapes", help="list the parametric profiles for --shape",
                    description="List the parametric profiles and their parameters.")
+
+
+def _add_check(sub: argparse._SubParsersAction) -> None:
     check = sub.add_parser(
         "check", help="what a drawing holds and everything wrong with it",
         description="List what was found in a drawing (entities, layers, loops, holes, parts, "
@@ -353,6 +345,28 @@ def build_parser() -> argparse.ArgumentParser:
     check.add_argument("--plot", metavar="OUT.png",
                        help="also draw the outline with every defect marked (.png, .pdf or .svg)")
     _input_options(check)
+
+
+#: Each command's subparser, in the order ``warpwise --help`` lists them.
+_COMMAND_PARSERS = {"props": _add_props, "stress": _add_stress, "catalogue": _add_catalogue,
+                    "plot": _add_plot, "member": _add_member, "shapes": _add_shapes,
+                    "check": _add_check}
+
+
+def build_parser(command: str | None = None) -> argparse.ArgumentParser:
+    """The argument parser of the ``warpwise`` command.
+
+    With ``command`` (the first word of the command line, when it names a command) only that
+    command's options are built: they are all a run of it can parse, and building the other
+    commands' hundred options would be start-up time spent for nothing.
+    """
+    parser = _Parser(prog="warpwise", description=(
+        "Section properties of bar and extrusion profiles by six-node finite elements. "
+        + CAUTION))
+    sub = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
+    for name, add in _COMMAND_PARSERS.items():
+        if command is None or command not in _COMMAND_PARSERS or command == name:
+            add(sub)
     return parser
 
 

@@ -5,18 +5,34 @@
 coordinate outline (:mod:`warpwise.io.outline`, :data:`DEFAULT_READER`). Every reader takes the
 file and one :class:`~warpwise.io.options.ReadOptions`; the outline reader refuses the options
 that apply to drawings only.
+
+The DXF reader (and ezdxf with it) is loaded when a drawing is first read, or when one of its
+names (``read_dxf``, ``read_drawing``, ``import_dxf``) is first asked of this package, so that
+reading an outline file never pays for it.
 """
 
 from __future__ import annotations
 
+import importlib
 from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Protocol
 
 from ..geometry.profile import Profile
-from .dxf import import_dxf, read_drawing, read_dxf
-from .options import ReadOptions
+from .options import MAX_ENTITIES, ReadOptions
 from .outline import parse_outline, read_outline, refuse_dxf_options
+
+#: Names of the DXF reader offered here, loaded on first use (module ``__getattr__``).
+_DXF_NAMES = ("import_dxf", "read_drawing", "read_dxf")
+
+
+def __getattr__(name: str) -> object:
+    """A name of the DXF reader (:mod:`warpwise.io.dxf`), which is imported on first use."""
+    if name not in _DXF_NAMES:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(importlib.import_module(".dxf", __name__), name)
+    globals()[name] = value
+    return value
 
 
 class ProfileReader(Protocol):
@@ -27,6 +43,8 @@ class ProfileReader(Protocol):
 
 
 def _dxf_reader(path: str | Path, options: ReadOptions) -> Profile:
+    from .dxf import read_dxf
+
     return read_dxf(path, options.units, layers=options.layers or None, part=options.part,
                     all_parts=options.all_parts, chord_tolerance=options.chord_tolerance,
                     mesh_size=options.mesh_size, join_tolerance=options.join_tolerance,
@@ -104,7 +122,7 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
         DXF only, with ``layer_materials``: material name of the loops on the other layers.
     max_entities : int, optional
         DXF only: most entities the drawing may expand to, each copy of a block counted
-        (default 200,000, :data:`warpwise.io.dxf.MAX_ENTITIES`).
+        (default 200,000, :data:`warpwise.io.options.MAX_ENTITIES`).
 
     Returns
     -------
@@ -123,6 +141,6 @@ def load_profile(path: str | Path, units: str | None = None, *, layers: Sequence
     return options.load(path)
 
 
-__all__ = ["DEFAULT_READER", "READERS", "ProfileReader", "ReadOptions", "import_dxf", "is_dxf",
-           "load_profile", "parse_outline", "read_drawing", "read_dxf", "read_outline",
-           "reader_for"]
+__all__ = ["DEFAULT_READER", "MAX_ENTITIES", "READERS", "ProfileReader", "ReadOptions",
+           "import_dxf", "is_dxf", "load_profile", "parse_outline", "read_drawing", "read_dxf",
+           "read_outline", "reader_for"]

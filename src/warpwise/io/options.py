@@ -23,6 +23,11 @@ from pathlib import Path
 from ..errors import UsageError
 from ..geometry.profile import Profile
 
+#: Most entities one drawing may hold, each copy of a block counted (and most pieces read from
+#: it), unless the reader is given another limit (``--max-entities``). Kept here, with the
+#: options, so that the command line can name it without loading the DXF reader.
+MAX_ENTITIES = 200_000
+
 
 @dataclass(frozen=True)
 class ReadOptions:
@@ -53,7 +58,7 @@ class ReadOptions:
         (the command's ``--material``); None leaves it to the analysis, which then needs one.
     max_entities : int or None
         DXF: most entities a drawing may expand to, each copy of a block counted, and most
-        curves read (None: :data:`warpwise.io.dxf.MAX_ENTITIES`, 200,000); a drawing beyond it
+        curves read (None: :data:`MAX_ENTITIES`, 200,000); a drawing beyond it
         is refused before it is expanded.
     """
 

@@ -11,7 +11,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.optimize import minimize_scalar
 
 from .solution import MemberTorsion
 from .terms import QUANTITIES
@@ -72,6 +71,8 @@ def _value(member: MemberTorsion, name: str, z: float, side: str) -> float:
 
 def extremes(member: MemberTorsion) -> list[Extreme]:
     """The largest |value| of each quantity of :data:`QUANTITIES` with its position."""
+    from scipy.optimize import minimize_scalar  # here, not at start-up (scipy.optimize is slow to load)
+
     seg, z = _grid(member)
     # the end of a segment is taken from that segment (left limit), its start from the right
     end = np.isin(z, member.starts[1:]) & (z == member.starts[seg + 1])

@@ -9,7 +9,6 @@ from __future__ import annotations
 
 import numpy as np
 import shapely
-from scipy.spatial import cKDTree
 
 from ..errors import ProfileError
 from ..geometry.profile import Profile, default_element_size
@@ -156,20 +155,90 @@ def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple[
 
 #: Nearest corners looked at first for each point by :func:`corner_target` (more where needed).
 CORNERS_NEAR = 8
+#: Up to this many points are searched directly (:class:`DirectSearch`); more go into a k-d
+#: tree (scipy.spatial, imported only then: loading it costs a tenth of a second).
+DIRECT_SEARCH = 16
+#: Query points measured at once by :class:`DirectSearch` (bounds its memory).
+DIRECT_CHUNK = 32_768
 
 
-def corner_target(tree: cKDTree, h_corner: np.ndarray, grade: float, points: np.ndarray) -> np.ndarray:
+class DirectSearch:
+    """The nearest of a few points, by measuring every one (the query of a k-d tree, exact).
+
+    Examples
+    --------
+    >>> d, i = DirectSearch(np.array([[0.0, 0.0], [10.0, 0.0]])).query(np.array([[4.0, 0.0]]), k=2)
+    >>> d.tolist(), i.tolist()
+    ([[4.0, 6.0]], [[0, 1]])
+    """
+
+    def __init__(self, points: np.ndarray) -> None:
+        self.points = np.asarray(points, dtype=float)
+
+    def query(self, x: np.ndarray, k: int = 1) -> tuple[np.ndarray, np.ndarray]:
+        """Distances and indices of the ``k`` nearest points to each of ``x`` (m, 2), nearest first.
+
+        Shapes (m,) for ``k`` = 1, else (m, k), as :meth:`scipy.spatial.cKDTree.query`.
+        """
+        x = np.asarray(x, dtype=float)
+        k = min(k, len(self.points))
+        dist, index = np.empty((len(x), k)), np.empty((len(x), k), dtype=np.intp)
+        for start in range(0, len(x), DIRECT_CHUNK):  # a few chunks: memory, not a point loop
+            part = x[start:start + DIRECT_CHUNK]
+            dx = part[:, None, 0] - self.points[None, :, 0]
+            dy = part[:, None, 1] - self.points[None, :, 1]
+            d = np.sqrt(dx * dx + dy * dy)
+            order = np.argsort(d, axis=1, kind="stable")[:, :k]
+            index[start:start + len(part)] = order
+            dist[start:start + len(part)] = np.take_along_axis(d, order, axis=1)
+        return (dist[:, 0], index[:, 0]) if k == 1 else (dist, index)
+
+
+def point_search(points: np.ndarray) -> object:
+    """A nearest-point search over ``points`` (n, 2): direct for a few, a k-d tree for many."""
+    if len(points) <= DIRECT_SEARCH:
+        return DirectSearch(points)
+    from scipy.spatial import cKDTree
+
+    return cKDTree(points)
+
+
+def nearest_index(points: np.ndarray, queries: np.ndarray) -> np.ndarray:
+    """Index of the nearest of ``points`` (n, 2) to each of ``queries`` (m, 2).
+
+    A few queries (sharp corners) are answered by measuring every point; many by a k-d tree.
+
+    Examples
+    --------
+    >>> nearest_index(np.array([[0.0, 0.0], [5.0, 0.0], [9.0, 1.0]]), np.array([[8.0, 0.0]])).tolist()
+    [2]
+    """
+    queries = np.asarray(queries, dtype=float)
+    if len(queries) > DIRECT_SEARCH:
+        from scipy.spatial import cKDTree
+
+        return cKDTree(points).query(queries)[1]
+    pts = np.asarray(points, dtype=float)
+    out = np.empty(len(queries), dtype=np.intp)
+    for q, (x, y) in enumerate(queries):  # at most DIRECT_SEARCH corners
+        dx, dy = pts[:, 0] - x, pts[:, 1] - y
+        out[q] = int(np.argmin(dx * dx + dy * dy))
+    return out
+
+
+def corner_target(tree: object, h_corner: np.ndarray, grade: float, points: np.ndarray) -> np.ndarray:
     """Exact min over corners k of h_k + grade * |point - corner k| at each point, drawing unit.
 
     The nearest :data:`CORNERS_NEAR` corners (a k-d tree over the corners) give a candidate
     minimum m; a corner further than (m - min h) / grade cannot do better, so the points whose
     nearest corners do not reach that far are asked again with twice as many, until every
     minimum is exact. Memory and time grow with the points times a few corners, not times all.
+    ``tree`` is :func:`point_search` of the corners (a k-d tree or, for a few, direct search).
 
     Examples
     --------
     >>> corners = np.array([[0.0, 0.0], [10.0, 0.0]])
-    >>> corner_target(cKDTree(corners), np.array([1.0, 0.1]), 0.5, np.array([[4.0, 0.0]])).tolist()
+    >>> corner_target(point_search(corners), np.array([1.0, 0.1]), 0.5, np.array([[4.0, 0.0]])).tolist()
     [3.0]
     """
     n_corners = len(h_corner)
@@ -205,7 +274,7 @@ def grade_to_corners(pts: np.ndarray, sub: np.ndarray, corners: np.ndarray, h_co
     """
     if len(corners) == 0:
         return pts, sub
-    tree = cKDTree(corners)
+    tree = point_search(corners)
     for _ in range(60):
         if len(pts) > MAX_BOUNDARY_POINTS:
             break  # refused by the caller, naming the count reached

@@ -5,7 +5,6 @@ from __future__ import annotations
 import numpy as np
 import shapely
 from meshpy import triangle
-from scipy.spatial import cKDTree
 
 from ..errors import ProfileError, UsageError
 from ..geometry.corners import reentrant_corners
@@ -20,6 +19,7 @@ from .sizing import (
     TRIANGLES_PER_BOUNDARY_POINT,
     check_boundary_budget,
     grade_to_corners,
+    nearest_index,
     planar_graph,
     split_segments,
     wall_thickness,
@@ -109,7 +109,7 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     if corners:
         cxy = np.array([(c.x, c.y) for c in corners])
         # size at the corner: a fraction of the local size there (wall thickness or h)
-        near = cKDTree(pts[sub[:, 0]]).query(cxy)[1]  # the segment starting nearest each corner
+        near = nearest_index(pts[sub[:, 0]], cxy)  # the segment starting nearest each corner
         local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
         # the corner size shrinks faster than h under refinement (as h^2), which keeps the
         # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner

@@ -26,7 +26,7 @@ from .html_parts import (
     symbol_html,
     unit_html,
 )
-from .plot_parts import profile_name
+from .picture_parts import profile_name
 from .quantities import QUANTITY_BY_KEY, unit_of
 from .records import Record, record_of
 from .table import system_text

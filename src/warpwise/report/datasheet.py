@@ -2,10 +2,10 @@
 
 The page shows the outline with its principal axes, the property table, the torsion stress
 picture and values, the warping picture, a glossary of every symbol shown, the notes and the
-cautions. Styles and pictures (SVG) are inline; the page loads nothing from anywhere (a content
-security policy forbids it) and runs no script, so it can be mailed, archived or printed as it
-is. The torsion stresses are computed by the caller (:func:`warpwise.stress.torsion_stress`)
-and passed in.
+cautions. Styles and pictures (SVG, drawn from the arrays by :mod:`.plot_svg` without a
+plotting library) are inline; the page loads nothing from anywhere (a content security policy
+forbids it) and runs no script, so it can be mailed, archived or printed as it is. The torsion
+stresses are computed by the caller (:func:`warpwise.stress.torsion_stress`) and passed in.
 """
 
 from __future__ import annotations
@@ -34,10 +34,8 @@ from .html_parts import (
     unit_html,
     warning_box,
 )
-from .plot_files import svg_text
-from .plot_parts import profile_name
-from .plot_section import figure_outline, figure_warping
-from .plot_stress import figure_torsion
+from .picture_parts import profile_name
+from .plot_svg import outline_svg, torsion_svg, warping_svg
 from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of, shear_notes, table_shows
 from .records import Record, record_of
 from .table import corner_note, system_text
@@ -184,7 +182,7 @@ def _torsion_rows(result: SectionResult, torsion: TorsionStress,
 def _torsion_section(result: SectionResult, torsion: TorsionStress, nominal_torque: bool,
                      show: Converter) -> str:
     layout, width = _layout(result)
-    svg = svg_text(figure_torsion(result, torsion, width=width, units=show.target), "torsion-")
+    svg = torsion_svg(result, torsion, width=width, units=show.target)
     moment = unit_html(show.unit(MOMENT))
     T = number_html(show(torsion.torque, MOMENT))
     if nominal_torque:
@@ -263,7 +261,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
         meta.append("material" + ("s " if len(result.materials.names) > 1 else " ")
                     + ", ".join(escape(n) for n in result.materials.names))
     layout, width = _layout(result)
-    outline = svg_text(figure_outline(result, show_mesh=False, width=width, units=u), "outline-")
+    outline = outline_svg(result, width=width, units=u)
     table, shown = _property_rows(result, v, show)
     parts = [
         f'<header><h1>{escape(heading)}</h1><p class="meta">'
@@ -279,8 +277,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
     axis_section, axis_glossary = axis_html(about_axis, show) if about_axis else ("", "")
     parts += [axis_section, _torsion_section(result, torsion, nominal_torque, show)]
     if warping:
-        svg = svg_text(figure_warping(result, width=7.0 if _wide(result) else 6.0, units=u),
-                       "warping-")
+        svg = warping_svg(result, width=7.0 if _wide(result) else 6.0, units=u)
         parts.append(
             '<section id="warping"><h2>Warping</h2><figure class="picture" id="warping-picture">'
             f"{svg}<figcaption>Warping function \u03c9 about the shear centre (zero mean, "

@@ -8,8 +8,6 @@ the analysis and the stress recovery found.
 
 from __future__ import annotations
 
-from pathlib import Path
-
 import numpy as np
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
@@ -22,53 +20,30 @@ from matplotlib.tri import Triangulation
 from ..mesh.edges import mesh_edges
 from ..properties.analysis import SectionResult
 from ..units import LENGTH, Converter
+from .picture_parts import (  # noqa: F401  (the shared colours and words, re-exported)
+    AXIS1_COLOUR,
+    AXIS2_COLOUR,
+    BANDS,
+    CENTROID_COLOUR,
+    EDGE_COLOUR,
+    MATERIAL_COLOURS,
+    MESH_COLOUR,
+    SHEAR_CENTRE_COLOUR,
+    fmt,
+    point_text,
+    profile_name,
+    sub_triangles,
+)
 
-#: Fill colours of the materials (regions of the first material take the first colour).
-MATERIAL_COLOURS = ("#a9c4dc", "#e2c48a", "#b4d6a6", "#d9aab0", "#c6b8dc", "#bfc7cf")
-#: Colour of outlines and interfaces.
-EDGE_COLOUR = "#24313c"
-#: Colour of mesh edges.
-MESH_COLOUR = "#4f6475"
-#: Colour of the centroid marker and of principal axis 1; of axis 2; of the shear centre.
-CENTROID_COLOUR = "#111111"
-AXIS1_COLOUR = "#1d4f91"
-AXIS2_COLOUR = "#b4541a"
-SHEAR_CENTRE_COLOUR = "#c0182b"
 #: Colour maps: warping and normal stress (signed, centred at zero), stress magnitudes.
 SIGNED_MAP = "RdBu_r"
 MAGNITUDE_MAP = "YlOrRd"
-#: Number of colour bands in the contour pictures.
-BANDS = 16
 #: Figure width, inches.
 WIDTH = 7.0
 
 
 # ----------------------------------------------------------------------------------------------
 # the mesh as drawn
-
-def sub_triangles(elements: np.ndarray) -> np.ndarray:
-    """Split six-node triangles into four three-node triangles each.
-
-    Parameters
-    ----------
-    elements : numpy.ndarray
-        Connectivity (m, 6): corners counter-clockwise, then mid-side nodes of edges (0, 1),
-        (1, 2), (2, 0).
-
-    Returns
-    -------
-    numpy.ndarray
-        Connectivity (4 m, 3), counter-clockwise: the three corner triangles, then the middle.
-
-    Examples
-    --------
-    >>> sub_triangles(np.array([[0, 1, 2, 3, 4, 5]])).tolist()
-    [[0, 3, 5], [3, 1, 4], [5, 4, 2], [3, 4, 5]]
-
-    """
-    e = np.asarray(elements)
-    return e[:, [0, 3, 5, 3, 1, 4, 5, 4, 2, 3, 4, 5]].reshape(-1, 3)
-
 
 def element_edges(elements: np.ndarray, boundary_only: bool = False,
                   region: np.ndarray | None = None) -> np.ndarray:
@@ -116,19 +91,6 @@ def triangulation(result: SectionResult, mask: np.ndarray | None = None) -> Tria
 
 # ----------------------------------------------------------------------------------------------
 # axes, title, legend
-
-def profile_name(result: SectionResult) -> str:
-    """Short name of the analysed profile: the file name, or ``profile`` for a shape."""
-    src = result.profile.source
-    if src.startswith("<"):
-        return "profile"
-    return Path(src).name or src
-
-
-def fmt(v: float) -> str:
-    """A number for a legend or title: four significant figures, round-off shown as 0."""
-    return "0" if abs(v) < 5e-13 else f"{v:.4g}"
-
 
 def new_figure(result: SectionResult, show: Converter | None = None) -> tuple[Figure, object]:
     """A figure with one equal-aspect axes (sized by :func:`finish`).
@@ -241,12 +203,6 @@ def mark_shear_centre(ax: object, result: SectionResult, show: Converter | None 
                     color=SHEAR_CENTRE_COLOUR, fontsize=10, fontweight="bold", zorder=9)
     return Line2D([], [], marker="D", ms=7, mfc=SHEAR_CENTRE_COLOUR, mec="white", ls="none",
                   label=f"S: shear centre {point_text(show, (xs, ys))}")
-
-
-def point_text(show: Converter, xy: tuple[float, float]) -> str:
-    """A point as legend text in ``show``'s length unit, e.g. ``(1.5, 0) mm``."""
-    x, y = show.point(xy)
-    return f"({fmt(x)}, {fmt(y)}) {show.system.length}"
 
 
 # ----------------------------------------------------------------------------------------------

@@ -15,24 +15,14 @@ from matplotlib.path import Path as MplPath
 from ..properties.analysis import SectionResult
 from ..units import AREA, Converter, Dimension
 from . import plot_parts as parts
+from .picture_parts import material_names
 
 # ----------------------------------------------------------------------------------------------
 # drawing pieces of the outline
 
-def _material_names(result: SectionResult) -> list[str]:
-    """Name shown for each region's material ("section" for geometry only)."""
-    regions = result.profile.regions
-    mats = result.materials.materials
-    if len(mats) == len(regions):
-        return [m.name for m in mats]
-    if len(mats) == 1:
-        return [mats[0].name] * len(regions)
-    return [r.material or "section" for r in regions]
-
-
 def _draw_fill(ax: object, result: SectionResult) -> list[Patch]:
     """Fill each region in its material colour; return one legend patch per material."""
-    names = _material_names(result)
+    names = material_names(result)
     order = list(dict.fromkeys(names))
     colours = parts.MATERIAL_COLOURS
     for region, name in zip(result.profile.regions, names, strict=True):

@@ -21,6 +21,7 @@ from ..properties.analysis import SectionResult
 from ..stress import CombinedStress, Loads, MaterialField, TorsionStress
 from ..units import FORCE, MOMENT, STRESS, TWIST, Converter
 from . import plot_parts as parts
+from .picture_parts import ARROW_CELLS, CORNER_COLOUR, PEAK_COLOUR, arrow_nodes
 
 #: Stress pictures :func:`figure_combined` draws: stress field attribute and axis label.
 COMBINED_QUANTITIES = {
@@ -29,9 +30,6 @@ COMBINED_QUANTITIES = {
     "von_mises": ("von_mises", "von Mises stress"),
 }
 
-#: Colour of the marks of sharp re-entrant corners; of the largest stress.
-CORNER_COLOUR = "#5b2a86"
-PEAK_COLOUR = "#0b6e4f"
 
 
 # ----------------------------------------------------------------------------------------------
@@ -60,26 +58,13 @@ def _draw_fields(ax: object, result: SectionResult,
     return fill
 
 
-def _arrow_nodes(result: SectionResult, cells: int = 24) -> np.ndarray:
-    """About one node per cell of a square grid over the profile: where arrows are drawn."""
-    nodes = result.mesh.nodes
-    x0, y0, _, _ = result.profile.bounds
-    step = result.profile.size / cells
-    cell = np.floor((nodes - np.array([x0, y0])) / step).astype(np.int64)
-    centre = np.array([x0, y0]) + (cell + 0.5) * step
-    dist = np.hypot(*(nodes - centre).T)
-    order = np.lexsort((dist, cell[:, 1], cell[:, 0]))
-    _, first = np.unique(cell[order], axis=0, return_index=True)
-    return order[first]
-
-
 def _draw_arrows(ax: object, result: SectionResult, stress: TorsionStress) -> Line2D:
     """Stress-direction arrows on a grid, lengths in proportion up to the largest stress."""
-    pick = _arrow_nodes(result)
+    pick = arrow_nodes(result)
     u, v = stress.tau_zx[pick], stress.tau_zy[pick]
     top = stress.tau_max
     clip = np.minimum(1.0, top / np.maximum(np.hypot(u, v), 1e-300))  # corner values would swamp the rest
-    step = result.profile.size / 24
+    step = result.profile.size / ARROW_CELLS
     ax.quiver(result.mesh.nodes[pick, 0], result.mesh.nodes[pick, 1], u * clip, v * clip,
               angles="xy", scale_units="xy", scale=top / (0.85 * step), color="#1f2a33",
               width=0.0028, headwidth=4.0, headlength=4.5, headaxislength=4.0, pivot="mid",

@@ -18,12 +18,9 @@ import numpy as np
 from ...errors import InputFileError
 from ...geometry.loops import MAX_COORDINATE
 from ..defects import WARNING, Defect, fmt_point
+from ..options import MAX_ENTITIES
 from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyline_piece
 from ..progress import ProgressLine
-
-#: Most entities one drawing may hold, each copy of a block counted (and most pieces read from
-#: it), unless the reader is given another limit (``--max-entities``).
-MAX_ENTITIES = 200_000
 
 
 @dataclass(frozen=True)
