@@ -21,7 +21,7 @@ import pytest
 from conftest import SAMPLES
 
 KEY_BAR = SAMPLES / "key_bar_12x8.txt"  # no sharp re-entrant corner
-CHANNEL = SAMPLES / "channel_thick_80x40.txt"  # two sharp re-entrant corners
+CHANNEL = SAMPLES / "channel_thick_80x40.txt"  # filleted corners
 DRAWING = SAMPLES / "rail_t_slot_40x45.dxf"
 
 #: Never loaded by ``props`` on an outline file without pictures.
@@ -51,8 +51,17 @@ def under(names: set[str], package: str) -> list[str]:
     return sorted(n for n in names if n == package or n.startswith(package + "."))
 
 
-@pytest.mark.parametrize("outline", [KEY_BAR, CHANNEL], ids=["no-corner", "two-corners"])
-def test_props_on_an_outline_loads_only_the_analysis(outline):
+@pytest.fixture
+def tee(tmp_path):
+    """An invented T with two sharp re-entrant corners."""
+    path = tmp_path / "tee.txt"
+    path.write_text("0 0\n6 0\n6 30\n20 30\n20 36\n-14 36\n-14 30\n0 30\n")
+    return path
+
+
+@pytest.mark.parametrize("outline", ["bar", "filleted", "sharp-corners"])
+def test_props_on_an_outline_loads_only_the_analysis(outline, tee):
+    outline = {"bar": KEY_BAR, "filleted": CHANNEL, "sharp-corners": tee}[outline]
     names = loaded("props", outline)
     assert "warpwise.properties.analysis" in names and "meshpy" in names
     for package in NOT_FOR_AN_OUTLINE:

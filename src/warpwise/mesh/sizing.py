@@ -206,7 +206,8 @@ def point_search(points: np.ndarray) -> object:
 def nearest_index(points: np.ndarray, queries: np.ndarray) -> np.ndarray:
     """Index of the nearest of ``points`` (n, 2) to each of ``queries`` (m, 2).
 
-    A few queries (sharp corners) are answered by measuring every point; many by a k-d tree.
+    A few queries (sharp corners) are answered by measuring every point; many, or a point
+    equally near to two (which the k-d tree breaks its own way), by a k-d tree.
 
     Examples
     --------
@@ -214,16 +215,22 @@ def nearest_index(points: np.ndarray, queries: np.ndarray) -> np.ndarray:
     [2]
     """
     queries = np.asarray(queries, dtype=float)
-    if len(queries) > DIRECT_SEARCH:
-        from scipy.spatial import cKDTree
-
-        return cKDTree(points).query(queries)[1]
     pts = np.asarray(points, dtype=float)
-    out = np.empty(len(queries), dtype=np.intp)
-    for q, (x, y) in enumerate(queries):  # at most DIRECT_SEARCH corners
-        dx, dy = pts[:, 0] - x, pts[:, 1] - y
-        out[q] = int(np.argmin(dx * dx + dy * dy))
-    return out
+    if len(queries) <= DIRECT_SEARCH:
+        out = np.empty(len(queries), dtype=np.intp)
+        tied = False
+        for q, (x, y) in enumerate(queries):  # at most DIRECT_SEARCH corners
+            dx, dy = pts[:, 0] - x, pts[:, 1] - y
+            d2 = dx * dx + dy * dy
+            out[q] = int(np.argmin(d2))
+            tied |= int(np.count_nonzero(d2 == d2[out[q]])) > 1
+        if not tied:
+            return out
+    # many queries, or two points equally near (a point repeated): the k-d tree's own choice,
+    # so that the mesh is the one it always was
+    from scipy.spatial import cKDTree
+
+    return cKDTree(pts).query(queries)[1]
 
 
 def corner_target(tree: object, h_corner: np.ndarray, grade: float, points: np.ndarray) -> np.ndarray:
