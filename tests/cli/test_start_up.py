@@ -23,6 +23,7 @@ from conftest import SAMPLES
 KEY_BAR = SAMPLES / "key_bar_12x8.txt"  # no sharp re-entrant corner
 CHANNEL = SAMPLES / "channel_thick_80x40.txt"  # filleted corners
 DRAWING = SAMPLES / "rail_t_slot_40x45.dxf"
+PLAIN_DRAWING = SAMPLES / "angle_thick_60x40x8.dxf"  # no sharp corner
 
 #: Never loaded by ``props`` on an outline file without pictures.
 NOT_FOR_AN_OUTLINE = ("ezdxf", "matplotlib", "scipy.optimize", "scipy.spatial",
@@ -80,6 +81,12 @@ def test_props_on_a_drawing_loads_the_dxf_reader_only(tmp_path):
     for package in ("matplotlib", "scipy.optimize", "concurrent.futures.process",
                     "warpwise.catalogue", "warpwise.report.plots"):
         assert not under(names, package), package
+
+
+def test_reading_a_drawing_needs_no_k_d_tree():
+    # the ends of the drawing's pieces are paired directly (a few dozen of them)
+    names = loaded("props", PLAIN_DRAWING)
+    assert "ezdxf" in names and not under(names, "scipy.spatial")
 
 
 def test_datasheet_pictures_are_drawn_without_matplotlib(tmp_path):

@@ -2,7 +2,9 @@
 
 A profile with a few sharp re-entrant corners grades its boundary towards them by searching
 the corners directly (:class:`warpwise.mesh.sizing.DirectSearch`); scipy.spatial is loaded
-only for many corners. The answers must be those of ``cKDTree`` (common practice, no source).
+only for many corners. Likewise the ends of drawing pieces are paired within the joining
+tolerance directly (:func:`warpwise.io.chains.close_pairs`). The answers must be those of
+``cKDTree`` (common practice, no source).
 """
 
 import numpy as np
@@ -45,3 +47,15 @@ def test_graded_mesh_is_the_trees_mesh(sample, monkeypatch):
     tree = build_mesh(profile)
     assert np.array_equal(direct.nodes, tree.nodes)
     assert np.array_equal(direct.elements, tree.elements)
+
+
+@pytest.mark.parametrize("n", [2, 40, 600])
+def test_close_pairs_equal_the_trees(n):
+    from warpwise.io.chains import close_pairs
+
+    rng = np.random.default_rng(n)
+    points = np.round(rng.uniform(0, 10, (n, 2)), 1)  # on a 0.1 grid: many pairs, some equal
+    for tol in (0.0, 0.1, 0.35):
+        mine = {tuple(p) for p in close_pairs(points, tol).tolist()}
+        tree = {tuple(p) for p in cKDTree(points).query_pairs(tol, output_type="ndarray").tolist()}
+        assert mine == tree

@@ -39,7 +39,6 @@ from dataclasses import dataclass, field
 import numpy as np
 from scipy.sparse import coo_matrix
 from scipy.sparse.csgraph import connected_components
-from scipy.spatial import cKDTree
 
 from .chords import arcs_for_mesh, chord_error, loop_points
 from .defects import ERROR, WARNING, Defect, fmt, fmt_point
@@ -69,6 +68,29 @@ class Chaining:
     tolerance: float = 0.0
 
 
+#: Up to this many distinct piece ends are paired by measuring every pair; more through a k-d
+#: tree (scipy.spatial, loaded only then: it costs start-up time for every drawing read).
+DIRECT_PAIRS = 512
+
+
+def close_pairs(points: np.ndarray, tol: float) -> np.ndarray:
+    """Index pairs (i < j) (k, 2) of points at most ``tol`` apart.
+
+    Examples
+    --------
+    >>> close_pairs(np.array([[0.0, 0.0], [0.5, 0.0], [3.0, 0.0], [3.0, 0.4]]), 0.5).tolist()
+    [[0, 1], [2, 3]]
+    """
+    if len(points) > DIRECT_PAIRS:
+        from scipy.spatial import cKDTree
+
+        return cKDTree(points).query_pairs(tol, output_type="ndarray")
+    i, j = np.triu_indices(len(points), k=1)
+    d = points[i] - points[j]
+    near = np.sqrt(d[:, 0] * d[:, 0] + d[:, 1] * d[:, 1]) <= tol
+    return np.column_stack([i[near], j[near]]).astype(np.intp)
+
+
 def _clusters(points: np.ndarray, tol: float) -> np.ndarray:
     """Label points so that points closer than ``tol`` (transitively) share a label."""
     n = len(points)
@@ -80,7 +102,7 @@ def _clusters(points: np.ndarray, tol: float) -> np.ndarray:
     _, first, inverse = np.unique(key, axis=0, return_index=True, return_inverse=True)
     uniq = points[first]
     m = len(uniq)
-    pairs = cKDTree(uniq).query_pairs(tol, output_type="ndarray")
+    pairs = close_pairs(uniq, tol)
     graph = coo_matrix((np.ones(len(pairs)), (pairs[:, 0], pairs[:, 1])), shape=(m, m))
     _, labels = connected_components(graph, directed=False)
     return labels[inverse.reshape(-1)].astype(np.int64)

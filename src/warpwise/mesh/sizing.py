@@ -226,8 +226,8 @@ def nearest_index(points: np.ndarray, queries: np.ndarray) -> np.ndarray:
             tied |= int(np.count_nonzero(d2 == d2[out[q]])) > 1
         if not tied:
             return out
-    # many queries, or two points equally near (a point repeated): the k-d tree's own choice,
-    # so that the mesh is the one it always was
+    # many queries, or two points equally near (a point repeated where loops meet): the k-d
+    # tree's own choice, so that every mesh is the one it always was
     from scipy.spatial import cKDTree
 
     return cKDTree(pts).query(queries)[1]

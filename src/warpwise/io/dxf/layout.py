@@ -19,7 +19,6 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 import shapely
-from scipy.spatial import cKDTree
 from shapely.geometry import LineString
 
 from ...errors import UsageError
@@ -332,6 +331,8 @@ def open_chain_defects(chains: Sequence[Chain], pieces: Sequence[Piece]) -> list
     """
     if not chains:
         return []
+    from scipy.spatial import cKDTree  # here: open chains are rare, and scipy.spatial is slow to load
+
     ends = np.array([p for c in chains for p in c.ends(pieces)], dtype=float)
     # distance from each free end to the nearest other one (its own chain's other end included)
     dist, _ = cKDTree(ends).query(ends, k=2)
