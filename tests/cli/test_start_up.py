@@ -28,7 +28,8 @@ PLAIN_DRAWING = SAMPLES / "angle_thick_60x40x8.dxf"  # no sharp corner
 #: Never loaded by ``props`` on an outline file without pictures.
 NOT_FOR_AN_OUTLINE = ("ezdxf", "matplotlib", "scipy.optimize", "scipy.spatial",
                       "concurrent.futures.process", "warpwise.io.dxf", "warpwise.catalogue",
-                      "warpwise.stress", "warpwise.report.plots", "warpwise.report.plot_parts")
+                      "warpwise.stress", "warpwise.member", "warpwise.report.plots",
+                      "warpwise.report.plot_parts")
 
 _IMPORT_LINE = re.compile(r"^import time:\s+\d+ \|\s+\d+ \|( *)(\S+)\s*$")
 

@@ -14,7 +14,6 @@ from ..fem.solve import METHODS
 from ..geometry.profile import LENGTH_UNITS
 from ..io.options import MAX_ENTITIES, ReadOptions
 from ..materials import BUILTIN, read_materials
-from ..member.solution import END_TEXT, ENDS
 from ..properties.accuracy import ACCURACY_LEVELS
 from ..properties.run import AnalysisOptions
 from ..properties.shear import DEFAULT_POISSON
@@ -106,6 +105,8 @@ def torque_at(text: str) -> tuple[float, float]:
 
 def end_pair(text: str) -> tuple[str, str]:
     """The end conditions ``START,END`` of a member from the command line."""
+    from ..member.solution import ENDS
+
     ends = tuple(e.strip() for e in text.split(","))
     if len(ends) != 2 or any(e not in ENDS for e in ends):
         raise argparse.ArgumentTypeError(
@@ -300,6 +301,8 @@ def _add_plot(sub: argparse._SubParsersAction) -> None:
 
 
 def _add_member(sub: argparse._SubParsersAction) -> None:
+    from ..member.solution import END_TEXT  # the member options only: props needs no member
+
     ends = "; ".join(f"{k}: {t}" for k, t in END_TEXT.items())
     p = sub.add_parser(
         "member", help="twist, bimoment and warping torque along a member (restrained warping)",
