@@ -69,6 +69,7 @@ def test_dask_local_cluster():
 def test_exception_mid_run_leaves_no_output(tmp_path, monkeypatch):
     # an interruption (here: an exception from the progress callback, as Ctrl-C would raise)
     # must not leave a partial CSV behind
+    import warpwise.catalogue
     from warpwise.cli import commands as cli_module
 
     out = tmp_path / "never.csv"
@@ -76,7 +77,9 @@ def test_exception_mid_run_leaves_no_output(tmp_path, monkeypatch):
     def boom(*args, **kwargs):
         raise KeyboardInterrupt
 
-    monkeypatch.setattr(cli_module, "run_catalogue", boom)
+    # the command imports the runner when it runs (start-up time), so the runner is replaced
+    # where it lives
+    monkeypatch.setattr(warpwise.catalogue, "run_catalogue", boom)
     code = cli_module.main(["catalogue", str(SAMPLES), "--csv", str(out)])
     assert code == 130
     assert not out.exists()
