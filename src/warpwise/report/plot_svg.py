@@ -75,7 +75,8 @@ class _Picture:
         """The finished picture."""
         f = self.frame
         legend_top = f.bottom + sv.BELOW_PLOT + 4
-        height = max(legend_top + len(self.entries) * sv.LEGEND_LINE,
+        lines = sv.legend_lines(self.entries, f.width - f.left - 10)
+        height = max(legend_top + len(lines) * sv.LEGEND_LINE,
                      f.top + bar_height + 12) + 4
         title = "".join(sv.text(10, 10 + sv.TITLE_LINE * (k + 0.75), line, size=13,
                                 colour=sv.TITLE_COLOUR) for k, line in enumerate(self.title))
@@ -84,7 +85,7 @@ class _Picture:
                 f'viewBox="0 0 {w} {h}" role="img" aria-label="{escape(" ".join(self.title))}" '
                 f"font-family='{sv.FONT}'><rect width=\"{w}\" height=\"{h}\" fill=\"#ffffff\"/>"
                 f'<g class="title">{title}</g>{sv.axes(f, self.k, self.show.system.length)}'
-                f'{"".join(self.body)}{sv.legend(self.entries, f.left, legend_top)}</svg>')
+                f'{"".join(self.body)}{sv.legend(lines, f.left, legend_top)}</svg>')
 
     # the pieces every picture has -----------------------------------------------------------
 

@@ -18,6 +18,7 @@ Examples
 from __future__ import annotations
 
 import math
+import textwrap
 from collections.abc import Sequence
 from html import escape
 
@@ -276,12 +277,23 @@ def mark(frame: Frame, xy: Sequence[float], shape: str, name: str, k: float, lab
             f'data-x="{float(xy[0]) * k!r}" data-y="{float(xy[1]) * k!r}">{shape}{letter}</g>')
 
 
-def legend(entries: Sequence[tuple[str, str]], x: float, y: float) -> str:
-    """Legend lines below the plot: (mark, words) each."""
+def legend_lines(entries: Sequence[tuple[str, str]], room: float) -> list[tuple[str, str]]:
+    """Legend entries as lines of at most ``room`` pixels (a long entry goes on, unmarked)."""
+    width = max(20, int((room - 30) / 6.4))  # characters of 11.5 px text
+    out = []
+    for shape, words in entries:
+        for k, line in enumerate(textwrap.wrap(words, width) or [""]):
+            out.append((shape if k == 0 else "", line))
+    return out
+
+
+def legend(lines: Sequence[tuple[str, str]], x: float, y: float) -> str:
+    """Legend lines below the plot: (mark, words) each (:func:`legend_lines`)."""
     out = ['<g class="legend">']
-    for row, (shape, words) in enumerate(entries):
+    for row, (shape, words) in enumerate(lines):
         yy = y + row * LEGEND_LINE
-        out.append(f'<g transform="translate({num(x + 12)} {num(yy)})">{shape}</g>')
+        if shape:
+            out.append(f'<g transform="translate({num(x + 12)} {num(yy)})">{shape}</g>')
         out.append(text(x + 30, yy, words, size=11.5, colour="#1f2a33",
                         extra=' dominant-baseline="central"'))
     out.append("</g>")
