@@ -10,6 +10,9 @@ the package) is removed and ``PYTHONDONTWRITEBYTECODE=1`` keeps it from being wr
 run compiles warpwise's sources again (the libraries keep their installed bytecode). "warm":
 the cache is written by a first run that is not timed, as on a developer's machine. The
 minimum of the runs is the figure to compare (least disturbed by the rest of the machine).
+The first row, "libraries alone", is a Python that only imports what every analysis needs
+(numpy, scipy.sparse.linalg, shapely, meshpy): the floor of any ``props`` run on this machine
+at this moment, so that the rows can be read on a busy machine too.
 """
 
 from __future__ import annotations
@@ -53,9 +56,13 @@ def once(args: list[str], env: dict[str, str]) -> float:
     return seconds
 
 
-def measure(path: Path, runs: int, cold: bool) -> list[float]:
+#: What every analysis imports: the floor of a ``props`` run.
+LIBRARIES = "import numpy, scipy.sparse.linalg, scipy.sparse.csgraph, shapely, meshpy.triangle"
+
+
+def measure(path: Path | None, runs: int, cold: bool) -> list[float]:
     env = dict(os.environ)
-    args = [*command(), "props", str(path)]
+    args = [sys.executable, "-c", LIBRARIES] if path is None else [*command(), "props", str(path)]
     if cold:
         clear_cache()
         env["PYTHONDONTWRITEBYTECODE"] = "1"
@@ -75,12 +82,14 @@ def main() -> None:
           f"({os.cpu_count()} CPUs, Python {sys.version.split()[0]})")
     print(f"{'profile':40s} {'cold min':>9s} {'cold med':>9s} {'warm min':>9s} {'warm med':>9s}")
     rows = []
-    for path in args.files:
+    for path in [None, *args.files]:
         cold = measure(path, args.runs, cold=True)
         warm = measure(path, args.runs, cold=False)
-        rows.append((min(cold), min(warm)))
-        print(f"{path.name:40s} {min(cold):9.3f} {statistics.median(cold):9.3f} "
-              f"{min(warm):9.3f} {statistics.median(warm):9.3f}", flush=True)
+        if path is not None:
+            rows.append((min(cold), min(warm)))
+        print(f"{path.name if path else 'libraries alone':40s} {min(cold):9.3f} "
+              f"{statistics.median(cold):9.3f} {min(warm):9.3f} {statistics.median(warm):9.3f}",
+              flush=True)
     if len(rows) > 1:
         print(f"{'median over the profiles':40s} {statistics.median(r[0] for r in rows):9.3f} "
               f"{'':9s} {statistics.median(r[1] for r in rows):9.3f}")
