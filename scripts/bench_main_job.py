@@ -14,21 +14,16 @@ from __future__ import annotations
 import argparse
 import os
 import statistics
-import subprocess
-import sys
 import tempfile
-import time
 from pathlib import Path
+
+from bench_startup import command, once  # scripts/ is on the path when this is run
 
 ROOT = Path(__file__).resolve().parents[1]
 
 
-def command() -> list[str]:
-    script = Path(sys.executable).with_name("warpwise")
-    return [str(script)] if script.exists() else [sys.executable, "-m", "warpwise.cli"]
-
-
-def once(html: bool, jobs: int | None) -> float:
+def run(html: bool, jobs: int | None) -> float:
+    """Seconds of one run of the job, written into a temporary folder."""
     with tempfile.TemporaryDirectory() as tmp:
         args = [*command(), "catalogue", str(ROOT / "sample_sections"), "--csv",
                 str(Path(tmp) / "sample_properties.csv")]
@@ -37,27 +32,21 @@ def once(html: bool, jobs: int | None) -> float:
         if jobs is not None:
             args += ["--jobs", str(jobs)]
         env = {k: v for k, v in os.environ.items() if k != "PYTHONDONTWRITEBYTECODE"}
-        start = time.perf_counter()
-        proc = subprocess.run(args, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, env=env,
-                              stdin=subprocess.DEVNULL)
-        seconds = time.perf_counter() - start
-        if proc.returncode != 0:
-            raise SystemExit(f"{' '.join(args)} failed: {proc.stderr.decode()[-500:]}")
-        return seconds
+        return once(args, env)
 
 
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--runs", type=int, default=3)
     args = parser.parse_args()
-    once(False, 1)  # the bytecode cache written, files in the disk cache; not timed
+    run(False, 1)  # the bytecode cache written, files in the disk cache; not timed
     print(f"warpwise catalogue sample_sections, {args.runs} runs each, wall time in seconds "
           f"({os.cpu_count()} CPUs)")
     print(f"{'workers':10s} {'CSV min':>8s} {'CSV med':>8s} {'+HTML min':>10s} {'+HTML med':>10s} "
           f"{'ratio':>6s}")
     for jobs in (1, None):
-        csv = [once(False, jobs) for _ in range(args.runs)]
-        html = [once(True, jobs) for _ in range(args.runs)]
+        csv = [run(False, jobs) for _ in range(args.runs)]
+        html = [run(True, jobs) for _ in range(args.runs)]
         print(f"{'--jobs 1' if jobs == 1 else 'default':10s} {min(csv):8.2f} "
               f"{statistics.median(csv):8.2f} {min(html):10.2f} {statistics.median(html):10.2f} "
               f"{min(html) / min(csv):6.2f}", flush=True)
