@@ -281,6 +281,12 @@ def _add_catalogue(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
+    p.add_argument("--cluster", metavar="ADDRESS",
+                   help="run on a Dask cluster: its scheduler's address (tcp://HOST:8786), or "
+                        "'local' for a cluster of --jobs worker processes on this machine")
+    p.add_argument("--fresh", action="store_true",
+                   help="analyse every profile again, ignoring what an interrupted run with the "
+                        "same outputs left (OUT.partial)")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)
