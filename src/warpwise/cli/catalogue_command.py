@@ -50,6 +50,7 @@ class _Progress:
 def _catalogue_outputs(args: argparse.Namespace) -> list[Output]:
     """The outputs of a catalogue run."""
     return [Output("--csv", args.csv), Output("--json", args.json),
+            Output("--xlsx", args.xlsx, to_stdout=False),
             Output("--html", args.html, folder=True, to_stdout=False, what="a folder")]
 
 
@@ -70,7 +71,7 @@ def _journal_of(args: argparse.Namespace, stage: Path | None) -> Path | None:
 
     if stage is not None:
         return stage / JOURNAL_IN_STAGE
-    first = next((f for f in (args.csv, args.json) if f and not is_stdout(f)), None)
+    first = next((f for f in (args.csv, args.json, args.xlsx) if f and not is_stdout(f)), None)
     return None if first is None else journal_path(first)
 
 
@@ -104,6 +105,17 @@ def _drop_stale_pages(stage: Path, outcomes: list[Outcome]) -> None:
             page.unlink()
 
 
+def _workbook(good: list[Outcome], bad: list[Outcome], options: RunOptions, units: str) -> bytes:
+    """The XLSX workbook of a run: properties, failures and the materials the rows name."""
+    from ..materials import resolve
+    from ..report.workbook import workbook_bytes
+
+    records = [o.record for o in good]
+    names = sorted({n for r in records for n in r.materials if n})
+    materials = resolve(list(names), options.analysis.materials) if names else []
+    return workbook_bytes(records, [(o.path, o.error or "") for o in bad], materials or [], units)
+
+
 def run_catalogue_command(args: argparse.Namespace) -> int:
     """``warpwise catalogue``: every profile analysed; good rows written; failures listed.
 
@@ -114,8 +126,9 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     """
     from ..catalogue.journal import KEPT
 
-    if not (args.csv or args.json or args.html):
-        raise UsageError("say where the results go: --csv OUT, --json OUT and/or --html DIR")
+    if not (args.csv or args.json or args.xlsx or args.html):
+        raise UsageError("say where the results go: --csv OUT, --json OUT, --xlsx OUT.xlsx "
+                         "and/or --html DIR")
     wanted = _catalogue_outputs(args)
     check_outputs(wanted, _inputs(args, args.items))
     options = RunOptions(read=read_options(args), analysis=analysis_options(args))
@@ -123,7 +136,8 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     with staged_folder(args.html, keep=True) as stage:
         if stage is not None:
             options = replace(options, datasheet_dir=str(stage), report_units=args.report_units)
-        items = catalogue_items(args.items, options, exclude=[f for f in (args.csv, args.json) if f])
+        items = catalogue_items(args.items, options,
+                                exclude=[f for f in (args.csv, args.json, args.xlsx) if f])
         check_outputs(wanted, [it.path for it in items])  # the drawings a manifest names
         journal = _journal_of(args, stage)
         outcomes = _run_items(args, items, options, journal)
@@ -133,7 +147,9 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
         units = _table_units([o.record for o in good], args.report_units) if good else "mm"
         files = [(args.csv, csv_text([o.record for o in good], units=units) if args.csv else ""),
                  (args.json, json_text([o.record.in_units(units) for o in good]) if args.json
-                  else "")] if good else []
+                  else ""),
+                 (args.xlsx, _workbook(good, bad, options, units) if args.xlsx else b"")] \
+            if good else []
         if stage is not None:
             from ..report.html import write_catalogue_index
 

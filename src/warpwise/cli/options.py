@@ -278,6 +278,9 @@ def _add_catalogue(sub: argparse._SubParsersAction) -> None:
     p.add_argument("items", nargs="+", metavar="DIR_FILE_OR_MANIFEST")
     p.add_argument("--csv", metavar="OUT", help="property table, one row per profile")
     p.add_argument("--json", metavar="OUT", help="the same as a JSON list")
+    p.add_argument("--xlsx", metavar="OUT.xlsx",
+                   help="the same as a workbook: sheets of properties (a row of units under the "
+                        "header), failures and materials")
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
