@@ -109,7 +109,7 @@ def test_a_line_cut_short_is_ignored(tmp_path):
 
     path = tmp_path / "t.csv.partial"
     rec = analyse_one(str(SAMPLES / FEW[0]), catalogue.RunOptions()).record
-    line = json.dumps({"key": "k1", "seconds": 0.1, "datasheet": None, "thumbnail": None,
+    line = json.dumps({"key": "k1", "path": "bar.txt", "seconds": 0.1, "datasheet": None, "thumbnail": None,
                        "record": record_to_json(rec)})
     path.write_text(json.dumps(HEADER) + "\n" + line + "\n" + line[:100])
     assert list(read_journal(path)) == ["k1"]

@@ -36,6 +36,8 @@ class RunOptions:
         How each profile is analysed (accuracy, materials, solver, estimates).
     datasheet_dir : str or None
         Folder for an HTML datasheet per profile (written by the worker).
+    outlines : bool
+        Bring each profile's outline loops back with its outcome (for PDF pages).
     report_units : str or None
         Unit system of the datasheets (:data:`warpwise.units.SYSTEMS`); default each
         profile's own.
@@ -45,6 +47,7 @@ class RunOptions:
     analysis: AnalysisOptions = field(default_factory=AnalysisOptions)
     datasheet_dir: str | None = None
     report_units: str | None = None
+    outlines: bool = False
 
 
 @dataclass(frozen=True)
@@ -63,6 +66,8 @@ class Outcome:
         Wall time of the analysis, s.
     datasheet : str or None
         Path of its HTML datasheet, when written.
+    loops : tuple of numpy.ndarray or None
+        Its outline's loops (outer boundaries and holes, drawing coordinates), when asked for.
     thumbnail : str or None
         Inline SVG of its outline, when datasheets are written.
     """
@@ -73,6 +78,7 @@ class Outcome:
     seconds: float = 0.0
     datasheet: str | None = None
     thumbnail: str | None = None
+    loops: tuple | None = None
 
     @property
     def ok(self) -> bool:

@@ -19,15 +19,19 @@ import hashlib
 import json
 import math
 import os
-from dataclasses import asdict, dataclass, fields, replace
+from dataclasses import asdict, fields, replace
 from functools import lru_cache
 from pathlib import Path
 from typing import IO, Any
 
+import numpy as np
+
 from ..errors import UsageError
 from ..geometry.corners import Corner
 from ..properties.analysis import TargetStatus
+from ..report.pdf_sheet import Loop
 from ..report.records import Record
+from .items import Outcome
 
 #: First line of every journal (with the journal format's version).
 HEADER = {"warpwise_journal": 1, "note": "an unfinished catalogue run; not a result"}
@@ -104,18 +108,10 @@ def record_from_json(obj: dict[str, Any]) -> Record:
         material_notes=tuple(out.material_notes))
 
 
-@dataclass
-class Entry:
-    """A finished profile read from a journal: its record, datasheet page and thumbnail."""
-
-    record: Record
-    seconds: float
-    datasheet: str | None
-    thumbnail: str | None
-
-
-def read_journal(path: Path) -> dict[str, Entry]:
+def read_journal(path: Path) -> dict[str, Outcome]:
     """The finished profiles of a journal by key; an absent journal gives none.
+
+    Each outcome's ``datasheet`` is its page's file name (in the run's staging folder).
 
     Raises
     ------
@@ -139,12 +135,17 @@ def read_journal(path: Path) -> dict[str, Entry]:
     if head != HEADER:
         raise UsageError("is in the way of this run's journal and is not one; move it, or "
                          "choose another output name", file=str(path))
-    out: dict[str, Entry] = {}
+    out: dict[str, Outcome] = {}
     for line in lines[1:]:
         try:
             obj = json.loads(line)
-            out[obj["key"]] = Entry(record_from_json(obj["record"]), float(obj["seconds"]),
-                                    obj.get("datasheet"), obj.get("thumbnail"))
+            loops = obj.get("loops")
+            out[obj["key"]] = Outcome(
+                obj["path"], record_from_json(obj["record"]), None, float(obj["seconds"]),
+                obj.get("datasheet"), obj.get("thumbnail"),
+                None if loops is None else tuple(
+                    Loop(int(p["region"]), str(p["material"]),
+                         np.array(p["points"], float).reshape(-1, 2)) for p in loops))
         except (json.JSONDecodeError, KeyError, TypeError, ValueError):
             continue  # a line cut short by the interruption
     return out
@@ -176,11 +177,14 @@ class JournalWriter:
         self._file.write(json.dumps(obj, allow_nan=False, ensure_ascii=False) + "\n")
         self._file.flush()
 
-    def add(self, key: str, record: Record, seconds: float, datasheet: str | None,
-            thumbnail: str | None) -> None:
-        """Write one finished profile (``seconds`` of analysis, page file name, thumbnail SVG)."""
-        self._write({"key": key, "seconds": seconds, "datasheet": datasheet,
-                     "thumbnail": thumbnail, "record": record_to_json(record)})
+    def add(self, key: str, out: Outcome) -> None:
+        """Write one analysed profile's outcome (its page by file name)."""
+        self._write({"key": key, "path": out.path, "seconds": out.seconds,
+                     "datasheet": None if out.datasheet is None else Path(out.datasheet).name,
+                     "thumbnail": out.thumbnail, "record": record_to_json(out.record),
+                     "loops": None if out.loops is None else [
+                         {"region": p.region, "material": p.material, "points": p.points.tolist()}
+                         for p in out.loops]})
         self.held += 1
 
     def close(self) -> None:

@@ -7,14 +7,10 @@ from collections.abc import Callable, Sequence
 from concurrent.futures import FIRST_COMPLETED, Executor, ProcessPoolExecutor, wait
 from dataclasses import replace
 from pathlib import Path
-from typing import TYPE_CHECKING
 
 from ..properties.analysis import ELEMENT_BUDGET
 from .items import Item, Outcome, RunOptions
 from .workers import _stop_workers, _worker_start, analyse_one, worker_count
-
-if TYPE_CHECKING:
-    from .journal import Entry
 
 
 def _settings(item: Item, options: RunOptions, sheet: str | None, label: str | None) -> str:
@@ -29,13 +25,15 @@ def _settings(item: Item, options: RunOptions, sheet: str | None, label: str | N
                  options.report_units))
 
 
-def _reusable(entry: Entry, options: RunOptions) -> bool:
+def _reusable(entry: Outcome, options: RunOptions) -> bool:
     """Whether a journal's entry stands for this run: its mesh within the limit, its page there."""
     rec = entry.record
     if rec.elements > options.analysis.max_elements:
         return False
     if rec.target is not None and rec.target.stopped == ELEMENT_BUDGET:
         return False  # a refinement the limit stopped may go further now
+    if options.outlines and entry.loops is None:
+        return False
     if options.datasheet_dir:
         return entry.datasheet is not None and (Path(options.datasheet_dir) / entry.datasheet).is_file()
     return True
@@ -108,8 +106,7 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
         outcomes[i] = out
         done += 1
         if fresh and writer is not None and out.ok and keys[i] is not None:
-            writer.add(keys[i], out.record, out.seconds,
-                       None if out.datasheet is None else Path(out.datasheet).name, out.thumbnail)
+            writer.add(keys[i], out)
         if on_done is not None:
             on_done(out, done, total)
 
@@ -120,8 +117,7 @@ def run_catalogue(files: Sequence[str | Path | Item], options: RunOptions | None
             if entry is not None and _reusable(entry, options):
                 page = None if entry.datasheet is None else str(Path(options.datasheet_dir or "")
                                                                 / entry.datasheet)
-                finished(i, Outcome(paths[i], entry.record, None, entry.seconds, page,
-                                    entry.thumbnail), fresh=False)
+                finished(i, replace(entry, path=paths[i], datasheet=page), fresh=False)
             else:
                 todo.append(i)
         _run_items(todo, items, options, names, labels, executor, jobs, finished)

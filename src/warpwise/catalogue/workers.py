@@ -43,7 +43,12 @@ def analyse_one(path: str | Item, options: RunOptions, sheet_name: str | None = 
                                         title=item.title, label=label))
             thumb = thumbnail_svg(result)
         record = replace(record_of(result), name=item.name, description=item.description)
-        return Outcome(path, record, None, time.perf_counter() - start, sheet, thumb)
+        loops = None
+        if options.outlines:
+            from ..report.pdf_sheet import profile_loops
+
+            loops = profile_loops(result.profile.regions)
+        return Outcome(path, record, None, time.perf_counter() - start, sheet, thumb, loops)
     except WarpwiseError as exc:
         return Outcome(path, None, str(exc.with_file(path)), time.perf_counter() - start)
     except MemoryError:

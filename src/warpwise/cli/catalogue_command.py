@@ -51,6 +51,7 @@ def _catalogue_outputs(args: argparse.Namespace) -> list[Output]:
     """The outputs of a catalogue run."""
     return [Output("--csv", args.csv), Output("--json", args.json),
             Output("--xlsx", args.xlsx, to_stdout=False),
+            Output("--pdf", args.pdf, to_stdout=False),
             Output("--html", args.html, folder=True, to_stdout=False, what="a folder")]
 
 
@@ -71,7 +72,7 @@ def _journal_of(args: argparse.Namespace, stage: Path | None) -> Path | None:
 
     if stage is not None:
         return stage / JOURNAL_IN_STAGE
-    first = next((f for f in (args.csv, args.json, args.xlsx) if f and not is_stdout(f)), None)
+    first = next((f for f in (args.csv, args.json, args.xlsx, args.pdf) if f and not is_stdout(f)), None)
     return None if first is None else journal_path(first)
 
 
@@ -116,6 +117,13 @@ def _workbook(good: list[Outcome], bad: list[Outcome], options: RunOptions, unit
     return workbook_bytes(records, [(o.path, o.error or "") for o in bad], materials or [], units)
 
 
+def _pages(good: list[Outcome], units: str | None) -> bytes:
+    """The PDF datasheets of a run, one page per analysed profile (in its own units by default)."""
+    from ..report.pdf_sheet import pdf_bytes, sheet_profile
+
+    return pdf_bytes([sheet_profile(o.record, o.loops or (), units) for o in good])
+
+
 def run_catalogue_command(args: argparse.Namespace) -> int:
     """``warpwise catalogue``: every profile analysed; good rows written; failures listed.
 
@@ -126,18 +134,20 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
     """
     from ..catalogue.journal import KEPT
 
-    if not (args.csv or args.json or args.xlsx or args.html):
-        raise UsageError("say where the results go: --csv OUT, --json OUT, --xlsx OUT.xlsx "
-                         "and/or --html DIR")
+    if not (args.csv or args.json or args.xlsx or args.pdf or args.html):
+        raise UsageError("say where the results go: --csv OUT, --json OUT, --xlsx OUT.xlsx, "
+                         "--pdf OUT.pdf and/or --html DIR")
     wanted = _catalogue_outputs(args)
     check_outputs(wanted, _inputs(args, args.items))
-    options = RunOptions(read=read_options(args), analysis=analysis_options(args))
+    options = RunOptions(read=read_options(args), analysis=analysis_options(args),
+                         outlines=bool(args.pdf))
     KEPT.clear()
     with staged_folder(args.html, keep=True) as stage:
         if stage is not None:
             options = replace(options, datasheet_dir=str(stage), report_units=args.report_units)
         items = catalogue_items(args.items, options,
-                                exclude=[f for f in (args.csv, args.json, args.xlsx) if f])
+                                exclude=[f for f in (args.csv, args.json, args.xlsx, args.pdf)
+                                         if f])
         check_outputs(wanted, [it.path for it in items])  # the drawings a manifest names
         journal = _journal_of(args, stage)
         outcomes = _run_items(args, items, options, journal)
@@ -148,7 +158,8 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
         files = [(args.csv, csv_text([o.record for o in good], units=units) if args.csv else ""),
                  (args.json, json_text([o.record.in_units(units) for o in good]) if args.json
                   else ""),
-                 (args.xlsx, _workbook(good, bad, options, units) if args.xlsx else b"")] \
+                 (args.xlsx, _workbook(good, bad, options, units) if args.xlsx else b""),
+                 (args.pdf, _pages(good, args.report_units) if args.pdf else b"")] \
             if good else []
         if stage is not None:
             from ..report.html import write_catalogue_index

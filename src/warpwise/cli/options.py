@@ -228,6 +228,8 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--html", metavar="OUT.html",
                    help="also write the HTML datasheet of the profile (one profile; with "
                         "--about-axis its values too) to OUT.html")
+    p.add_argument("--pdf", metavar="OUT.pdf",
+                   help="also write A4 PDF datasheets, one page per profile, to OUT.pdf")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)
@@ -282,6 +284,8 @@ def _add_catalogue(sub: argparse._SubParsersAction) -> None:
                    help="the same as a workbook: sheets of properties (a row of units under the "
                         "header), failures and materials")
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
+    p.add_argument("--pdf", metavar="OUT.pdf",
+                   help="a PDF of A4 datasheets, one page per profile in row order")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
     p.add_argument("--cluster", metavar="ADDRESS",
