@@ -18,6 +18,18 @@ from .stress import TorsionStress, shear_modulus, torsion_stress
 
 _moved.install()
 
+
+def _result_html(self: SectionResult) -> str:
+    """Jupyter's view of a result: its property table (:mod:`warpwise.report.notebook`)."""
+    from .report.notebook import result_html
+
+    return result_html(self)
+
+
+# attached here, at the top of the package: the view is made by .report, a later stage than the
+# class it shows; imported when first shown, so importing warpwise stays light
+SectionResult._repr_html_ = _result_html  # type: ignore[attr-defined]
+
 __version__ = "0.1.0"
 
 __all__ = [
