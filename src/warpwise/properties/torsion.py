@@ -201,8 +201,8 @@ def torsion_properties(
     centre = (geo.centroid[0] + x0, geo.centroid[1] + y0)
     beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0), wE)
     return TorsionProperties(J=J, psi=psi, shear_centre=centre, Cw=Cw, omega=omega,
-                             omega_max=abs(largest_magnitude(mesh, omega).value), beta_1=beta_1, beta_2=beta_2,
-                             residual=residual)
+                             omega_max=abs(largest_magnitude(mesh, omega).value), beta_1=beta_1,
+                             beta_2=beta_2, residual=residual)
 
 
 def wagner_constants(evc: ElementValues, geo: GeometricProperties,
