@@ -45,6 +45,10 @@ class Extreme:
 #: Relative difference below which two values along the member are the same maximum (far
 #: above the round-off of the closed-form solution, far below any difference that matters).
 TIE = 1e-9
+#: Relative gain by which the search between grid points must beat the grid's best: above the
+#: round-off of the solution (a tie at a support stays there), below any true peak's gain over
+#: its nearest grid point (about 1e-10 for a midspan peak between points L/2000 apart).
+GAIN = 1e-13
 
 
 def stations(member: MemberTorsion, count: int = 11) -> np.ndarray:
@@ -102,7 +106,7 @@ def extremes(member: MemberTorsion) -> list[Extreme]:
             res = minimize_scalar(size, bounds=(lo, hi), method="bounded",
                                   options={"xatol": 1e-12 * member.length})
             v = _value(member, name, float(res.x), side)
-            if abs(v) > abs(best) * (1.0 + TIE):
+            if abs(v) > abs(best) * (1.0 + GAIN):
                 best_z, best = float(res.x), v
         out.append(Extreme(name=name, value=best, z=best_z, side=side))
     return out
