@@ -93,7 +93,10 @@ def extremes(member: MemberTorsion) -> list[Extreme]:
         # equal maxima (a symmetric member: both supports and the load point) differ by
         # round-off only; the first along the member is taken, so that the choice does not
         # follow the round-off of a machine and equal sections of two quantities coincide
-        k = int(np.flatnonzero(size_all >= size_all.max() * (1.0 - TIE))[0])
+        # (a flat peak's neighbouring points are one candidate: the best point of the first run)
+        near = np.flatnonzero(size_all >= size_all.max() * (1.0 - TIE))
+        run = near[: int(np.argmax(np.diff(near) > 1)) + 1] if np.any(np.diff(near) > 1) else near
+        k = int(run[np.argmax(size_all[run])])
         best_z, best = float(z[k]), float(vals[k])
         side = "left" if end[k] else "right"
         same = np.flatnonzero(seg == seg[k])
