@@ -88,8 +88,10 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
 
 def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float,
             h: float) -> tuple[np.ndarray, np.ndarray]:
-    """Boundary points graded towards ``corners``: their size there is ``size / h`` times the
-    local size (the wall thickness or h), growing by :data:`CORNER_GRADING` with distance.
+    """Boundary points graded towards ``corners``.
+
+    The size at each corner is ``size / h`` times the local size there (the wall thickness or
+    h), growing by :data:`CORNER_GRADING` with distance.
     """
     cxy = np.array([(c.x, c.y) for c in corners])
     near = cKDTree(pts[sub[:, 0]]).query(cxy)[1]  # the segment starting nearest each corner
