@@ -209,7 +209,7 @@ _FROM_UPPER[_UPPER[::-1]] = np.arange(len(_UPPER[0]))
 _FROM_UPPER = _FROM_UPPER.ravel()
 
 
-def _straight_sided(X: np.ndarray) -> np.ndarray:
+def straight_sided(X: np.ndarray) -> np.ndarray:
     """Mask (m,) of elements (node coordinates X, (m, 6, 2)) with mid-side nodes on the chords.
 
     Such elements have a constant Jacobian; the others are curved (isoparametric).
@@ -306,7 +306,7 @@ def stiffness_matrix(mesh: Mesh, ev: ElementValues,
     """
     w = ev.dA if coefficient is None else ev.dA * np.asarray(coefficient, dtype=float)[:, None]
     X = mesh.nodes[mesh.elements]
-    straight = _straight_sided(X)
+    straight = straight_sided(X)
     if straight.all():
         upper = _local_stiffness_straight(X[:, :3], w, ev)
     else:
