@@ -38,7 +38,7 @@ from . import p3
 from .patches import FREE_DOFS, ROTATION, PatchGroup, vertex_patches
 
 #: Entries (patch unknowns squared times patches) solved at once, bounding the temporaries.
-CHUNK_ENTRIES = 1 << 22
+CHUNK_ENTRIES = 1 << 20
 #: Elements evaluated at once in the last step.
 CHUNK_ELEMENTS = 1 << 15
 #: Reference gradient of the barycentric coordinate of corner 0.
@@ -118,8 +118,10 @@ class Geometry:
         det = J[:, 0, 0] * J[:, 1, 1] - J[:, 0, 1] * J[:, 1, 0]
         G = np.stack([J[:, 0, 0] ** 2 + J[:, 1, 0] ** 2, J[:, 0, 1] ** 2 + J[:, 1, 1] ** 2,
                       J[:, 0, 0] * J[:, 0, 1] + J[:, 1, 0] * J[:, 1, 1]], axis=1)
-        w = np.stack([corners[..., 1], -corners[..., 0]], axis=-1)  # (y, -x) at the corners
-        return cls(corners, J, det, G, np.einsum("mij,mci->mcj", J, w))
+        x, y = corners[..., 0], corners[..., 1]  # w = (y, -x) at the corners
+        JTw = np.stack([J[:, 0, 0, None] * y - J[:, 1, 0, None] * x,
+                        J[:, 0, 1, None] * y - J[:, 1, 1, None] * x], axis=-1)
+        return cls(corners, J, det, G, JTw)
 
 
 def _pair_terms(geo: Geometry, psi: np.ndarray, c: np.ndarray):
@@ -128,28 +130,57 @@ def _pair_terms(geo: Geometry, psi: np.ndarray, c: np.ndarray):
     ``geo`` and ``psi`` (p, 6) are of the elements rotated so that the pair's vertex is
     corner 0 (:data:`warpwise.fem.flux.patches.ROTATION`).
     """
+    t = _pair_tables()
+    p = len(c)
+    Gs = geo.G / (c * geo.det)[:, None]
+    Mee = (Gs @ t.mass[:, :36]).reshape(p, 6, 6)
+    M = Gs @ t.mass[:, 36:]  # (p, 6 + 30 + 5 + 1): m, Meg, Mgb, Mbb
+    m_f, Meg_f = M[:, :6], M[:, 6:36].reshape(p, 6, 5)
+    Mgb, Mbb = M[:, 36:41], M[:, 41]
+    F = psi @ t.grad_psi - geo.JTw.reshape(p, 6) @ t.w_part  # (p, 7): free edge values, beta
+    # divergence data c int q_r grad phi_0 . (grad psi_h - w) dA, r = the five non-constant
+    # modes and the constant (the net outflow; int lambda_c = 1 / 6)
+    J, w = geo.J, geo.corners[..., ::-1] * np.array([1.0, -1.0])  # w = (y, -x) at the corners
+    s = (-(J[:, 1, 1] - J[:, 1, 0])[:, None] * w[..., 0]
+         - (J[:, 0, 0] - J[:, 0, 1])[:, None] * w[..., 1])  # grad lambda_0 . adj(J) w_c
+    B = np.stack([geo.G[:, 1], geo.G[:, 0], -geo.G[:, 2]], axis=1) / geo.det[:, None]
+    Bpsi = (B[:, :, None] * psi[:, None, :]).reshape(p, 18)
+    g = c[:, None] * (Bpsi @ t.div_psi - s @ t.div_w)  # (p, 6)
+    gdiv, g0 = g[:, :5], g[:, 5]
+    Fb = F[:, 6] - np.einsum("pr,pr->p", Mgb, gdiv)
+    m_s = m_f / np.sqrt(Mbb)[:, None]
+    K = Mee
+    K -= m_s[:, :, None] * m_s[:, None, :]
+    r = F[:, :6] - np.einsum("pkr,pr->pk", Meg_f, gdiv) - m_f * (Fb / Mbb)[:, None]
+    return K, r, g0
+
+
+@dataclass(frozen=True, eq=False)
+class _PairTables:
+    """Reference tensors of :func:`_pair_terms` flattened for matrix products."""
+
+    mass: np.ndarray  # (3, 78)
+    grad_psi: np.ndarray  # (6, 7)
+    w_part: np.ndarray  # (6, 7)
+    div_psi: np.ndarray  # (18, 6)
+    div_w: np.ndarray  # (3, 6)
+
+
+@cache
+def _pair_tables() -> _PairTables:
+    """Flattened reference tensors for a pair (vertex at corner 0, free dofs and beta)."""
     ref = reference()
     f = FREE_DOFS
-    scale = 1.0 / (c * geo.det)
-    M = np.einsum("pt,tkl->pkl", geo.G * scale[:, None], ref.mass[:, :, 9:])  # columns 9..14
-    Mee = np.einsum("pt,tkl->pkl", geo.G * scale[:, None], ref.mass[:, f][:, :, f])
-    m_f, Meg_f = M[:, f, 5], M[:, f, :5]
-    Mgb, Mbb = M[:, 9:14, 5], M[:, 14, 5]
-    F = ref.grad_psi[0] @ psi.T - np.einsum("kci,pci->kp", ref.w_part[0], geo.JTw)  # (15, p)
-    # divergence data: c int q_r grad phi_0 . (grad psi_h - w), five non-constant modes
-    J = geo.J
-    adjJ = np.stack([np.stack([J[:, 1, 1], -J[:, 0, 1]], -1),
-                     np.stack([-J[:, 1, 0], J[:, 0, 0]], -1)], axis=1)  # (p, 2, 2)
-    w = np.stack([geo.corners[..., 1], -geo.corners[..., 0]], axis=-1)
-    s = np.einsum("i,pij,pcj->pc", _GRAD_L0, adjJ, w)  # grad lambda_0 . adj(J) w_c
-    B = np.stack([geo.G[:, 1], geo.G[:, 0], -geo.G[:, 2]], axis=1) / geo.det[:, None]
-    gdiv = c[:, None] * (np.einsum("rnt,pt,pn->pr", ref.div_psi, B, psi) - s @ ref.div_w.T)
-    Fb = F[14] - np.einsum("pr,pr->p", Mgb, gdiv)
-    K = Mee - m_f[:, :, None] * m_f[:, None, :] / Mbb[:, None, None]
-    r = F[f].T - np.einsum("pkr,pr->pk", Meg_f, gdiv) - m_f * (Fb / Mbb)[:, None]
-    # net outflow of the element: c int grad phi_0 . (grad psi_h - w) dA (int lambda_c = 1/6)
-    g0 = c * (np.einsum("tn,pt,pn->p", _outflow_psi(), B, psi) - s.sum(axis=1) / 6.0)
-    return K, r, g0
+    mass = np.concatenate([ref.mass[:, f][:, :, f].reshape(3, 36), ref.mass[:, f, 14],
+                           ref.mass[:, f, 9:14].reshape(3, 30), ref.mass[:, 9:14, 14],
+                           ref.mass[:, 14, 14][:, None]], axis=1)
+    rows = np.r_[f, 14]
+    grad_psi = ref.grad_psi[0][rows].T  # (6 nodes, 7)
+    w_part = ref.w_part[0][rows].reshape(7, 6).T  # (3 corners x 2, 7)
+    div_psi = np.concatenate([ref.div_psi, _outflow_psi().T[None]], axis=0)  # (6, 6 n, 3 t)
+    div_psi = div_psi.transpose(2, 1, 0).reshape(18, 6)
+    div_w = np.vstack([ref.div_w, np.full((1, 3), 1.0 / 6.0)]).T  # (3, 6)
+    return _PairTables(mass, grad_psi, w_part, div_psi, div_w)
 
 
 @cache
@@ -202,68 +233,91 @@ def _rotated(mesh: Mesh, centroid, pairs: np.ndarray, psi: np.ndarray, c: np.nda
 def _solve_group(mesh, centroid, psi, c, group: PatchGroup, edge_values: np.ndarray) -> None:
     """Solve the patch problems of one group; add the edge values to ``edge_values`` (m, 9)."""
     k, size, nE = group.pair.shape[1], group.size, 3 * group.n_edges
+    if size == 0:  # a lone corner element: nothing is free, the data are compatible
+        return
     outflow = reference().outflow[FREE_DOFS]
+    mult = np.r_[-1, nE + np.arange(k - 1)]  # multiplier of each position (the first fixed)
     step = max(1, CHUNK_ENTRIES // (size * size))
-    for s in range(0, len(group.vertex), step):
-        pairs, dof = group.pair[s:s + step], group.dof[s:s + step]
-        sign, fixed = group.sign[s:s + step], group.fixed[s:s + step]
+    for s in range(0, len(group.vertex), step):  # chunks of patches, bounding the memory
+        pairs, dof, sign = group.pair[s:s + step], group.dof[s:s + step], group.sign[s:s + step]
         p = len(pairs)
         K, r, g0 = _pair_terms(*_rotated(mesh, centroid, pairs.ravel(), psi, c))
         K, r, g0 = K.reshape(p, k, 6, 6), r.reshape(p, k, 6), g0.reshape(p, k)
-        A = np.zeros((p, size, size))
-        b = np.zeros((p, size))
-        at = np.arange(p)[:, None]
-        for j in range(k):  # one step per position in the patch: no index repeats in a step
-            d, sg = dof[:, j], sign[:, j]
-            A[at[:, :, None], d[:, :, None], d[:, None, :]] += sg[:, :, None] * sg[:, None, :] * K[:, j]
-            A[at, d, nE + j] += sg * outflow
-            A[at, nE + j, d] += sg * outflow
-            b[at, d] += sg * r[:, j]
-            b[:, nE + j] = g0[:, j]
-        keep = ~fixed
-        A *= keep[:, :, None] & keep[:, None, :]
-        A[:, np.arange(size), np.arange(size)] += fixed
-        b *= keep
+        # flat indices of every entry: patch, row, column; one bincount sums them all, and
+        # entries of a fixed unknown go to the slot past the end
+        base = (np.arange(p) * size)[:, None, None]
+        free, free_m = dof >= 0, np.broadcast_to(mult >= 0, (p, k))
+        dump = p * size * size
+        rows = base + dof  # (p, k, 6)
+        mrow = base[:, :, 0] + mult  # (p, k)
+        kk = np.where(free[..., :, None] & free[..., None, :],
+                      rows[..., :, None] * size + dof[..., None, :], dump)
+        both = free & free_m[..., None]
+        km = np.where(both, rows * size + mult[:, None], dump)
+        mk = np.where(both, mrow[..., None] * size + dof, dump)
+        so = sign * outflow
+        A = np.bincount(np.concatenate([kk.ravel(), km.ravel(), mk.ravel()]),
+                        np.concatenate([(sign[..., :, None] * sign[..., None, :] * K).ravel(),
+                                        so.ravel(), so.ravel()]),
+                        minlength=dump + 1)[:dump].reshape(p, size, size)
+        b = np.bincount(np.concatenate([np.where(free, rows, p * size).ravel(),
+                                        np.where(free_m, mrow, p * size).ravel()]),
+                        np.concatenate([(sign * r).ravel(), g0.ravel()]),
+                        minlength=p * size + 1)[:p * size].reshape(p, size)
         x = np.linalg.solve(A, b[..., None])[..., 0]
-        local = sign * np.take_along_axis(x[:, None, :], dof.reshape(p, 1, -1), axis=2).reshape(
-            p, k, 6)
+        x = np.concatenate([x, np.zeros((p, 1))], axis=1)  # index -1: a fixed zero
+        local = sign * np.take_along_axis(x, dof.reshape(p, -1), axis=1).reshape(p, k, 6)
         elem, corner = np.divmod(pairs.ravel(), 3)
         # rotated local edges 0 and 2 are the element's edges i and i + 2
         target = 3 * np.stack([corner, (corner + 2) % 3], axis=1)[:, :, None] + np.arange(3)
-        np.add.at(edge_values, (elem[:, None], target.reshape(-1, 6)), local.reshape(-1, 6))
+        flat = (9 * elem[:, None] + target.reshape(-1, 6)).ravel()
+        edge_values += np.bincount(flat, local.ravel(), minlength=edge_values.size).reshape(
+            edge_values.shape)
 
 
 def _evaluate(mesh, centroid, psi, c, edge_values: np.ndarray) -> Flux:
-    """Divergence-free bubble, dofs, indicators and complementary energy, in element chunks."""
+    """Divergence-free bubble, dofs, indicators and complementary energy, in element chunks.
+
+    sigma and tau_h are evaluated at the points of :data:`p3.DEGREE_6` (exact for these
+    polynomials of degree 6) rather than through the element matrices, so that an indicator
+    is not the small difference of large terms.
+    """
     ref = reference()
-    m = mesh.n_elements
+    m, nq = mesh.n_elements, len(ref.weights)
     dofs = np.empty((m, 15))
     indicator = np.empty(m)
     total = 0.0
+    values = ref.values.transpose(1, 0, 2).reshape(15, -1)  # (15, q x 2)
+    dN = ref.dN.transpose(1, 0, 2).reshape(6, -1)
+    beta_mass = ref.mass[:, :, 14]  # (3, 15)
+    beta_F = np.concatenate([ref.grad_psi[1][14], -ref.w_part[1][14].ravel()])  # (6 + 6,)
     for s in range(0, m, CHUNK_ELEMENTS):
         e = edge_values[s:s + CHUNK_ELEMENTS]
         nodes = mesh.elements[s:s + CHUNK_ELEMENTS]
         geo = Geometry.of(mesh.nodes[nodes[:, :3]] - np.asarray(centroid, dtype=float))
         ps, cc = psi[nodes], c[s:s + CHUNK_ELEMENTS]
-        scale = 1.0 / (cc * geo.det)
-        M = np.einsum("pt,tk->pk", geo.G * scale[:, None], ref.mass[:, :, 14])  # column beta
-        F = ref.grad_psi[1][14] @ ps.T - np.einsum("ci,pci->p", ref.w_part[1][14], geo.JTw)
-        y = np.zeros((len(e), 15))
+        p = len(e)
+        Mb = (geo.G / (cc * geo.det)[:, None]) @ beta_mass  # (p, 15): column beta
+        F = np.concatenate([ps, geo.JTw.reshape(p, 6)], axis=1) @ beta_F
+        y = np.zeros((p, 15))
         y[:, :9] = e
-        y[:, 14] = (F - np.einsum("pk,pk->p", M[:, :9], e)) / M[:, 14]
+        y[:, 14] = (F - np.einsum("pk,pk->p", Mb[:, :9], e)) / Mb[:, 14]
         dofs[s:s + CHUNK_ELEMENTS] = y @ ref.U.T
-        sig_ref = np.einsum("pk,qki->pqi", y, ref.values)
-        sig = np.einsum("pij,pqj->pqi", geo.J, sig_ref) / geo.det[:, None, None]
-        gref = np.einsum("pn,qni->pqi", ps, ref.dN)
-        adj = np.stack([np.stack([geo.J[:, 1, 1], -geo.J[:, 1, 0]], -1),
-                        np.stack([-geo.J[:, 0, 1], geo.J[:, 0, 0]], -1)], axis=1)  # adj(J)^T
-        grad = np.einsum("pij,pqj->pqi", adj, gref) / geo.det[:, None, None]  # J^-T grad^
-        xy = np.einsum("qc,pci->pqi", ref.lam, geo.corners)
-        w = np.stack([xy[..., 1], -xy[..., 0]], axis=-1)
+        S = (y @ values).reshape(p, nq, 2)
+        gr = (ps @ dN).reshape(p, nq, 2)
+        J, inv_det = geo.J, (1.0 / geo.det)[:, None]
+        sx = (J[:, 0, 0, None] * S[..., 0] + J[:, 0, 1, None] * S[..., 1]) * inv_det
+        sy = (J[:, 1, 0, None] * S[..., 0] + J[:, 1, 1, None] * S[..., 1]) * inv_det
+        gx = (J[:, 1, 1, None] * gr[..., 0] - J[:, 1, 0, None] * gr[..., 1]) * inv_det
+        gy = (J[:, 0, 0, None] * gr[..., 1] - J[:, 0, 1, None] * gr[..., 0]) * inv_det
+        wx = geo.corners[..., 1] @ ref.lam.T  # w = (y, -x) at the points
+        wy = -(geo.corners[..., 0] @ ref.lam.T)
         dA = geo.det[:, None] * ref.weights
-        diff = sig - cc[:, None, None] * (grad - w)
-        indicator[s:s + CHUNK_ELEMENTS] = np.einsum("pq,pqi,pqi->p", dA, diff, diff) / cc
-        total -= float(np.einsum("pq,pqi,pqi->", dA, sig, 2.0 * w + sig / cc[:, None, None]))
+        ccol = cc[:, None]
+        dx, dy = sx - ccol * (gx - wx), sy - ccol * (gy - wy)
+        indicator[s:s + CHUNK_ELEMENTS] = np.einsum("pq,pq->p", dA, dx * dx + dy * dy) / cc
+        total -= float(np.einsum("pq,pq->", dA, 2.0 * (sx * wx + sy * wy)
+                                 + (sx * sx + sy * sy) / ccol))
     return Flux(dofs, indicator, total)
 
 
