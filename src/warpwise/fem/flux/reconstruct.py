@@ -198,8 +198,9 @@ def straight_elements(mesh: Mesh) -> np.ndarray:
 
     The reconstruction is exact (div sigma = 0, sigma . n continuous) on these only: on an
     element with a curved edge the isoparametric psi_h and an affine RT2 field do not match.
+    Round-off is judged against the mesh's coordinates (see :func:`warpwise.fem.p2.straight_sided`).
     """
-    return straight_sided(mesh.nodes[mesh.elements])
+    return straight_sided(mesh.nodes[mesh.elements], float(np.abs(mesh.nodes).max(initial=0.0)))
 
 
 @dataclass(frozen=True, eq=False)
