@@ -35,10 +35,10 @@ import numpy as np
 from ...mesh.core import Mesh
 from ..p2 import straight_sided
 from . import p3
-from .patches import FREE_DOFS, ROTATION, PatchGroup, vertex_patches
+from .patches import ROTATION, PatchGroup, vertex_patches
 
 #: Entries (patch unknowns squared times patches) solved at once, bounding the temporaries.
-CHUNK_ENTRIES = 1 << 20
+CHUNK_ENTRIES = 1 << 18
 #: Elements evaluated at once in the last step.
 CHUNK_ELEMENTS = 1 << 15
 #: Reference gradient of the barycentric coordinate of corner 0.
@@ -125,19 +125,22 @@ class Geometry:
 
 
 def _pair_terms(geo: Geometry, psi: np.ndarray, c: np.ndarray):
-    """Element matrix (p, 6, 6), right-hand side (p, 6) and net outflow (p,) of each pair.
+    """A pair's 5 x 5 matrix and vectors in the patch unknowns (:func:`_pair_tables`).
 
     ``geo`` and ``psi`` (p, 6) are of the elements rotated so that the pair's vertex is
-    corner 0 (:data:`warpwise.fem.flux.patches.ROTATION`).
+    corner 0 (:data:`warpwise.fem.flux.patches.ROTATION`). Returns the matrix (p, 5, 5), the
+    right-hand side (p, 5) without the particular fluxes, the columns (p, 5) that multiply the
+    net fluxes of the out- and in-edge, and the element's net outflow (p,).
     """
     t = _pair_tables()
     p = len(c)
     Gs = geo.G / (c * geo.det)[:, None]
-    Mee = (Gs @ t.mass[:, :36]).reshape(p, 6, 6)
-    M = Gs @ t.mass[:, 36:]  # (p, 6 + 30 + 5 + 1): m, Meg, Mgb, Mbb
-    m_f, Meg_f = M[:, :6], M[:, 6:36].reshape(p, 6, 5)
-    Mgb, Mbb = M[:, 36:41], M[:, 41]
-    F = psi @ t.grad_psi - geo.JTw.reshape(p, 6) @ t.w_part  # (p, 7): free edge values, beta
+    M = Gs @ t.mass  # (p, 25 + 5 + 5 + 5 + 25 + 5 + 3)
+    Kv = M[:, :25].reshape(p, 5, 5)
+    ko, ki, wm = M[:, 25:30], M[:, 30:35], M[:, 35:40]
+    Wg = M[:, 40:65].reshape(p, 5, 5)
+    Mgb, mo, mi, Mbb = M[:, 65:70], M[:, 70], M[:, 71], M[:, 72]
+    F = psi @ t.grad_psi - geo.JTw.reshape(p, 6) @ t.w_part  # (p, 6): W F and F_beta
     # divergence data c int q_r grad phi_0 . (grad psi_h - w) dA, r = the five non-constant
     # modes and the constant (the net outflow; int lambda_c = 1 / 6)
     J, w = geo.J, geo.corners[..., ::-1] * np.array([1.0, -1.0])  # w = (y, -x) at the corners
@@ -147,36 +150,65 @@ def _pair_terms(geo: Geometry, psi: np.ndarray, c: np.ndarray):
     Bpsi = (B[:, :, None] * psi[:, None, :]).reshape(p, 18)
     g = c[:, None] * (Bpsi @ t.div_psi - s @ t.div_w)  # (p, 6)
     gdiv, g0 = g[:, :5], g[:, 5]
-    Fb = F[:, 6] - np.einsum("pr,pr->p", Mgb, gdiv)
-    m_s = m_f / np.sqrt(Mbb)[:, None]
-    K = Mee
-    K -= m_s[:, :, None] * m_s[:, None, :]
-    r = F[:, :6] - np.einsum("pkr,pr->pk", Meg_f, gdiv) - m_f * (Fb / Mbb)[:, None]
-    return K, r, g0
+    # eliminate the divergence-free bubble beta: K = Mee - m m^T / Mbb, in the patch unknowns
+    inv = 1.0 / Mbb
+    Fb = F[:, 5] - np.einsum("pr,pr->p", Mgb, gdiv)
+    ws = wm * np.sqrt(inv)[:, None]
+    Kv -= ws[:, :, None] * ws[:, None, :]
+    ko -= wm * (mo * inv)[:, None]
+    ki -= wm * (mi * inv)[:, None]
+    rv = F[:, :5] - np.einsum("pkr,pr->pk", Wg, gdiv) - wm * (Fb * inv)[:, None]
+    return Kv, rv, ko, ki, g0
+
+
+#: Patch orientation of a pair's free dofs: the out-edge's values reversed and negated (the next
+#: member sees that edge the other way), then the in-edge's (:mod:`.patches`).
+_PATCH_DOFS = np.array([2, 1, 0, 6, 7, 8])
+_PATCH_SIGNS = np.array([-1.0, -1.0, -1.0, 1.0, 1.0, 1.0])
+#: An edge's three values x = F z + N y: z carries the net flux F (o . z = 1 for the Gauss
+#: weights o), the orthonormal N (3, 2) the two modes of no net flux.
+_Z = np.ones(3)
+_N = np.column_stack([np.array([1.0, 0.0, -1.0]) / np.sqrt(2.0),
+                      np.array([4.0, -5.0, 4.0]) / np.sqrt(57.0)])
 
 
 @dataclass(frozen=True, eq=False)
 class _PairTables:
-    """Reference tensors of :func:`_pair_terms` flattened for matrix products."""
+    """Reference tensors of :func:`_pair_terms`, flattened for matrix products."""
 
-    mass: np.ndarray  # (3, 78)
-    grad_psi: np.ndarray  # (6, 7)
-    w_part: np.ndarray  # (6, 7)
+    mass: np.ndarray  # (3, 73)
+    grad_psi: np.ndarray  # (6 nodes, 6): W F and F_beta
+    w_part: np.ndarray  # (3 corners x 2, 6)
     div_psi: np.ndarray  # (18, 6)
     div_w: np.ndarray  # (3, 6)
 
 
 @cache
 def _pair_tables() -> _PairTables:
-    """Flattened reference tensors for a pair (vertex at corner 0, free dofs and beta)."""
+    """Reference tensors for a pair (vertex at corner 0) in the patch unknowns.
+
+    The pair's unknowns v = (y_out (2), y_in (2), F_0 (1)) give its six free dofs in patch
+    orientation as u = T5 v (+ the particular fluxes), with T5 = [[N, 0, z], [0, N, z]]: W =
+    T5^T Q (5, 15) maps the element's y basis (Q the signed selection of its free dofs) to v.
+    """
     ref = reference()
-    f = FREE_DOFS
-    mass = np.concatenate([ref.mass[:, f][:, :, f].reshape(3, 36), ref.mass[:, f, 14],
-                           ref.mass[:, f, 9:14].reshape(3, 30), ref.mass[:, 9:14, 14],
-                           ref.mass[:, 14, 14][:, None]], axis=1)
-    rows = np.r_[f, 14]
-    grad_psi = ref.grad_psi[0][rows].T  # (6 nodes, 7)
-    w_part = ref.w_part[0][rows].reshape(7, 6).T  # (3 corners x 2, 7)
+    Q = np.zeros((6, 15))
+    Q[np.arange(6), _PATCH_DOFS] = _PATCH_SIGNS
+    T5 = np.zeros((6, 5))
+    T5[:3, :2], T5[3:, 2:4], T5[:3, 4], T5[3:, 4] = _N, _N, _Z, _Z
+    W = T5.T @ Q
+    Zo, Zi = Q.T @ np.r_[_Z, 0, 0, 0], Q.T @ np.r_[0, 0, 0, _Z]
+    M = ref.mass  # (3, 15, 15)
+    mass = np.concatenate([
+        np.einsum("ak,tkl,bl->tab", W, M, W).reshape(3, 25),
+        np.einsum("ak,tkl,l->ta", W, M, Zo), np.einsum("ak,tkl,l->ta", W, M, Zi),
+        np.einsum("ak,tk->ta", W, M[:, :, 14]),
+        np.einsum("ak,tkr->tar", W, M[:, :, 9:14]).reshape(3, 25),
+        M[:, 9:14, 14], (M[:, :, 14] @ Zo)[:, None], (M[:, :, 14] @ Zi)[:, None],
+        M[:, 14, 14][:, None]], axis=1)
+    grad_psi = np.vstack([W @ ref.grad_psi[0], ref.grad_psi[0][14]]).T  # (6 nodes, 6)
+    wp = ref.w_part[0].reshape(15, 6)
+    w_part = np.vstack([W @ wp, wp[14]]).T
     div_psi = np.concatenate([ref.div_psi, _outflow_psi().T[None]], axis=0)  # (6, 6 n, 3 t)
     div_psi = div_psi.transpose(2, 1, 0).reshape(18, 6)
     div_w = np.vstack([ref.div_w, np.full((1, 3), 1.0 / 6.0)]).T  # (3, 6)
@@ -231,49 +263,82 @@ def _rotated(mesh: Mesh, centroid, pairs: np.ndarray, psi: np.ndarray, c: np.nda
     return geo, psi[nodes], c[elem]
 
 
-def _solve_group(mesh, centroid, psi, c, group: PatchGroup, edge_values: np.ndarray) -> None:
-    """Solve the patch problems of one group; add the edge values to ``edge_values`` (m, 9)."""
-    k, size, nE = group.pair.shape[1], group.size, 3 * group.n_edges
+def _solve_group(mesh, centroid, psi, c, group: PatchGroup, pair_values: np.ndarray) -> None:
+    """Solve the patch problems of one group: each pair's edge values into ``pair_values``.
+
+    ``pair_values`` (3 m, 6) gets, for each pair of the group, the values of its out-edge and
+    in-edge in the element's own orientation (its RT2 dofs 0, 1, 2 and 6, 7, 8 rotated).
+
+    Unknowns of a patch: the two no-net-flux modes y_e of each inner edge, and for a closed
+    fan the net flux F_0 of edge 0. The net fluxes follow from the elements' net outflows g0
+    around the fan, F_{j+1} = F_j - g0_j (member j's outflow is F_j - F_{j+1}): particular
+    fluxes P_j = -sum_{i<j} g0_i, plus F_0 on a closed fan (zero on an open one, whose first
+    and last edges are on the outline). The data are compatible (sum g0 = 0), so this leaves
+    a symmetric positive definite system of 2 k + 1 (closed) or 2 k - 2 (open) unknowns.
+    """
+    k, closed, nE = group.pair.shape[1], group.closed, group.n_edges
+    size = 2 * nE + int(closed)
     if size == 0:  # a lone corner element: nothing is free, the data are compatible
         return
-    outflow = reference().outflow[FREE_DOFS]
-    mult = np.r_[-1, nE + np.arange(k - 1)]  # multiplier of each position (the first fixed)
     step = max(1, CHUNK_ENTRIES // (size * size))
     for s in range(0, len(group.vertex), step):  # chunks of patches, bounding the memory
-        pairs, dof, sign = group.pair[s:s + step], group.dof[s:s + step], group.sign[s:s + step]
+        pairs = group.pair[s:s + step]
         p = len(pairs)
-        K, r, g0 = _pair_terms(*_rotated(mesh, centroid, pairs.ravel(), psi, c))
-        K, r, g0 = K.reshape(p, k, 6, 6), r.reshape(p, k, 6), g0.reshape(p, k)
-        # flat indices of every entry: patch, row, column; one bincount sums them all, and
-        # entries of a fixed unknown go to the slot past the end
-        base = (np.arange(p) * size)[:, None, None]
-        free, free_m = dof >= 0, np.broadcast_to(mult >= 0, (p, k))
-        dump = p * size * size
-        rows = base + dof  # (p, k, 6)
-        mrow = base[:, :, 0] + mult  # (p, k)
-        kk = np.where(free[..., :, None] & free[..., None, :],
-                      rows[..., :, None] * size + dof[..., None, :], dump)
-        both = free & free_m[..., None]
-        km = np.where(both, rows * size + mult[:, None], dump)
-        mk = np.where(both, mrow[..., None] * size + dof, dump)
-        so = sign * outflow
-        A = np.bincount(np.concatenate([kk.ravel(), km.ravel(), mk.ravel()]),
-                        np.concatenate([(sign[..., :, None] * sign[..., None, :] * K).ravel(),
-                                        so.ravel(), so.ravel()]),
-                        minlength=dump + 1)[:dump].reshape(p, size, size)
-        b = np.bincount(np.concatenate([np.where(free, rows, p * size).ravel(),
-                                        np.where(free_m, mrow, p * size).ravel()]),
-                        np.concatenate([(sign * r).ravel(), g0.ravel()]),
-                        minlength=p * size + 1)[:p * size].reshape(p, size)
-        x = np.linalg.solve(A, b[..., None])[..., 0]
-        x = np.concatenate([x, np.zeros((p, 1))], axis=1)  # index -1: a fixed zero
-        local = sign * np.take_along_axis(x, dof.reshape(p, -1), axis=1).reshape(p, k, 6)
-        elem, corner = np.divmod(pairs.ravel(), 3)
-        # rotated local edges 0 and 2 are the element's edges i and i + 2
-        target = 3 * np.stack([corner, (corner + 2) % 3], axis=1)[:, :, None] + np.arange(3)
-        flat = (9 * elem[:, None] + target.reshape(-1, 6)).ravel()
-        edge_values += np.bincount(flat, local.ravel(), minlength=edge_values.size).reshape(
-            edge_values.shape)
+        Kv, rv, ko, ki, g0 = _pair_terms(*_rotated(mesh, centroid, pairs.ravel(), psi, c))
+        rv = rv.reshape(p, k, 5)
+        ko, ki, g0 = ko.reshape(p, k, 5), ki.reshape(p, k, 5), g0.reshape(p, k)
+        P = np.zeros((p, k + 1))  # particular net flux of edges 0 ... k (edge k = edge 0)
+        P[:, 1:] = -np.cumsum(g0, axis=1)
+        if not closed:
+            P[:, k] = 0.0  # on the outline (sum g0 = 0 to round-off)
+        A = np.zeros((p, size * size))
+        b = np.zeros((p, size))
+        rhs = rv - P[:, 1:, None] * ko - P[:, :-1, None] * ki  # (p, k, 5)
+        Kv = Kv.reshape(p, k, 25)
+        for j in range(k):  # one step per member; its unknowns' places are the same in the group
+            rows, cols, into, local = _member_unknowns(j, k, closed, size)
+            A[:, into] += Kv[:, j, local]
+            b[:, rows] += rhs[:, j, cols]
+        A = A.reshape(p, size, size)
+        v = np.linalg.solve(A, b[..., None])[..., 0]
+        # edge values x_e = (F_0 + P_e) z + N y_e, e = 0 ... k (zero on the outline)
+        F0 = v[:, -1:] if closed else np.zeros((p, 1))
+        y = np.zeros((p, k + 1, 2))
+        first = 0 if closed else 1
+        y[:, first:first + nE] = v[:, :2 * nE].reshape(p, nE, 2)
+        if closed:
+            y[:, k] = y[:, 0]
+        x = (F0 + P)[..., None] * _Z + y @ _N.T  # (p, k + 1, 3)
+        if not closed:
+            x[:, 0] = x[:, k] = 0.0
+        # member j: its out-edge is edge j + 1 seen the other way, its in-edge edge j
+        pair_values[pairs.ravel()] = np.concatenate([-x[:, 1:, ::-1], x[:, :-1]], axis=2).reshape(
+            -1, 6)
+
+
+@cache
+def _member_unknowns(j: int, k: int, closed: bool, size: int):
+    """Where member j's local unknowns (y_out, y_in, F_0) go among the patch unknowns.
+
+    Returns the patch unknowns and the local ones that exist (an outline edge has none),
+    and the same for the flattened matrices: patch entries and local entries of the 5 x 5.
+    """
+    rows, cols = [], []
+    out_e, in_e = (j + 1) % k if closed else j + 1, j
+    for local, edge in ((0, out_e), (2, in_e)):
+        if closed:
+            place = 2 * edge
+        elif 1 <= edge <= k - 1:
+            place = 2 * (edge - 1)
+        else:
+            continue  # an outline edge: no unknowns
+        rows += [place, place + 1]
+        cols += [local, local + 1]
+    if closed:
+        rows.append(2 * k)
+        cols.append(4)
+    r, c = np.array(rows), np.array(cols)
+    return r, c, (r[:, None] * size + r[None, :]).ravel(), (c[:, None] * 5 + c[None, :]).ravel()
 
 
 def _evaluate(mesh, centroid, psi, c, edge_values: np.ndarray) -> Flux:
@@ -350,9 +415,12 @@ def equilibrate(mesh: Mesh, centroid, psi: np.ndarray, coefficient: np.ndarray |
         raise ValueError("the flux reconstruction needs straight-sided elements")
     c = np.ones(mesh.n_elements) if coefficient is None else np.asarray(coefficient, dtype=float)
     psi = np.asarray(psi, dtype=float)
-    edge_values = np.zeros((mesh.n_elements, 9))
+    pair_values = np.zeros((3 * mesh.n_elements, 6))  # a lone corner element's stay zero
     for group in vertex_patches(mesh):
-        _solve_group(mesh, centroid, psi, c, group, edge_values)
+        _solve_group(mesh, centroid, psi, c, group, pair_values)
+    # element edge l: the out-edge of the pair at corner l plus the in-edge of that at l + 1
+    pv = pair_values.reshape(-1, 3, 6)
+    edge_values = (pv[:, :, :3] + np.roll(pv[:, :, 3:], -1, axis=1)).reshape(-1, 9)
     return _evaluate(mesh, centroid, psi, c, edge_values)
 
 
