@@ -9,7 +9,7 @@ Every (element, corner) pair is one member of one patch, 3 m pairs in all. Each 
 from its vertex: the element's corners are rotated so that the vertex is corner 0 (:data:`ROTATION`),
 and then the pair's two edges through the vertex are its out-edge, local edge 0 (vertex ->
 next corner, RT2 dofs 0, 1, 2) and its in-edge, local edge 2 (previous corner -> vertex, dofs
-6, 7, 8). Counter-clockwise around the vertex, a pair's out-edge is the next pair's in-edge,
+6, 7, 8). Around the vertex (clockwise), a pair's out-edge is the next pair's in-edge,
 so the members of a patch are ordered by walking across out-edges: member j + 1 lies across
 member j's out-edge. Edge j of the patch is member j's in-edge; an interior vertex has a closed
 fan (k members, k edges, edge k being edge 0), a vertex on the outline an open one (member 0's
