@@ -104,3 +104,9 @@ def test_flux_bracket_narrower_than_prandtl_on_samples(path):
         return
     ratio = (t.J - t.J_low) / (t.J - prandtl(res))
     assert 0 < ratio <= 0.7, ratio
+
+
+def test_analysis_keeps_the_element_indicators():
+    t = analyse(rectangle(20.0, 10.0), bounds=True).torsion
+    assert abs(t.J_low_indicator.sum() - (t.J - t.J_low)) < 1e-11 * t.J
+    assert analyse(circle(20.0), bounds=True).torsion.J_low_indicator is None

@@ -370,12 +370,13 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
                    profile.source)
     clock.lap("warping")
     if bounds:
-        J_low, how = torsion_lower_bound(mesh, evc, weighted.centroid, tor.psi, K, wG, solver)
+        J_low, how, eta2 = torsion_lower_bound(mesh, evc, weighted.centroid, tor.psi, K, wG,
+                                               solver)
         if J_low is not None:
             if not J_low <= tor.J * (1 + 1e-9):
                 raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J "
                                     f"{tor.J:.6g})", file=profile.source)
-            tor = replace(tor, J_low=J_low, J_low_method=how)
+            tor = replace(tor, J_low=J_low, J_low_method=how, J_low_indicator=eta2)
         clock.lap("bounds")
     shear = shear_properties(mesh, evc, weighted, factor, mats)
     if not shear.residual < MAX_RESIDUAL:

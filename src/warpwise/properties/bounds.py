@@ -117,7 +117,7 @@ def flux_lower_bound(mesh: Mesh, evc: ElementValues, centroid, psi: np.ndarray,
 
 def torsion_lower_bound(mesh: Mesh, evc: ElementValues, centroid, psi: np.ndarray,
                         stiffness: sp.csr_matrix, G: np.ndarray | None = None,
-                        method: str = "auto") -> tuple[float | None, str | None]:
+                        method: str = "auto") -> tuple[float | None, str | None, np.ndarray | None]:
     """The guaranteed lower bound on J by the method that fits the mesh.
 
     Straight-sided meshes (every element): the equilibrated flux, any materials. Meshes with
@@ -135,20 +135,22 @@ def torsion_lower_bound(mesh: Mesh, evc: ElementValues, centroid, psi: np.ndarra
 
     Returns
     -------
-    (float or None, str or None)
-        J_low (L^4) and the method used (:data:`FLUX` or :data:`PRANDTL`), or (None, None).
+    (float or None, str or None, numpy.ndarray or None)
+        J_low (L^4), the method used (:data:`FLUX` or :data:`PRANDTL`) and, for the flux, the
+        element indicators (:attr:`FluxBound.indicator`); (None, None, None) without a bound.
     """
     if straight_elements(mesh).all():
         try:
-            return flux_lower_bound(mesh, evc, centroid, psi, G).J_low, FLUX
+            bound = flux_lower_bound(mesh, evc, centroid, psi, G)
+            return bound.J_low, FLUX, bound.indicator
         except PinchedVertexError:
             pass
     if G is not None and np.ptp(np.asarray(G, dtype=float)) > 0:
-        return None, None
+        return None, None, None
     J_low, _ = prandtl_lower_bound(mesh, evc, stiffness, method)
     if G is not None:  # one material given as a composite of equal moduli: K carries G
         J_low = float(J_low * np.asarray(G, dtype=float)[0] ** 2)
-    return J_low, PRANDTL
+    return J_low, PRANDTL, None
 
 
 def _hole_areas(mesh: Mesh, bnodes: np.ndarray, which: np.ndarray, n_holes: int) -> np.ndarray:
