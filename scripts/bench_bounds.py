@@ -7,7 +7,8 @@ default). For each mesh: the full property set with the bracket (``analyse(bound
 stage timings summed: mesh, basis, assembly, factorisation, warping, bounds, shear, ...), the
 bounds stage alone (the equilibrated flux on this straight-sided mesh), and one factorisation
 of the same stiffness matrix by :class:`warpwise.fem.solve.PinnedSolver` (the method the
-analysis picks). Ratios are to that one factorisation; best of ``--repeat`` runs each.
+analysis picks). Ratios are to that one factorisation, and (last column) of the full set with
+the bracket to the full set without it; best of ``--repeat`` runs each.
 ``--prandtl`` also times the Prandtl stress-function bound on the same mesh (a second
 factorisation, what meshes with curved elements use).
 """
@@ -43,17 +44,20 @@ def main():
     args = ap.parse_args()
     prof = rectangle(200.0, 100.0)
     print(f"{'h':>5} {'nodes':>9} {'full+bracket s':>14} {'flux s':>7} {'factor s':>8} "
-          f"{'full/factor':>11} {'flux/factor':>11}" + (f" {'prandtl s':>9}" if args.prandtl else ""))
+          f"{'full/factor':>11} {'flux/factor':>11} {'with/without':>12}"
+          + (f" {'prandtl s':>9}" if args.prandtl else ""))
     for h in args.sizes:
         runs = [analyse(prof, h, bounds=True) for _ in range(args.repeat)]
         res = runs[-1]
         full = min(sum(r.timings.values()) for r in runs)
         flux = min(r.timings["bounds"] for r in runs)
+        without = min(sum(analyse(prof, h).timings.values())
+                      for _ in range(args.repeat))
         K = stiffness_matrix(res.mesh, res.basis)
         pin = int(np.argmin(np.sum((res.mesh.nodes - np.array(res.weighted.centroid)) ** 2, axis=1)))
         fac, _ = _best(lambda K=K, pin=pin: PinnedSolver(K, pin), args.repeat)
         line = (f"{h:>5.2f} {res.mesh.n_nodes:>9,} {full:>14.2f} {flux:>7.2f} {fac:>8.2f} "
-                f"{full / fac:>11.2f} {flux / fac:>11.2f}")
+                f"{full / fac:>11.2f} {flux / fac:>11.2f} {full / without:>12.2f}")
         if args.prandtl:
             tp, _ = _best(lambda K=K, r=res: prandtl_lower_bound(r.mesh, r.basis, K), 1)
             line += f" {tp:>9.2f}"

@@ -288,10 +288,10 @@ def _solve_group(mesh, centroid, psi, c, group: PatchGroup, pair_values: np.ndar
         Kv, rv, ko, ki, g0 = _pair_terms(*_rotated(mesh, centroid, pairs.ravel(), psi, c))
         rv = rv.reshape(p, k, 5)
         ko, ki, g0 = ko.reshape(p, k, 5), ki.reshape(p, k, 5), g0.reshape(p, k)
-        P = np.zeros((p, k + 1))  # particular net flux of edges 0 ... k (edge k = edge 0)
-        P[:, 1:] = -np.cumsum(g0, axis=1)
-        if not closed:
-            P[:, k] = 0.0  # on the outline (sum g0 = 0 to round-off)
+        # particular net flux of edges 0 ... k; edge k is edge 0 (closed) or on the outline:
+        # zero either way, the round-off of sum g0 = 0 left in the last element's divergence
+        P = np.zeros((p, k + 1))
+        P[:, 1:k] = -np.cumsum(g0[:, :-1], axis=1)
         A = np.zeros((p, size * size))
         b = np.zeros((p, size))
         rhs = rv - P[:, 1:, None] * ko - P[:, :-1, None] * ki  # (p, k, 5)
