@@ -236,6 +236,10 @@ def straight_elements(mesh: Mesh) -> np.ndarray:
     return straight_sided(mesh.nodes[mesh.elements], float(np.abs(mesh.nodes).max(initial=0.0)))
 
 
+class CurvedElementsError(ValueError):
+    """The mesh has elements with a curved edge, where the reconstruction is not exact."""
+
+
 @dataclass(frozen=True, eq=False)
 class Flux:
     """An equilibrated flux: RT2 dofs per element and the energies it gives.
@@ -249,11 +253,15 @@ class Flux:
         (m,) ``int_e |sigma - tau_h|^2 / c dA``, L^4.
     complementary : float
         ``-int (2 sigma . w + |sigma|^2 / c) dA``, L^4: the lower bound on J.
+    warping : float
+        ``int c (|w|^2 - w . grad psi_h) dA``, L^4: J of the warping function (the upper bound),
+        integrated with the same rule; ``warping - complementary = sum(indicator)``.
     """
 
     dofs: np.ndarray
     indicator: np.ndarray
     complementary: float
+    warping: float
 
 
 def _rotated(mesh: Mesh, centroid, pairs: np.ndarray, psi: np.ndarray, c: np.ndarray):
@@ -353,7 +361,7 @@ def _evaluate(mesh, centroid, psi, c, edge_values: np.ndarray) -> Flux:
     m, nq = mesh.n_elements, len(ref.weights)
     dofs = np.empty((m, 15))
     indicator = np.empty(m)
-    total = 0.0
+    total = upper = 0.0
     values = ref.values.transpose(1, 0, 2).reshape(15, -1)  # (15, q x 2)
     dN = ref.dN.transpose(1, 0, 2).reshape(6, -1)
     beta_mass = ref.mass[:, :, 14]  # (3, 15)
@@ -385,7 +393,8 @@ def _evaluate(mesh, centroid, psi, c, edge_values: np.ndarray) -> Flux:
         indicator[s:s + CHUNK_ELEMENTS] = np.einsum("pq,pq->p", dA, dx * dx + dy * dy) / cc
         total -= float(np.einsum("pq,pq->", dA, 2.0 * (sx * wx + sy * wy)
                                  + (sx * sx + sy * sy) / ccol))
-    return Flux(dofs, indicator, total)
+        upper += float(np.einsum("pq,pq->", dA * ccol, wx * (wx - gx) + wy * (wy - gy)))
+    return Flux(dofs, indicator, total, upper)
 
 
 def equilibrate(mesh: Mesh, centroid, psi: np.ndarray, coefficient: np.ndarray | None = None) -> Flux:
@@ -408,12 +417,13 @@ def equilibrate(mesh: Mesh, centroid, psi: np.ndarray, coefficient: np.ndarray |
 
     Raises
     ------
-    ValueError
-        If an element has a curved edge, or the mesh is pinched at a vertex
-        (:class:`~warpwise.fem.flux.patches.PinchedVertexError`).
+    CurvedElementsError
+        If an element has a curved edge.
+    PinchedVertexError
+        If the mesh is pinched at a vertex (:class:`~warpwise.fem.flux.patches.PinchedVertexError`).
     """
     if not straight_elements(mesh).all():
-        raise ValueError("the flux reconstruction needs straight-sided elements")
+        raise CurvedElementsError("the flux reconstruction needs straight-sided elements")
     c = np.ones(mesh.n_elements) if coefficient is None else np.asarray(coefficient, dtype=float)
     psi = np.asarray(psi, dtype=float)
     pair_values = np.zeros((3 * mesh.n_elements, 6))  # a lone corner element's stay zero
@@ -435,5 +445,5 @@ def flux_at(mesh: Mesh, flux: Flux, elements: np.ndarray, ref_points: np.ndarray
     return sig, np.einsum("pk,pk->p", d, div) / geo.det
 
 
-__all__ = ["CHUNK_ELEMENTS", "CHUNK_ENTRIES", "Flux", "Geometry", "Reference", "equilibrate",
-           "flux_at", "reference", "straight_elements"]
+__all__ = ["CHUNK_ELEMENTS", "CHUNK_ENTRIES", "CurvedElementsError", "Flux", "Geometry",
+           "Reference", "equilibrate", "flux_at", "reference", "straight_elements"]
