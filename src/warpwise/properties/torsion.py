@@ -75,8 +75,14 @@ class TorsionProperties:
     residual : float
         Backward error of the warping solve.
     J_low : float or None
-        Guaranteed lower bound on J of the meshed domain from the Prandtl stress function
-        (J itself is the upper bound), L^4; None when not computed.
+        Guaranteed lower bound on J of the meshed domain (J itself is the upper bound), L^4;
+        None when not computed.
+    J_low_method : str or None
+        How J_low was found: the equilibrated flux (straight-sided meshes) or the Prandtl stress
+        function (meshes with curved elements); see :mod:`warpwise.properties.bounds`.
+    J_low_indicator : numpy.ndarray or None
+        With the equilibrated flux, the element indicators int_e |sigma - tau_h|^2 / c dA (m,),
+        L^4, whose sum is J - J_low (where the width of the bracket comes from); None otherwise.
     """
 
     J: float
@@ -89,6 +95,8 @@ class TorsionProperties:
     beta_2: float
     residual: float
     J_low: float | None = None
+    J_low_method: str | None = None
+    J_low_indicator: np.ndarray | None = None
 
 
 def torsion_load(mesh: Mesh, evc: ElementValues, weight: np.ndarray | None = None) -> np.ndarray:
