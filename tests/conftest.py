@@ -8,6 +8,16 @@ ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = ROOT / "sample_sections"
 
 
+def sample_folder(folder, names):
+    """A folder ``folder`` holding copies of the named sample profiles."""
+    import shutil
+
+    folder.mkdir()
+    for name in names:
+        shutil.copy(SAMPLES / name, folder / name)
+    return folder
+
+
 def run_cli(*args, cwd=None):
     """Run the warpwise command in a subprocess; return (code, stdout, stderr)."""
     proc = subprocess.run([sys.executable, "-m", "warpwise.cli", *map(str, args)],

@@ -1,12 +1,11 @@
 import csv
 import io
 import json
-import shutil
 from concurrent.futures import ProcessPoolExecutor, ThreadPoolExecutor
 
 import pytest
 
-from conftest import SAMPLES
+from conftest import SAMPLES, sample_folder
 from warpwise.catalogue import RunOptions, analyse_one, collect_files, run_catalogue
 from warpwise.report.files import csv_text
 
@@ -15,10 +14,7 @@ FEW = ["key_bar_12x8.txt", "channel_thick_80x40.txt", "angle_thick_60x40x8.dxf"]
 
 @pytest.fixture
 def folder(tmp_path):
-    d = tmp_path / "profiles"
-    d.mkdir()
-    for name in FEW:
-        shutil.copy(SAMPLES / name, d / name)
+    d = sample_folder(tmp_path / "profiles", FEW)
     (d / "broken.txt").write_text("0 0\n10 0\n10 10\n")  # only a triangle... valid
     (d / "open.dxf").write_text("0\nSECTION\n2\nENTITIES\n0\nLINE\n8\n0\n10\n0\n20\n0\n11\n5\n21\n0\n"
                                 "0\nENDSEC\n0\nEOF\n")
@@ -69,7 +65,7 @@ def test_dask_local_cluster():
 def test_exception_mid_run_leaves_no_output(tmp_path, monkeypatch):
     # an interruption (here: an exception from the progress callback, as Ctrl-C would raise)
     # must not leave a partial CSV behind
-    import warpwise.catalogue
+    from warpwise.cli import catalogue_command
     from warpwise.cli import commands as cli_module
 
     out = tmp_path / "never.csv"
@@ -77,9 +73,7 @@ def test_exception_mid_run_leaves_no_output(tmp_path, monkeypatch):
     def boom(*args, **kwargs):
         raise KeyboardInterrupt
 
-    # the command imports the runner when it runs (start-up time), so the runner is replaced
-    # where it lives
-    monkeypatch.setattr(warpwise.catalogue, "run_catalogue", boom)
+    monkeypatch.setattr(catalogue_command, "run_catalogue", boom)
     code = cli_module.main(["catalogue", str(SAMPLES), "--csv", str(out)])
     assert code == 130
     assert not out.exists()

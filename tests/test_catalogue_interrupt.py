@@ -2,7 +2,8 @@
 
 The catalogue builds its pages in a hidden staging folder and moves them into place only when
 every output is ready (README "Output files"), so a run that is interrupted (Ctrl-C, SIGINT)
-leaves an existing folder exactly as it was and says "no output written"; a run whose main
+leaves the visible files of an existing folder exactly as they were and says "no output
+written" (the pages it finished wait in the hidden staging folder for a run that goes on); a run whose main
 process is killed (SIGKILL) takes its worker processes with it. These cases run the command
 in a subprocess with a time limit and, on Linux, a memory limit (a safety net only), signal
 it once its first page is staged, then look at the folder and at the processes.
@@ -102,7 +103,7 @@ def start(tmp_path: Path, pages: Path) -> subprocess.Popen:
 def wait_first_page(proc: subprocess.Popen, where: Path) -> None:
     """Until the run has staged its first datasheet (hidden folder inside ``where``)."""
     deadline = time.monotonic() + TIME_LIMIT
-    while not list(where.glob(".warpwise-partial-*/*.html")):
+    while not list(where.glob(".warpwise-partial/*.html")):
         assert proc.poll() is None, proc.communicate()
         assert time.monotonic() < deadline, "no page staged in time"
         time.sleep(0.05)
@@ -130,9 +131,14 @@ def test_ctrl_c_leaves_the_old_catalogue_and_no_worker(tmp_path):
     proc.send_signal(signal.SIGINT)
     _, err = proc.communicate(timeout=TIME_LIMIT)
     assert proc.returncode == 130
-    assert err.splitlines()[-1] == "warpwise: interrupted; no output written"
+    last = err.splitlines()[-1]
+    assert last.startswith("warpwise: interrupted; no output written; ")
+    assert f"kept in {pages / '.warpwise-partial' / '.journal'}: the same command goes on" in last
     assert "Traceback" not in err
-    assert snapshot(pages) == before  # not one page of the new run, the old index intact
+    # not one page of the new run in view, the old index intact; the finished pages and the
+    # journal wait in the hidden staging folder for a run that goes on
+    assert {n: b for n, b in snapshot(pages).items() if not n.startswith(".")} == before
+    assert [p.name for p in pages.iterdir() if p.name.startswith(".")] == [".warpwise-partial"]
     assert sorted(p.name for p in tmp_path.iterdir()) == ["pages", "profiles"]
     assert running(workers) == []  # the run ended its workers before it returned
 
@@ -149,8 +155,7 @@ def test_killed_parent_takes_its_workers(tmp_path):
     assert running(workers) == []
     # the visible folder is the old catalogue; only the hidden staging folder is left over
     assert {n: b for n, b in snapshot(pages).items() if not n.startswith(".")} == before
-    assert [p.name.startswith(".warpwise-partial-") for p in pages.iterdir()
-            if p.name.startswith(".")] == [True]
+    assert [p.name for p in pages.iterdir() if p.name.startswith(".")] == [".warpwise-partial"]
 
 
 def test_finished_run_replaces_pages_and_keeps_other_files(tmp_path, capsys):

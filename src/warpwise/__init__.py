@@ -8,8 +8,9 @@ profiles) -> :mod:`.mesh` -> :mod:`.fem` (element, assembly, solvers) -> :mod:`.
 (every section property) -> :mod:`.stress` (stresses under loads) -> :mod:`.report` (tables,
 files, figures) -> :mod:`.catalogue` and :mod:`.cli`. Nothing downstream is imported upstream.
 
-The re-exported names are loaded on first use (a module-level ``__getattr__``), so that
-``import warpwise`` and a command that needs only part of the pipeline start quickly.
+The re-exported names (but the result class, which gets its notebook view here) are loaded on
+first use (a module-level ``__getattr__``), so that a command that needs only part of the
+pipeline starts quickly.
 """
 
 from __future__ import annotations
@@ -18,8 +19,22 @@ import importlib
 
 from . import _moved
 from .errors import AnalysisError, InputFileError, ProfileError, UsageError, WarpwiseError
+from .properties.analysis import SectionResult
 
 _moved.install()
+
+
+def _result_html(self: SectionResult) -> str:
+    """Jupyter's view of a result: its property table (:mod:`warpwise.report.notebook`)."""
+    from .report.notebook import result_html
+
+    return result_html(self)
+
+
+# attached here, at the top of the package: the view is made by .report, a later stage than the
+# class it shows; imported when first shown, so importing warpwise stays light. (The result
+# class is needed for that, so the analysis is loaded with the package; every command analyses.)
+SectionResult._repr_html_ = _result_html  # type: ignore[attr-defined]
 
 __version__ = "0.1.0"
 
@@ -27,7 +42,7 @@ __version__ = "0.1.0"
 _LAZY = {
     "LENGTH_UNITS": "geometry", "Profile": "geometry", "Region": "geometry",
     "profile_from_loops": "geometry", "Mesh": "mesh", "build_mesh": "mesh",
-    "SectionResult": "properties", "analyse": "properties", "TorsionStress": "stress",
+    "analyse": "properties", "TorsionStress": "stress",
     "shear_modulus": "stress", "torsion_stress": "stress",
 }
 

@@ -85,16 +85,17 @@ def test_material_needed(capsys):
 
 
 def test_one_section_printed_once(capsys):
-    # fixed at both ends, torque at midspan: |B| and |T_w| are both largest just past the load
-    # point (antisymmetric halves; Seaburg & Carter 1997, case of a concentrated torque, from
-    # memory), so the text prints that section once; the JSON keeps one entry per quantity
+    # fixed at both ends, torque at midspan: |B| and |T_w| are both largest at the supports and
+    # at the load point, equal there (antisymmetric halves; Seaburg & Carter 1997, case of a
+    # concentrated torque, from memory); the first along the member is taken for both, whatever
+    # the round-off, so the text prints that section once; the JSON keeps one entry each
     args = ["--length", 2000, "--ends", "fixed,fixed", "--point-torque", "5e4@1000"]
     code, out, _ = _run(capsys, *args)
     assert code == 0
-    assert out.count("where |B| and |T_w| are largest, z = 1000 mm") == 1
+    assert out.count("where |B| and |T_w| are largest, z = 0 mm") == 1
     assert "where |B| is largest" not in out and "where |T_w| is largest" not in out
     assert out.count("where |T_sv| is largest") == 1
     code, out, _ = _run(capsys, *args, "--json")
     got = json.loads(out)["governing_sections"]
     assert [s["governs"] for s in got] == ["B", "T_w", "T_sv"]
-    assert got[0]["z"] == got[1]["z"] == 1000.0
+    assert got[0]["z"] == got[1]["z"] == 0.0

@@ -4,8 +4,8 @@ Sources:
 - J of a b x t rectangle: the series solution of Timoshenko & Goodier, Theory of Elasticity,
   3rd ed., sec. 109, J = b t^3 / 3 (1 - 192 t / (pi^5 b) sum_odd tanh(n pi b / 2t) / n^5).
   J of separate parts is the sum of their J (each part twists with its own warping and its own
-  free constant; common practice, no source). The finite-element J is an upper bound and the
-  stress-function J_low a lower bound of the meshed domain (bounds.py), so the series sum must
+  free constant; common practice, no source). The finite-element J is an upper bound and
+  J_low (the equilibrated flux here) a lower bound of the meshed domain (bounds.py), so the sum must
   lie between them: that is the tightest honest check at a finite mesh.
 - Cw and the shear centre of two flanges kept in shape and free to slide along each other: each
   flange bends about its own centroid as the pair twists, as the flanges of an I-section do:

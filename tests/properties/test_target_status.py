@@ -1,6 +1,6 @@
 """What an adaptive run towards --target-error reached, why it stopped, and the exit status.
 
-The bound checked is the guaranteed bracket of J (warping upper bound, Prandtl stress-function
+The bound checked is the guaranteed bracket of J (warping upper bound, equilibrated-flux or Prandtl
 lower bound; its bracketing is checked against closed forms in tests/validation). Here the
 outcome of the run is asserted exactly: which mesh stops it and with which reason.
 """

@@ -148,3 +148,69 @@ def test_index_links_to_datasheet_and_lists_failures(pages):
 def test_screenshots_are_written(pages):
     png_ok(pages["shots"]["sheet"])
     png_ok(pages["shots"]["index"], min_bytes=5_000)
+
+
+# ----------------------------------------------------------------------------------------------
+# printing and the index's fit (Chromium's own layout, read by a probe script in a copy of the
+# page: the pages themselves run no script and forbid it)
+
+PRINTED = ["purlin_lipped_150.dxf", "mullion_steel_reinforced.txt", "mullion_screw_bosses.dxf",
+           "rail_drawing_sheet_a4.dxf"]
+
+
+def _probed(page, script):
+    """A copy of ``page`` without its content security policy and with ``script`` at the end."""
+    text = re.sub(r'<meta http-equiv="Content-Security-Policy"[^>]*>', "", page.read_text())
+    copy = page.with_name("probe-" + page.name)
+    copy.write_text(text.replace("</body>", f"<script>{script}</script></body>"))
+    return copy
+
+
+@pytest.mark.skipif(shutil.which("pdfinfo") is None, reason="pdfinfo (poppler-utils) is missing")
+def test_datasheets_print_on_two_pages(tmp_path):
+    # the print stylesheet puts the outline, key values and every property on page 1 and the
+    # pictures, glossary, notes and cautions on page 2 (A4); these samples are the longest:
+    # a composite (more rows), twelve sharp corners (a note and a stress line each), a drawing
+    jobs = {}
+    for name in PRINTED:
+        result = analyse(load_profile(SAMPLES / name))
+        sheet = write_datasheet(result, tmp_path, torsion=torsion_stress(result, 1.0),
+                                nominal_torque=True)
+        pdf = tmp_path / f"{name}.pdf"
+        jobs[name] = (sheet, tmp_path / f"p-{name}", f"--print-to-pdf={pdf}",
+                      "--no-pdf-header-footer")
+    run_all(jobs)
+    for name in PRINTED:
+        info = subprocess.run(["pdfinfo", str(tmp_path / f"{name}.pdf")], capture_output=True,
+                              text=True, check=True).stdout
+        pages = int(re.search(r"Pages:\s+(\d+)", info).group(1))
+        assert pages <= 2, (name, pages)
+        assert "595.2 x 841.9" in info or "594.96 x 841.92" in info  # A4 in points
+
+
+def test_index_fits_1400_px_and_keeps_its_header_in_view(tmp_path):
+    # forty rows with long names and descriptions; the probe scrolls down and reads where the
+    # header is and whether the page is wider than the window
+    result = analyse(load_profile(SAMPLES / "channel_thick_80x40.txt"))
+    from dataclasses import replace as _replace
+
+    from warpwise.report.records import record_of
+
+    entries = []
+    for k in range(40):
+        rec = _replace(record_of(result), name=f"EXT-{k:03d}-LONGPARTNUMBER-WITH-SUFFIX",
+                       description="extruded channel, anodised, long description " * 2)
+        entries.append(CatalogueEntry(f"lib/series_{k}/channel_thick_80x40.txt", result,
+                                      f"p{k}.html", record=rec))
+    index = write_index(entries, tmp_path)
+    probe = _probed(index, "window.scrollTo(0, 1500);"
+                           "var th = document.querySelector('#catalogue-table thead th');"
+                           "document.title = [document.documentElement.scrollWidth,"
+                           " document.documentElement.clientWidth, window.scrollY,"
+                           " Math.round(th.getBoundingClientRect().top)].join(' ');")
+    dom, _ = chromium(probe, tmp_path / "p-probe", "--dump-dom", "--window-size=1400,900")
+    wide, window, scrolled, header_top = map(int, re.search(r"<title>([^<]*)</title>", dom)
+                                              .group(1).split())
+    assert scrolled > 0  # the page did scroll
+    assert wide <= window  # nothing wider than the window
+    assert header_top == 0  # the header row stays at the top

@@ -93,7 +93,8 @@ def run_props(args: argparse.Namespace) -> int:
     if not args.files and not args.shape:
         raise UsageError("give a FILE or a --shape")
     check_outputs([Output("--csv", args.csv), Output("--json", STDOUT if args.json else None),
-                   Output("--html", args.html)], _inputs(args, args.files))
+                   Output("--html", args.html), Output("--pdf", args.pdf, to_stdout=False)],
+                  _inputs(args, args.files))
     if args.html and len(args.files) + len(args.shape or ()) != 1:
         raise UsageError("--html writes the datasheet of one profile; for several use "
                          "'warpwise catalogue ... --html DIR'")
@@ -135,9 +136,15 @@ def run_props(args: argparse.Namespace) -> int:
         sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),
                                nominal_torque=True, units=shown_units,
                                about_axis=axes[0][0] if axes else None)
+    pages = b""
+    if args.pdf:
+        from ..report.pdf_sheet import pdf_bytes, profile_loops, sheet_profile
+
+        pages = pdf_bytes([sheet_profile(rec, profile_loops(res.profile.regions), args.report_units)
+                           for rec, res in zip(records, results, strict=True)])
     if prints_report(args):  # the CSV or the page on standard output take its place
         sys.stdout.write(text)
-    write_outputs([(args.csv, table), (args.html, sheet)])
+    write_outputs([(args.csv, table), (args.html, sheet), (args.pdf, pages)])
     return _missed_exit(records)
 
 
@@ -429,9 +436,11 @@ def main(argv: Sequence[str] | None = None) -> int:
         print(f"warpwise: error: {exc}", file=sys.stderr)
         return EXIT_INPUT
     except KeyboardInterrupt:
+        from .catalogue_command import kept_note
+
         done = f"after writing {', '.join(outputs.WRITTEN)}" if outputs.WRITTEN else \
             "no output written"
-        print(f"warpwise: interrupted; {done}", file=sys.stderr)
+        print(f"warpwise: interrupted; {done}{kept_note()}", file=sys.stderr)
         return 130
     except BrokenPipeError:
         return 0

@@ -228,6 +228,8 @@ def _add_props(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--html", metavar="OUT.html",
                    help="also write the HTML datasheet of the profile (one profile; with "
                         "--about-axis its values too) to OUT.html")
+    p.add_argument("--pdf", metavar="OUT.pdf",
+                   help="also write A4 PDF datasheets, one page per profile, to OUT.pdf")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)
@@ -278,9 +280,20 @@ def _add_catalogue(sub: argparse._SubParsersAction) -> None:
     p.add_argument("items", nargs="+", metavar="DIR_FILE_OR_MANIFEST")
     p.add_argument("--csv", metavar="OUT", help="property table, one row per profile")
     p.add_argument("--json", metavar="OUT", help="the same as a JSON list")
+    p.add_argument("--xlsx", metavar="OUT.xlsx",
+                   help="the same as a workbook: sheets of properties (a row of units under the "
+                        "header), failures and materials")
     p.add_argument("--html", metavar="DIR", help="an HTML datasheet per profile and an index page")
+    p.add_argument("--pdf", metavar="OUT.pdf",
+                   help="a PDF of A4 datasheets, one page per profile in row order")
     p.add_argument("--jobs", type=positive_int, metavar="N",
                    help="worker processes (default: the number of CPUs; 1 runs in this process)")
+    p.add_argument("--cluster", metavar="ADDRESS",
+                   help="run on a Dask cluster: its scheduler's address (tcp://HOST:8786), or "
+                        "'local' for a cluster of --jobs worker processes on this machine")
+    p.add_argument("--fresh", action="store_true",
+                   help="analyse every profile again, ignoring what an interrupted run with the "
+                        "same outputs left (OUT.partial)")
     _report_options(p)
     _input_options(p)
     _analysis_options(p, estimate=True)

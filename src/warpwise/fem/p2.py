@@ -209,16 +209,19 @@ _FROM_UPPER[_UPPER[::-1]] = np.arange(len(_UPPER[0]))
 _FROM_UPPER = _FROM_UPPER.ravel()
 
 
-def _straight_sided(X: np.ndarray) -> np.ndarray:
+def straight_sided(X: np.ndarray, scale: float = 0.0) -> np.ndarray:
     """Mask (m,) of elements (node coordinates X, (m, 6, 2)) with mid-side nodes on the chords.
 
-    Such elements have a constant Jacobian; the others are curved (isoparametric).
+    Such elements have a constant Jacobian; the others are curved (isoparametric). The
+    round-off allowed is that of the element's coordinates, or of ``scale`` when larger: pass
+    the mesh's coordinate magnitude when nodes were computed from other, larger coordinates (a
+    mirrored mesh puts a node at 2 c - x, exact only to the round-off of c).
     """
     corners = X[:, :3]
     off = X[:, 3:] - 0.5 * (corners + np.roll(corners, -1, axis=1))  # edges (0,1), (1,2), (2,0)
     off = np.abs(off).reshape(len(X), -1).max(axis=1)
-    scale = np.abs(X).reshape(len(X), -1).max(axis=1)
-    return off <= STRAIGHT_TOLERANCE_ULPS * np.finfo(float).eps * scale
+    size = np.maximum(np.abs(X).reshape(len(X), -1).max(axis=1), scale)
+    return off <= STRAIGHT_TOLERANCE_ULPS * np.finfo(float).eps * size
 
 
 def _reference_products(ev: ElementValues) -> np.ndarray:
@@ -306,7 +309,7 @@ def stiffness_matrix(mesh: Mesh, ev: ElementValues,
     """
     w = ev.dA if coefficient is None else ev.dA * np.asarray(coefficient, dtype=float)[:, None]
     X = mesh.nodes[mesh.elements]
-    straight = _straight_sided(X)
+    straight = straight_sided(X)
     if straight.all():
         upper = _local_stiffness_straight(X[:, :3], w, ev)
     else:

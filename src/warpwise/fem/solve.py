@@ -53,6 +53,54 @@ def _pardiso_available() -> bool:
     return True
 
 
+class PardisoCholesky:
+    """A PARDISO Cholesky factorisation of a sparse SPD matrix, released with this object.
+
+    pypardiso's own solver object keeps a copy of the matrix, compares it with the matrix
+    passed on every solve, and never frees MKL's internal memory (the factor: about 0.9 kB per
+    unknown at 400k unknowns), so each factorisation made in a long-lived process (a catalogue
+    worker, a refinement loop) would stay in memory. This class uses pypardiso only to load the
+    MKL library and make the calls: phase 12 (analysis and factorisation) once, phase 33 (solve)
+    for each set of right-hand sides, and phase -1 (release everything) when it is garbage
+    collected.
+
+    Parameters
+    ----------
+    upper : scipy.sparse.csr_matrix
+        Upper triangle (diagonal included) of the (n, n) symmetric positive definite matrix.
+    """
+
+    def __init__(self, upper: sp.csr_matrix) -> None:
+        import weakref
+
+        import pypardiso
+
+        upper = sp.csr_matrix(upper, dtype=float)
+        upper.sort_indices()  # PARDISO needs sorted column indices in each row
+        if upper.shape[0] and not np.diff(upper.indptr).all():  # an empty row crashes MKL
+            raise ValueError("the matrix has an empty row")
+        self.n = upper.shape[0]
+        self._upper = upper
+        self._lib = pypardiso.PyPardisoSolver(mtype=2)  # real symmetric positive definite
+        weakref.finalize(self, self._lib.free_memory, True)
+        self._run(12, np.zeros((self.n, 1), order="F"))
+
+    def _run(self, phase: int, rhs: np.ndarray) -> np.ndarray:
+        """One PARDISO call of the given phase with Fortran-ordered right-hand sides."""
+        from pypardiso.pardiso_wrapper import PyPardisoError
+
+        self._lib.set_phase(phase)
+        try:
+            return self._lib._call_pardiso(self._upper, rhs)
+        except PyPardisoError as exc:  # e.g. -4, a zero pivot: not positive definite
+            raise RuntimeError(str(exc)) from None
+
+    def solve(self, rhs: np.ndarray) -> np.ndarray:
+        """Solve for one (n,) or several (n, r) right-hand sides; the units are the inverse matrix's."""
+        rhs = np.asarray(rhs, dtype=float)
+        return self._run(33, np.asfortranarray(rhs)).reshape(rhs.shape)
+
+
 class SPDFactor:
     """A symmetric positive definite matrix, factorised (or preconditioned) once.
 
@@ -91,12 +139,9 @@ class SPDFactor:
                 self._lu = spla.splu(a.tocsc(), permc_spec="MMD_AT_PLUS_A",
                                      options={"SymmetricMode": True})
             elif method == "pardiso":
-                import pypardiso
-
-                self._upper = sp.triu(a, format="csr")
-                del a  # keep only the upper triangle (pypardiso checks it on every solve)
-                self._pardiso = pypardiso.PyPardisoSolver(mtype=2)  # real symmetric positive definite
-                self._pardiso.factorize(self._upper)
+                upper = sp.triu(a, format="csr")
+                del a
+                self._pardiso = PardisoCholesky(upper)
             else:
                 import pyamg
 
@@ -110,7 +155,7 @@ class SPDFactor:
         if self.method == "superlu":
             return self._lu.solve(rhs)
         if self.method == "pardiso":
-            return self._pardiso.solve(self._upper, rhs)
+            return self._pardiso.solve(rhs)
         cols = rhs.reshape(rhs.shape[0], -1)
         out = np.column_stack([
             self._amg.solve(cols[:, k], tol=CG_TOLERANCE, accel="cg", maxiter=500)

@@ -41,6 +41,15 @@ class Extreme:
     side: str
 
 
+#: Relative difference below which two values along the member are the same maximum (far
+#: above the round-off of the closed-form solution, far below any difference that matters).
+TIE = 1e-9
+#: Relative gain by which the search between grid points must beat the grid's best: above the
+#: round-off of the solution (a tie at a support stays there), below any true peak's gain over
+#: its nearest grid point (about 1e-10 for a midspan peak between points L/2000 apart).
+GAIN = 1e-13
+
+
 def stations(member: MemberTorsion, count: int = 11) -> np.ndarray:
     """``count`` evenly spaced positions from 0 to L, with every load point added, L."""
     z = np.linspace(0.0, member.length, max(int(count), 2))
@@ -81,7 +90,14 @@ def extremes(member: MemberTorsion) -> list[Extreme]:
     out = []
     for name, _sym in QUANTITIES:
         vals = np.where(end, getattr(left, name), getattr(right, name))
-        k = int(np.argmax(np.abs(vals)))
+        size_all = np.abs(vals)
+        # equal maxima (a symmetric member: both supports and the load point) differ by
+        # round-off only; the first along the member is taken, so that the choice does not
+        # follow the round-off of a machine and equal sections of two quantities coincide
+        # (a flat peak's neighbouring points are one candidate: the best point of the first run)
+        near = np.flatnonzero(size_all >= size_all.max() * (1.0 - TIE))
+        run = near[: int(np.argmax(np.diff(near) > 1)) + 1] if np.any(np.diff(near) > 1) else near
+        k = int(run[np.argmax(size_all[run])])
         best_z, best = float(z[k]), float(vals[k])
         side = "left" if end[k] else "right"
         same = np.flatnonzero(seg == seg[k])
@@ -94,7 +110,7 @@ def extremes(member: MemberTorsion) -> list[Extreme]:
             res = minimize_scalar(size, bounds=(lo, hi), method="bounded",
                                   options={"xatol": 1e-12 * member.length})
             v = _value(member, name, float(res.x), side)
-            if abs(v) > abs(best):
+            if abs(v) > abs(best) * (1.0 + GAIN):
                 best_z, best = float(res.x), v
         out.append(Extreme(name=name, value=best, z=best_z, side=side))
     return out

@@ -7,7 +7,7 @@ import shapely
 from meshpy import triangle
 
 from ..errors import ProfileError, UsageError
-from ..geometry.corners import reentrant_corners
+from ..geometry.corners import obtuse_corners, reentrant_corners
 from ..geometry.profile import Profile
 from .edges import mesh_edges
 from .sizing import (
@@ -16,6 +16,7 @@ from .sizing import (
     MAX_BOUNDARY_POINTS,
     MAX_ELEMENTS,
     MIN_SIZE_FRACTION,
+    OBTUSE_SIZE_FACTOR,
     TRIANGLES_PER_BOUNDARY_POINT,
     check_boundary_budget,
     grade_to_corners,
@@ -85,6 +86,19 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
                          f"{_LIMIT_ADVICE}; --max-elements N lifts the limit", file=full.source)
 
 
+def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float,
+            h: float) -> tuple[np.ndarray, np.ndarray]:
+    """Boundary points graded towards ``corners``.
+
+    The size at each corner is ``size / h`` times the local size there (the wall thickness or
+    h), growing by :data:`CORNER_GRADING` with distance.
+    """
+    cxy = np.array([(c.x, c.y) for c in corners])
+    near = nearest_index(pts[sub[:, 0]], cxy)  # the segment starting nearest each corner
+    local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
+    return grade_to_corners(pts, sub, cxy, size / h * local, CORNER_GRADING)
+
+
 def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
                  refine_level: float = 1.0, max_elements: int = MAX_ELEMENTS) -> tuple[
         np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -106,16 +120,13 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)
     pts, sub = split_segments(pts, sub, np.minimum(h, t2 / across))
     corners = reentrant_corners(full, measure=False)
-    if corners:
-        cxy = np.array([(c.x, c.y) for c in corners])
-        # size at the corner: a fraction of the local size there (wall thickness or h)
-        near = nearest_index(pts[sub[:, 0]], cxy)  # the segment starting nearest each corner
-        local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
-        # the corner size shrinks faster than h under refinement (as h^2), which keeps the
-        # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
-        pts, sub = grade_to_corners(pts, sub, cxy, CORNER_SIZE_FACTOR * local / refine_level,
-                                     CORNER_GRADING)
-    check_mesh_budget(len(pts), len(corners), part, full, h, max_elements)
+    obtuse = obtuse_corners(full)
+    # the corner size shrinks faster than h under refinement (as h^2), which keeps the
+    # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
+    for found, factor in ((obtuse, OBTUSE_SIZE_FACTOR), (corners, CORNER_SIZE_FACTOR)):
+        if found:
+            pts, sub = _graded(pts, sub, found, factor * h / refine_level, h)
+    check_mesh_budget(len(pts), len(corners) + len(obtuse), part, full, h, max_elements)
     info = triangle.MeshInfo()
     info.set_points(pts)
     info.set_facets(sub)

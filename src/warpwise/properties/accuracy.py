@@ -145,7 +145,8 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
     poisson : float
         Poisson's ratio for the shear properties.
     bounds : bool
-        Also compute the Prandtl lower bound on J for the first mesh.
+        Also compute the guaranteed lower bound on J for the first mesh
+        (:func:`warpwise.properties.bounds.torsion_lower_bound`).
     solver : str
         Linear solver (see :class:`warpwise.fem.solve.SPDFactor`).
     max_elements : int

@@ -6,7 +6,7 @@ Galerkin orthogonality the error of J is exactly the energy norm of the warping 
 J_h - J = int |grad(psi - psi_h)|^2 dA, so sum(eta_e^2) / J estimates the relative error of J
 directly; it steers the refinement: elements carrying the largest indicators (Doerfler marking,
 together half of the total) get their size halved (area limit a quarter). Refinement stops when
-the guaranteed bracket of J (warping upper bound, stress-function lower bound, see
+the guaranteed bracket of J (warping upper bound, equilibrated-flux or stress-function lower bound, see
 :mod:`warpwise.properties.bounds`) is narrower than the requested tolerance, so the relative error of J on
 the meshed domain is certainly below it; or, short of it, after :data:`MAX_STEPS` meshes (step
 limit), before a mesh over the element budget (element budget), or when the indicator is at

@@ -28,7 +28,7 @@ from ..geometry.corners import Corner, reentrant_corners
 from ..geometry.profile import Profile
 from ..materials import ElementMaterials, Material, check_poisson, resolve
 from ..mesh.core import MAX_ELEMENTS, Mesh, build_mesh
-from .bounds import prandtl_lower_bound
+from .bounds import torsion_lower_bound
 from .buckling import BucklingConstants, buckling_constants
 from .geometric import GeometricProperties, geometric_properties
 from .outline import Perimeters, perimeters
@@ -319,8 +319,10 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
         Linear solver: ``auto``, ``superlu``, ``pardiso`` or ``amg`` (see
         :class:`warpwise.fem.solve.SPDFactor`).
     bounds : bool
-        Also solve the Prandtl stress-function problem for a guaranteed lower bound on J
-        (``torsion.J_low``; J itself is the upper bound).
+        Also compute a guaranteed lower bound on J (``torsion.J_low``; J itself is the upper
+        bound): from the equilibrated flux on straight-sided meshes (any materials), from the
+        Prandtl stress function on meshes with curved elements (one material only; none for a
+        composite section there). See :func:`warpwise.properties.bounds.torsion_lower_bound`.
     max_elements : int
         Largest mesh built (``--max-elements``; see :func:`warpwise.mesh.build_mesh`).
 
@@ -367,12 +369,14 @@ def analyse(profile: Profile, mesh_size: float | None = None, *, mesh: Mesh | No
     _check_torsion(tor, integrate(evc, evc.xy[..., 0] ** 2 + evc.xy[..., 1] ** 2, wG),
                    profile.source)
     clock.lap("warping")
-    if bounds and not mats.composite:
-        J_low, _ = prandtl_lower_bound(mesh, evc, K, solver)
-        if not J_low <= tor.J * (1 + 1e-9):
-            raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J {tor.J:.6g})",
-                                file=profile.source)
-        tor = replace(tor, J_low=J_low)
+    if bounds:
+        J_low, how, eta2 = torsion_lower_bound(mesh, evc, weighted.centroid, tor.psi, K, wG,
+                                               solver)
+        if J_low is not None:
+            if not J_low <= tor.J * (1 + 1e-9):
+                raise AnalysisError(f"torsion bounds are inconsistent (J_low {J_low:.6g} > J "
+                                    f"{tor.J:.6g})", file=profile.source)
+            tor = replace(tor, J_low=J_low, J_low_method=how, J_low_indicator=eta2)
         clock.lap("bounds")
     shear = shear_properties(mesh, evc, weighted, factor, mats)
     if not shear.residual < MAX_RESIDUAL:

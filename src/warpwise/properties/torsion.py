@@ -27,6 +27,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..fem.field_max import largest_magnitude
 from ..fem.p2 import ElementValues, assemble_vector, integrate, interpolate
 from ..fem.solve import PinnedSolver
 from ..mesh.core import Mesh
@@ -66,7 +67,7 @@ class TorsionProperties:
         Nodal warping function about the shear centre, zero mean on each part (sectorial
         coordinate), L^2.
     omega_max : float
-        Largest |omega| over the nodes, L^2.
+        Largest |omega| over the section (every element's quadratic, not only the nodes), L^2.
     beta_1, beta_2 : float
         Mono-symmetry (Wagner) constants for bending about principal axes 1 and 2, L:
         beta_1 = int v (u^2 + v^2) dA / I1 - 2 v_s, beta_2 = int u (u^2 + v^2) dA / I2 - 2 u_s,
@@ -74,8 +75,14 @@ class TorsionProperties:
     residual : float
         Backward error of the warping solve.
     J_low : float or None
-        Guaranteed lower bound on J of the meshed domain from the Prandtl stress function
-        (J itself is the upper bound), L^4; None when not computed.
+        Guaranteed lower bound on J of the meshed domain (J itself is the upper bound), L^4;
+        None when not computed.
+    J_low_method : str or None
+        How J_low was found: the equilibrated flux (straight-sided meshes) or the Prandtl stress
+        function (meshes with curved elements); see :mod:`warpwise.properties.bounds`.
+    J_low_indicator : numpy.ndarray or None
+        With the equilibrated flux, the element indicators int_e |sigma - tau_h|^2 / c dA (m,),
+        L^4, whose sum is J - J_low (where the width of the bracket comes from); None otherwise.
     """
 
     J: float
@@ -88,6 +95,8 @@ class TorsionProperties:
     beta_2: float
     residual: float
     J_low: float | None = None
+    J_low_method: str | None = None
+    J_low_indicator: np.ndarray | None = None
 
 
 def torsion_load(mesh: Mesh, evc: ElementValues, weight: np.ndarray | None = None) -> np.ndarray:
@@ -200,8 +209,8 @@ def torsion_properties(
     centre = (geo.centroid[0] + x0, geo.centroid[1] + y0)
     beta_1, beta_2 = wagner_constants(evc, geo, (x0, y0), wE)
     return TorsionProperties(J=J, psi=psi, shear_centre=centre, Cw=Cw, omega=omega,
-                             omega_max=float(np.abs(omega).max()), beta_1=beta_1, beta_2=beta_2,
-                             residual=residual)
+                             omega_max=abs(largest_magnitude(mesh, omega).value), beta_1=beta_1,
+                             beta_2=beta_2, residual=residual)
 
 
 def wagner_constants(evc: ElementValues, geo: GeometricProperties,

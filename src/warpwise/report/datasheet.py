@@ -28,7 +28,6 @@ from .html_parts import (
     footer,
     number_html,
     page,
-    percent,
     safe_name,
     symbol_html,
     unit_html,
@@ -36,7 +35,8 @@ from .html_parts import (
 )
 from .picture_parts import profile_name
 from .plot_svg import outline_svg, torsion_svg, warping_svg
-from .quantities import QUANTITIES, QUANTITY_BY_KEY, error_of, shear_notes, table_shows
+from .property_html import property_table_html
+from .quantities import QUANTITY_BY_KEY, shear_notes
 from .records import Record, record_of
 from .table import corner_note, system_text
 
@@ -50,45 +50,6 @@ PICTURE_SYMBOLS = (
     ("omega", "warping function about the shear centre", "axial displacement w = theta omega; "
      "zero mean over the section", AREA),
 )
-
-
-def _property_rows(result: SectionResult, v: dict[str, float], show: Converter) -> tuple[str, list[str]]:
-    """The grouped property table and the keys shown."""
-    with_errors = result.errors is not None
-    cols = 5 if with_errors else 4
-    rows, shown, group = [], [], None
-    for q in QUANTITIES:
-        value = v[q.key]
-        if not table_shows(v, q.key):
-            continue
-        if q.group != group:
-            if group is not None:
-                rows.append("</tbody>")
-            group = q.group
-            rows.append(f'<tbody><tr><th class="group" colspan="{cols}" scope="rowgroup">'
-                        f"{escape(group)}</th></tr>")
-        shown.append(q.key)
-        cells = [f'<td class="sym">{symbol_html(q.symbol)}</td>', f"<td>{escape(q.label)}</td>",
-                 f'<td class="num">{number_html(value)}</td>',
-                 f'<td class="unit">{unit_html(show.unit(q.dimension))}</td>']
-        if with_errors:
-            err = error_of(result.errors, q.key)
-            cells.append(f'<td class="num">{"" if err is None else percent(err)}</td>')
-        rows.append(f'<tr data-key="{escape(q.key)}">{"".join(cells)}</tr>')
-    if group is not None:
-        rows.append("</tbody>")
-    head = ["Symbol", "Property", "Value", "Unit"] + (["Estimated error"] if with_errors else [])
-    numeric = ' class="num"'
-    thead = "<thead><tr>" + "".join(
-        f'<th scope="col"{numeric if h in ("Value", "Estimated error") else ""}>{h}</th>'
-        for h in head) + "</tr></thead>"
-    note = ""
-    if with_errors:
-        note = ('<p class="meta">Estimated error: relative error of the value shown (shear-centre '
-                "coordinates: relative to the largest dimension of the profile), from the same "
-                "analysis on two finer meshes.</p>")
-    table = f'<table class="properties" id="property-table">{thead}{"".join(rows)}</table>{note}'
-    return table, shown
 
 
 def _key_values(v: dict[str, float], show: Converter) -> str:
@@ -262,7 +223,7 @@ def datasheet_html(result: SectionResult, *, torsion: TorsionStress, nominal_tor
                     + ", ".join(escape(n) for n in result.materials.names))
     layout, width = _layout(result)
     outline = outline_svg(result, width=width, units=u)
-    table, shown = _property_rows(result, v, show)
+    table, shown = property_table_html(v, result.errors, show)
     parts = [
         f'<header><h1>{escape(heading)}</h1><p class="meta">'
         + "".join(f"<span>{m}</span>" for m in meta) + "</p></header>",

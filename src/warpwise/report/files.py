@@ -10,6 +10,7 @@ import csv
 import io
 import json
 import math
+from dataclasses import dataclass
 from typing import Any
 
 from ..errors import AnalysisError, UsageError
@@ -145,14 +146,102 @@ def csv_header(length: str, named: bool = False) -> list[str]:
 
     ``named`` adds the columns of the names and descriptions given to the profiles.
     """
-    names = ["name (text)", "description (text)"] if named else []
-    return ["file", *names, "length unit", *[f"{q.key} ({unit_of(q, length)})" for q in QUANTITIES],
-            "mesh nodes (count)", "mesh elements (count)", "warnings (text)"]
+    return [c.header for c in _base_columns(length, named)]
+
+
+@dataclass(frozen=True)
+class Column:
+    """One column of the property table.
+
+    Attributes
+    ----------
+    name : str
+        What it holds (``A``, ``file``, ``mesh nodes``...).
+    unit : str
+        Its unit (``mm2``, ``-``, ``count``, ``text``; "" where the header has none).
+    kind : str
+        How its cells are written: ``text``, ``number`` (ten significant digits in CSV),
+        ``count``, ``error`` (three), ``short`` (three) or ``formatted`` (text as given).
+    """
+
+    name: str
+    unit: str = ""
+    kind: str = "number"
+
+    @property
+    def header(self) -> str:
+        """The CSV header: the name with its unit in brackets (where it has one)."""
+        return f"{self.name} ({self.unit})" if self.unit else self.name
+
+
+def _base_columns(length: str, named: bool) -> list[Column]:
+    """The columns every table has (and the names, when ``named``)."""
+    names = [Column("name", "text", "text"), Column("description", "text", "text")] if named else []
+    return [Column("file", "", "text"), *names, Column("length unit", "", "text"),
+            *[Column(q.key, unit_of(q, length)) for q in QUANTITIES],
+            Column("mesh nodes", "count", "count"), Column("mesh elements", "count", "count"),
+            Column("warnings", "text", "text")]
 
 
 #: Columns of an adaptive run's outcome, when any profile had a target error.
-TARGET_COLUMNS = ["target error (-)", "error reached (-)", "meshes solved (count)",
-                  "stopped by (text)"]
+_TARGET = [Column("target error", "-", "short"), Column("error reached", "-", "short"),
+           Column("meshes solved", "count", "count"), Column("stopped by", "text", "text")]
+TARGET_COLUMNS = [c.header for c in _TARGET]
+
+
+def property_rows(items: list[SectionResult] | list[Record], units: str | None = None,
+                  extra: tuple[list[str], list[list[str]]] | None = None,
+                  ) -> tuple[list[Column], list[list[Any]]]:
+    """The property table: its columns and one row of raw cells per profile, in one unit.
+
+    Cells are str (text), float (nan: not computed), int (counts) or None (empty); the
+    ``extra`` columns keep their given text. See :func:`csv_text` for the parameters.
+
+    Raises
+    ------
+    UsageError
+        For no profile at all.
+    AnalysisError
+        For a value that is infinite (a sign of bad inputs).
+    """
+    recs = [r if isinstance(r, Record) else record_of(r) for r in items]
+    if not recs:
+        raise UsageError("no profile to write")
+    length = report_units([r.units for r in recs], units)
+    recs = [r.in_units(length) for r in recs]
+    with_errors = any(r.errors is not None for r in recs)
+    named = any(r.name or r.description for r in recs)
+    columns = _base_columns(length, named)
+    if with_errors:
+        columns += [Column(f"{k} est. rel. error", "-", "error") for k in ERROR_KEYS]
+    with_target = any(r.target is not None for r in recs)
+    if with_target:
+        columns += _TARGET
+    if extra:
+        columns += [Column(h, "", "formatted") for h in extra[0]]
+    rows = []
+    for i, r in enumerate(recs):
+        v = r.values
+        for q in QUANTITIES:
+            if abs(v[q.key]) == math.inf:
+                raise AnalysisError(f"{q.key} is not a finite number ({v[q.key]}): check the inputs "
+                                    "it comes from (material values, moduli, loads)", file=r.source)
+        names = [r.name, r.description] if named else []
+        row = [r.source, *names, r.units, *[v[q.key] + 0.0 for q in QUANTITIES],
+               r.nodes, r.elements, "; ".join(r.warnings)]
+        if with_errors:
+            row += [None if r.errors is None else r.errors[k] for k in ERROR_KEYS]
+        if with_target:
+            t = r.target
+            row += [None] * 4 if t is None else [t.target, t.reached, t.meshes, t.stopped]
+        rows.append(row + (extra[1][i] if extra else []))
+    return columns, rows
+
+
+#: CSV text of a cell by its column's kind (None: an empty cell).
+_CSV_CELL = {"text": csv_safe, "formatted": str, "count": str,
+             "number": lambda x: "" if x != x else f"{x:.10g}",
+             "error": lambda x: f"{x:.2e}", "short": lambda x: f"{x:.3g}"}
 
 
 def csv_text(items: list[SectionResult] | list[Record], units: str | None = None,
@@ -173,37 +262,11 @@ def csv_text(items: list[SectionResult] | list[Record], units: str | None = None
 
     A name and a description column follow the file's when any profile has one.
     """
-    recs = [r if isinstance(r, Record) else record_of(r) for r in items]
-    if not recs:
-        raise UsageError("no profile to write")
-    length = report_units([r.units for r in recs], units)
-    recs = [r.in_units(length) for r in recs]
+    columns, rows = property_rows(items, units, extra)
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
-    with_errors = any(r.errors is not None for r in recs)
-    named = any(r.name or r.description for r in recs)
-    header = csv_header(length, named)
-    if with_errors:
-        header += [f"{k} est. rel. error (-)" for k in ERROR_KEYS]
-    with_target = any(r.target is not None for r in recs)
-    if with_target:
-        header += TARGET_COLUMNS
-    w.writerow(header + (extra[0] if extra else []))
-    for i, r in enumerate(recs):
-        v = r.values
-        for q in QUANTITIES:
-            if abs(v[q.key]) == math.inf:
-                raise AnalysisError(f"{q.key} is not a finite number ({v[q.key]}): check the inputs "
-                                    "it comes from (material values, moduli, loads)", file=r.source)
-        names = [csv_safe(r.name), csv_safe(r.description)] if named else []
-        row = [csv_safe(r.source), *names, r.units,
-               *["" if v[q.key] != v[q.key] else f"{v[q.key] + 0.0:.10g}" for q in QUANTITIES],
-               r.nodes, r.elements, csv_safe("; ".join(r.warnings))]
-        if with_errors:
-            row += ["" if r.errors is None else f"{r.errors[k]:.2e}" for k in ERROR_KEYS]
-        if with_target:
-            t = r.target
-            row += ["", "", "", ""] if t is None else \
-                [f"{t.target:.3g}", f"{t.reached:.3g}", t.meshes, t.stopped]
-        w.writerow(row + (extra[1][i] if extra else []))
+    w.writerow([c.header for c in columns])
+    for row in rows:
+        w.writerow(["" if x is None else _CSV_CELL[c.kind](x) for c, x in zip(columns, row,
+                                                                                strict=True)])
     return buf.getvalue()

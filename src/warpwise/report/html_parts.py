@@ -334,11 +334,53 @@ footer { margin-top: 28px; color: var(--muted); font-size: 0.82rem; border-top: 
 a { color: var(--accent); }
 td.failed { color: var(--warn); }
 svg.thumb { width: 56px; height: 40px; display: block; }
+/* the catalogue index: wider than a datasheet, denser, its header in view while scrolling */
+body:has(#catalogue-table) { max-width: 1380px; padding-left: 16px; padding-right: 16px; }
+#catalogue-table { font-size: 0.8rem; }
+#catalogue-table th, #catalogue-table td { padding: 3px 5px; }
+#catalogue-table thead th { position: sticky; top: 0; z-index: 1; background: #fff;
+                            box-shadow: inset 0 -2px 0 var(--ink); white-space: normal; }
+#catalogue-table td:nth-child(2) { overflow-wrap: anywhere; min-width: 9em; }
+@page { size: A4; margin: 10mm 11mm; }
 @media print {
-  html { font-size: 11pt; }
+  /* a datasheet on two A4 pages: the outline, key values and every property on the first;
+     the stress and warping pictures, the glossary, notes and cautions on the second */
+  html { font-size: 7.4pt; line-height: 1.22; }
   body { max-width: none; padding: 0; }
-  h2 { break-after: avoid; }
+  header { padding-bottom: 3px; margin-bottom: 5px; border-bottom-width: 2px; }
+  h1 { font-size: 13pt; margin: 0; }
+  h2 { font-size: 8.5pt; margin: 5px 0 3px; padding-bottom: 1px; break-after: avoid; }
   a { color: inherit; text-decoration: none; }
+  .overview, .overview.stacked { grid-template-columns: minmax(0, 1fr) minmax(0, 1fr); gap: 5mm; }
+  .overview.stacked figure, .overview.stacked > table, .overview.stacked > div { max-width: none; }
+  figure.picture svg, #warping-picture svg { max-height: 54mm; width: auto; max-width: 100%; }
+  #warping-picture { max-width: none; }
+  figcaption { font-size: 6.5pt; margin-top: 1px; }
+  th, td, .key td, .key th { padding: 0.5px 4px; }
+  td.sym { font-size: 7.4pt; }
+  #properties { column-count: 2; column-gap: 6mm; }
+  #property-table { font-size: 6.9pt; }
+  #property-table td, #property-table th { padding: 0 3px; line-height: 1.18; }
+  #properties h2 { column-span: all; }
+  #properties p.meta { column-span: all; }
+  #torsion { break-before: page; }
+  #torsion .overview figure.picture svg { max-height: 36mm; }
+  #warping figure.picture svg { max-height: 30mm; }
+  dl.glossary { display: block; column-count: 4; column-gap: 4mm; font-size: 5.6pt;
+                line-height: 1.1; }
+  dl.glossary dt { display: inline; font-size: 6pt; font-weight: 600; }
+  dl.glossary dt::after { content: " "; }
+  dl.glossary dd { display: inline; margin: 0; }
+  dl.glossary dd::after { content: "\\A"; white-space: pre; }
+  .notes { font-size: 6pt; margin: 0; padding-left: 12px; line-height: 1.15; column-count: 2;
+           column-gap: 6mm; }
+  #torsion-values { font-size: 6.4pt; }
+  #torsion-values td, #torsion-values th { padding: 0 3px; }
+  .notes li { margin-bottom: 0; }
+  .caution { margin-top: 4px; padding: 2px 8px; font-size: 6.2pt; }
+  .caution h2 { font-size: 7pt; margin: 0; }
+  .caution p { margin: 1px 0; }
+  footer { margin-top: 5px; padding-top: 2px; font-size: 6.4pt; }
 }
 """
 

@@ -280,12 +280,28 @@ def check_outputs(outputs: Sequence[Output], inputs: Iterable[str | Path] = ()) 
     _check_distinct(given, inputs)
 
 
+#: Name of the kept staging folder of a resumable run inside an existing target folder.
+KEPT_STAGE = ".warpwise-partial"
+
+
+def stage_path(target: str | Path) -> Path:
+    """The staging folder a resumable run keeps for ``target``.
+
+    Inside ``target`` when it is a folder (so the pages move on one file system), else beside it
+    (``.NAME.partial``).
+    """
+    real = Path(os.path.realpath(target))
+    return real / KEPT_STAGE if real.is_dir() else real.parent / f".{real.name}.partial"
+
+
 @contextmanager
-def staged_folder(target: str | Path | None) -> Iterator[Path | None]:
+def staged_folder(target: str | Path | None, keep: bool = False) -> Iterator[Path | None]:
     """A hidden staging folder for the pages of the folder ``target``, removed at the end.
 
     Inside ``target`` when it exists, else beside it; :func:`publish_folder` moves the pages
-    into place. Whatever is left (an interruption, an error) is removed when the block ends.
+    into place. Whatever is left (an interruption, an error) is removed when the block ends,
+    unless ``keep``: the folder is then :func:`stage_path` (the same for every run), an earlier
+    run's pages in it are kept for a run that resumes, and an interruption leaves it.
     ``target`` None yields None.
     """
     if target is None:
@@ -293,14 +309,24 @@ def staged_folder(target: str | Path | None) -> Iterator[Path | None]:
         return
     real = Path(os.path.realpath(target))
     try:
-        stage = Path(tempfile.mkdtemp(prefix=".warpwise-partial-", dir=real) if real.is_dir() else
-                     tempfile.mkdtemp(prefix=f".{real.name}.partial-", dir=real.parent))
+        if keep:
+            stage = stage_path(target)
+            stage.mkdir(mode=0o700, exist_ok=True)
+            if stage.is_symlink() or not stage.is_dir():
+                raise UsageError("is in the way of the staging folder of this run",
+                                 file=str(stage))
+        else:
+            stage = Path(tempfile.mkdtemp(prefix=".warpwise-partial-", dir=real) if real.is_dir()
+                         else tempfile.mkdtemp(prefix=f".{real.name}.partial-", dir=real.parent))
     except OSError as exc:
         raise UsageError(f"cannot write here ({exc.strerror})", file=str(target)) from None
     try:
         yield stage
-    finally:
-        shutil.rmtree(stage, ignore_errors=True)
+    except BaseException:
+        if not keep or not any(stage.iterdir()):  # a kept stage is kept with something in it
+            shutil.rmtree(stage, ignore_errors=True)
+        raise
+    shutil.rmtree(stage, ignore_errors=True)
 
 
 def publish_folder(stage: Path, target: str | Path, last: str = "index.html") -> None:

@@ -138,8 +138,11 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
     "Torsion and warping": (
         ("J", "J", "Saint-Venant torsion constant", 4,
          "Ix + Iy - integral of (y dpsi/dx - x dpsi/dy) dA; T = G J theta"),
-        ("J_low", "J_low", "guaranteed lower bound on J (stress function)", 4,
-         "2 int phi dA + 2 sum c_k A_k, Prandtl phi on the same mesh; J_low <= J(exact) <= J"),
+        ("J_low", "J_low", "guaranteed lower bound on J", 4,
+         "-int (2 sigma . (y, -x) + |sigma|^2 / c) dA, sigma the equilibrated flux of the "
+         "warping stress (straight-sided meshes, c = G / G_ref); 2 int phi dA + 2 sum c_k A_k, "
+         "Prandtl phi, on meshes with curved elements (one material); same mesh, "
+         "J_low <= J(exact) <= J"),
         ("Wt", "Wt", "torsional section modulus", 3,
          "T / tau_max, tau_max of the Saint-Venant stress field away from sharp re-entrant corners"),
         ("r_corner", "r,corner", "radius left out around sharp re-entrant corners", 1,

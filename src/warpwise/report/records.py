@@ -84,6 +84,12 @@ class Record:
         return (*self.notes, *self.material_notes, *shear_notes(self.values), *target,
                 *(corner_note(c, self.units) for c in self.corners))
 
+    def _repr_html_(self) -> str:
+        """Jupyter's view: the property table (:mod:`warpwise.report.notebook`)."""
+        from .notebook import record_html
+
+        return record_html(self)
+
     @property
     def target_missed(self) -> bool:
         """True when a target error was asked for and not met."""

@@ -1,0 +1,1 @@
+"""Equilibrated flux reconstruction (Raviart-Thomas RT2 on vertex patches)."""
