@@ -363,7 +363,7 @@ def test_hexagon_cw_meets_the_accuracy_target():
 
     p = hexagon(24.0)
     # DESIGN.md target: Cw within 0.1% of the converged value at the default mesh; reference
-    # from refine=8. Measured -7.9e-4 with the mesh graded towards the 120 degree corners
+    # from refine=8. Measured -7.2e-4 with the mesh graded towards the 120 degree corners
     # (+1.1e-2 on a uniform mesh: the warping function goes as r^1.5 there)
     coarse, fine = analyse(p).torsion.Cw, analyse(p, refine=8).torsion.Cw
     assert abs(coarse / fine - 1) <= 1e-3

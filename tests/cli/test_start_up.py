@@ -69,11 +69,10 @@ def bar(tmp_path):
     return path
 
 
-# (the key bar's chamfers are graded from a boundary point that is there twice: for a tie the
-# k-d tree is asked, so that its mesh stays the one it was, and scipy.spatial is loaded)
-@pytest.mark.parametrize("outline", ["bar", "filleted", "sharp-corners"])
+# (the key bar's obtuse chamfer corners are graded from h, with no nearest-point search)
+@pytest.mark.parametrize("outline", ["bar", "key-bar", "filleted", "sharp-corners"])
 def test_props_on_an_outline_loads_only_the_analysis(outline, tee, bar):
-    outline = {"bar": bar, "filleted": CHANNEL, "sharp-corners": tee}[outline]
+    outline = {"bar": bar, "key-bar": KEY_BAR, "filleted": CHANNEL, "sharp-corners": tee}[outline]
     names = loaded("props", outline)
     assert "warpwise.properties.analysis" in names and "meshpy" in names
     for package in NOT_FOR_AN_OUTLINE:

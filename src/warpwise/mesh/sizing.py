@@ -19,8 +19,8 @@ ELEMENTS_ACROSS_WALL = 2.5
 #: Element size at a sharp re-entrant corner, as a fraction of the local size there.
 CORNER_SIZE_FACTOR = 0.05
 #: Element size at an obtuse convex corner (geometry.corners.OBTUSE_RANGE_DEG), as a fraction of
-#: the local size there. Measured at the default mesh against refine 8, Cw of a 24 mm hexagon
-#: bar: -1.1e-3 (0.2), -7.9e-4 (0.15, 1181 nodes), -9.4e-4 (0.1), +1.1e-2 ungraded; of a 24 mm
+#: the largest size h. Measured at the default mesh against refine 8, Cw of a 24 mm hexagon
+#: bar: -1.1e-3 (0.2), -7.2e-4 (0.15, 1189 nodes), -9.4e-4 (0.1), +1.1e-2 ungraded; of a 24 mm
 #: octagon: -1.7e-3 (0.2, 0.15), -1.5e-3 (0.1), +1.8e-2 ungraded (what is left there is the
 #: interior's resolution, not the corners').
 OBTUSE_SIZE_FACTOR = 0.15

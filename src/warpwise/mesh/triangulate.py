@@ -86,17 +86,20 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
                          f"{_LIMIT_ADVICE}; --max-elements N lifts the limit", file=full.source)
 
 
-def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float,
-            h: float) -> tuple[np.ndarray, np.ndarray]:
+def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float, h: float,
+            local: bool = True) -> tuple[np.ndarray, np.ndarray]:
     """Boundary points graded towards ``corners``.
 
-    The size at each corner is ``size / h`` times the local size there (the wall thickness or
-    h), growing by :data:`CORNER_GRADING` with distance.
+    The size at each corner is ``size / h`` times the local size there (the length of the
+    boundary segment starting nearest it: the wall thickness or h), or ``size`` itself when
+    not ``local``; it grows by :data:`CORNER_GRADING` with distance.
     """
     cxy = np.array([(c.x, c.y) for c in corners])
-    near = nearest_index(pts[sub[:, 0]], cxy)  # the segment starting nearest each corner
-    local = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
-    return grade_to_corners(pts, sub, cxy, size / h * local, CORNER_GRADING)
+    there = np.full(len(cxy), h)
+    if local:
+        near = nearest_index(pts[sub[:, 0]], cxy)  # the segment starting nearest each corner
+        there = np.minimum(h, np.linalg.norm(pts[sub[near, 1]] - pts[sub[near, 0]], axis=1))
+    return grade_to_corners(pts, sub, cxy, size / h * there, CORNER_GRADING)
 
 
 def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
@@ -123,9 +126,12 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     obtuse = obtuse_corners(full)
     # the corner size shrinks faster than h under refinement (as h^2), which keeps the
     # convergence rate of J above the uniform-grading limit h^(4/3) of a 270 degree corner
-    for found, factor in ((obtuse, OBTUSE_SIZE_FACTOR), (corners, CORNER_SIZE_FACTOR)):
-        if found:
-            pts, sub = _graded(pts, sub, found, factor * h / refine_level, h)
+    # an obtuse corner's size is a fraction of h (they matter in compact bars, where the local
+    # size is h, and the nearest-segment search is left to the sharp corners)
+    if obtuse:
+        pts, sub = _graded(pts, sub, obtuse, OBTUSE_SIZE_FACTOR * h / refine_level, h, False)
+    if corners:
+        pts, sub = _graded(pts, sub, corners, CORNER_SIZE_FACTOR * h / refine_level, h)
     check_mesh_budget(len(pts), len(corners) + len(obtuse), part, full, h, max_elements)
     info = triangle.MeshInfo()
     info.set_points(pts)
