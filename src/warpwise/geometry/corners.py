@@ -119,8 +119,7 @@ def reentrant_corners(profile: Profile, sharp_deg: float = SHARP_ANGLE_DEG, *,
                       measure: bool = True) -> list[Corner]:
     """Corners of the material outline with an interior angle above ``sharp_deg``.
 
-    Interfaces between materials are not free boundaries and are not searched; vertices of the
-    polygon approximating a recorded arc (strictly inside its sweep) are not corners.
+    Found by :func:`outline_corners` (free boundaries only, recorded arcs' vertices left out).
 
     Parameters
     ----------
