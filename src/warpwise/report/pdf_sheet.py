@@ -15,6 +15,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..geometry.loops import signed_area
 from ..units import LENGTH, convert, system
 from .html_parts import CAUTIONS
 from .quantities import QUANTITY_BY_KEY, unit_of
@@ -118,8 +119,7 @@ def _region_path(loops: Sequence[np.ndarray]):
 
     verts, codes = [], []
     for k, p in enumerate(loops):
-        area = 0.5 * float(np.sum(p[:, 0] * np.roll(p[:, 1], -1) - np.roll(p[:, 0], -1) * p[:, 1]))
-        p = p if (area > 0) == (k == 0) else p[::-1]
+        p = p if (signed_area(p) > 0) == (k == 0) else p[::-1]
         verts += [*p.tolist(), p[0].tolist()]
         codes += [MplPath.MOVETO] + [MplPath.LINETO] * (len(p) - 1) + [MplPath.CLOSEPOLY]
     return MplPath(verts, codes)
