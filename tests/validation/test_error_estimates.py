@@ -10,17 +10,12 @@ What the estimate can and cannot see (decides which shapes are meaningful):
 - It measures the discretisation error on the meshed outline. On straight-sided polygons
   (rectangles, the equilateral triangle) the meshed outline is the profile, so the closed form
   is the exact reference and the error is pure discretisation error: the main checks.
-- The ellipse is a 256-gon. At every mesh the estimate uses, no boundary chord is split, and then
-  the quadratic warping function -k x y is the exact discrete solution on the polygon (P2
-  contains it; see test_torsion_closed_forms): J_h is the closed form applied to the polygon,
-  rho_N J, to round-off, and all three meshes agree. Both errors are round-off: "converged".
-  The 2e-4 by which the 256-gon falls short of the true ellipse is the user's geometry, not a
-  discretisation error, and is rightly not part of the estimate.
-- The tube (curved element edges) has psi = 0, so J_h is Ip of the meshed domain, short of the
-  circle by (pi / N)^4 / 15 = 1.5e-9 at N = 256 chords (see test_torsion_closed_forms). No mesh
-  of the estimate splits a chord, so the estimate sees no change (1e-15); the true error is the
-  fixed 1.5e-9 geometry floor: both "converged". The same blind spot at a visible size (64
-  chords, draft) is recorded as an expected failure below.
+- The ellipse drawn as 256 chords is 2e-4 short of the true ellipse; the estimate measures the
+  meshed polygon, not what the user meant by it (expected failure until ellipses are recorded).
+- The tube follows its circles with curved element edges; psi = 0, so J_h is Ip of the meshed
+  domain, short of the circle by (pi / n)^4 / 15 for n curved edges per circle. The estimate
+  measures those edges against the circles on every mesh (warpwise.properties.geometry_error)
+  and so sees that deficit, which no interior refinement changes.
 
 "Converged": where both the true and the estimated error are below CONVERGED = 2e-9 the pair is
 accepted without a ratio (round-off is 1e-15 ... 1e-13 here; the largest geometry floor is the
@@ -34,6 +29,7 @@ errs on the safe side where it errs at all.
 import numpy as np
 import pytest
 
+from support.warping_series import series_omega_max
 from warpwise.geometry.shapes import ellipse, polygon, rectangle, tube
 from warpwise.properties.accuracy import ACCURACY_LEVELS, estimate_errors
 
@@ -108,42 +104,6 @@ def triangle_J_Cw(side: float) -> tuple[float, float]:
     return np.sqrt(3.0) * side**4 / 80.0, np.sqrt(3.0) * side**6 / 40320.0
 
 
-def regular_polygon_factor(segments: int) -> float:
-    """Ratio of Ix (= Iy) of the inscribed regular N-gon to that of its circle.
-
-    N R^4 sin(t) (2 + cos t) / 24 against pi R^4 / 4, t = 2 pi / N (sum over the N triangles
-    from the centre; common practice, no source; as in test_torsion_closed_forms). The ellipse
-    polygon is the affine image of the N-gon, so Ix, Iy and, with the exact discrete psi = -k x y,
-    J = (1 - k^2)(Ix + Iy) all scale by this ratio.
-    """
-    t = 2.0 * np.pi / segments
-    return segments * np.sin(t) * (2.0 + np.cos(t)) / (6.0 * np.pi)
-
-
-def regular_polygon_x2y2(segments: int) -> float:
-    """int X^2 Y^2 dA over the regular N-gon of unit circumradius (N not dividing 4).
-
-    The fourth moments are isotropic, int r^4 = 8 int X^2 Y^2, and int r^4 dA over the N
-    triangles is N p^6 / 6 * int sec^6 over |phi| < pi / N, p = cos(pi / N) (common practice, no
-    source; as in test_shear_centre_warping).
-    """
-    p, t = np.cos(np.pi / segments), np.tan(np.pi / segments)
-    return segments * p**6 * (t + 2 * t**3 / 3 + t**5 / 5) / 24.0
-
-
-def ellipse_J_Cw(a: float, b: float, segments: int) -> tuple[float, float]:
-    """J and Cw of the N-gon inscribed in the ellipse (vertices at equal parameter steps).
-
-    Timoshenko & Goodier, 3rd ed., ch. 10, "Elliptic Cross Section" (from memory):
-    J = pi a^3 b^3 / (a^2 + b^2) and psi = -k x y, k = (a^2 - b^2) / (a^2 + b^2), so
-    Cw = k^2 int x^2 y^2 dA; on the polygon (where -k x y is the exact discrete solution while
-    no chord is split) J -> rho_N J and int x^2 y^2 dA = a^3 b^3 int X^2 Y^2 dA(N-gon).
-    """
-    k = (a * a - b * b) / (a * a + b * b)
-    J = np.pi * a**3 * b**3 / (a * a + b * b) * regular_polygon_factor(segments)
-    return float(J), float(k * k * a**3 * b**3 * regular_polygon_x2y2(segments))
-
-
 def true_errors(estimate, exact: dict[str, float], size: float) -> dict[str, float]:
     """True relative errors of the reported values, scaled as the estimator scales them.
 
@@ -215,40 +175,75 @@ def test_equilateral_triangle_estimates(level):
     assert seen["xs"][0] > 1e-9  # a real error, the ratio rule applied
 
 
-# Measured: estimated J error 8e-15 ... 1.4e-14, Cw 1.4e-14 ... 4.2e-14; true errors against
-# the polygon's closed form of the same order; all converged. The first meshes (2665, 2801,
-# 3617 nodes) keep all 256 chords unsplit, which is what makes -k x y exact (were a chord
-# split, J would move by about 1e-7 and the 1e-12 check below would fail).
+# The ellipse against Saint-Venant's closed form (Timoshenko & Goodier, 3rd ed., ch. 10,
+# "Elliptic Cross Section", from memory): J = pi a^3 b^3 / (a^2 + b^2). Drawn as a polygon of
+# 256 chords the section is 2e-4 short of the ellipse and no estimate can know it; the boundary
+# split with the refinement moved J by 1.1e-6 (the polygon's own discretisation error, which
+# the estimate does see).
+@pytest.mark.xfail(strict=True, reason="defect: elliptical outlines are chords (2e-4 of J), "
+                   "not recorded curves the estimate can measure against")
 @pytest.mark.parametrize("level", list(ACCURACY_LEVELS))
-def test_ellipse_estimates_converged(level):
-    a, b, segments = 20.0, 10.0, 256
-    est = estimate_errors(ellipse(a, b, segments=segments), refine=ACCURACY_LEVELS[level])
-    J, Cw = ellipse_J_Cw(a, b, segments)
-    seen = check_honest(est, {"J": J, "Cw": Cw, "xs": 0.0, "ys": 0.0}, 2 * a)
-    assert all(t < 1e-12 and e < 1e-12 for t, e in seen.values()), seen
+def test_ellipse_estimates(level):
+    a, b = 20.0, 10.0
+    est = estimate_errors(ellipse(a, b), refine=ACCURACY_LEVELS[level])
+    J = np.pi * a**3 * b**3 / (a * a + b * b)
+    seen = check_honest(est, {"J": J, "xs": 0.0, "ys": 0.0}, 2 * a)
+    assert seen["J"][0] > 1e-9  # resolvable: the ratio rule was applied
 
 
-# Measured: estimated J error 2e-16 ... 2e-15, true 1.512e-9 at every setting (the fixed
-# curved-edge floor (pi / 256)^4 / 15); Cw about 5e-25 (round-off of zero). Converged.
+# Measured: true J error 1.512e-9 at draft and normal (the curved-edge floor (pi / 256)^4 / 15,
+# every chord one curved edge), 9.45e-11 at fine (each chord split in two: the floor / 16);
+# the estimate, which measures the curved edges against the circles on each mesh
+# (warpwise.properties.geometry_error), gives 1.512e-9 (1.00), 1.512e-9 (1.00) and
+# 9.45e-11 (1.00): the three meshes' corrected J agree to round-off. Cw about 5e-25 (round-off of
+# zero) and the shear centre (round-off): converged.
 @pytest.mark.parametrize("level", list(ACCURACY_LEVELS))
-def test_tube_estimates_converged(level):
+def test_tube_estimates_see_the_curved_edges(level):
     D, d, segments = 40.0, 30.0, 256
     est = estimate_errors(tube(D, d, segments=segments), refine=ACCURACY_LEVELS[level])
     J = np.pi * (D**4 - d**4) / 32.0  # Roark, torsion table, hollow concentric circle (from memory)
     seen = check_honest(est, {"J": J, "Cw": 0.0, "xs": 0.0, "ys": 0.0}, D)
-    floor = (np.pi / segments) ** 4 / 15.0
-    # the true J error is the geometry floor and nothing else (psi = 0 on a tube)
+    # psi = 0 on a tube, so the true J error is the curved-edge deficit of Ip and nothing else:
+    # (pi / n)^4 / 15 for n curved edges per circle (test_torsion_closed_forms); the boundary is
+    # split with the refinement factor, so fine has twice the chords' edges
+    pieces = max(1, round(ACCURACY_LEVELS[level]))
+    floor = (np.pi / (segments * pieces)) ** 4 / 15.0
     assert seen["J"][0] == pytest.approx(floor, rel=1e-3)
+    # the estimate sees it although no interior refinement could (factor 3 rule: check_honest)
+    assert est.relative_error["J"] == pytest.approx(floor, rel=1e-2)
 
 
-@pytest.mark.xfail(strict=True, reason="the Richardson estimate cannot see the curved-edge "
-                   "approximation error when no mesh of the estimate splits a boundary chord")
 def test_estimate_sees_curved_edge_error():
     # Tube with 64 chords per circle at draft: the three estimate meshes (refine 0.5, 0.71, 1)
-    # all keep every chord as one curved edge, so J is identical on all three and the estimate
-    # is 1.7e-16, while the true error (the curved-edge deficit, psi = 0) is 3.87e-7. At normal
-    # the chords are split within the estimate and it becomes honest again (3.6e-7 against
-    # 3.9e-7). Reference: Roark, hollow concentric circle (from memory).
+    # all keep every chord as one curved edge, so J is the same on all three; the true error
+    # (the curved-edge deficit, psi = 0) is 3.87e-7, and the estimate finds it by measuring the
+    # edges against the circles (before this measure it was 1.7e-16). Reference: Roark, hollow
+    # concentric circle (from memory).
     D, d = 40.0, 30.0
     est = estimate_errors(tube(D, d, segments=64), refine=ACCURACY_LEVELS["draft"])
-    check_honest(est, {"J": np.pi * (D**4 - d**4) / 32.0}, D)
+    seen = check_honest(est, {"J": np.pi * (D**4 - d**4) / 32.0}, D)
+    assert seen["J"][0] > 1e-7  # resolvable: the ratio rule was applied
+
+
+# omega_max, the largest |omega| over the elements, against the rectangle's series
+# (tests/support/warping_series.py: Timoshenko & Goodier). Measured true / estimated (draft,
+# normal, fine): 1:1 0.87 0.74 0.73 (true 4.1e-2, 1.5e-3, 2.6e-4), 2:1 0.46 0.57 1.92 (true
+# 1.4e-3, 4.3e-4, 3.8e-5), 5:1 0.65 0.21 0.66 (true 5.1e-3, 1.3e-3, 1.6e-4). A largest value
+# converges irregularly (its place moves between elements), so the three values are mostly not
+# monotone and the estimate is their spread; on the 5:1 bar at normal that spread is 4.8 times
+# the true error (an over-estimate: safe, but beyond the factor 3).
+OMEGA_CASES = [(ratio, level) for ratio in (1, 2, 5) for level in ACCURACY_LEVELS]
+
+
+@pytest.mark.parametrize("ratio, level", [
+    pytest.param(r, lv, marks=pytest.mark.xfail(
+        strict=True, reason="defect: omega_max of the 5:1 bar over-estimated 4.8 times at normal "
+                            "(irregular convergence of a largest value)"))
+    if (r, lv) == (5, "normal") else (r, lv) for r, lv in OMEGA_CASES])
+def test_omega_max_estimates(ratio, level):
+    bx, by = ratio * 2 * SIDE, 2 * SIDE
+    est = estimate_errors(rectangle(bx, by), refine=ACCURACY_LEVELS[level])
+    true = abs(est.result.torsion.omega_max / series_omega_max(bx / 2, by / 2) - 1.0)
+    e = est.relative_error["omega_max"]
+    assert true > 1e-6  # resolvable: the ratio rule applies
+    assert 1.0 / FACTOR <= true / e <= FACTOR, (true, e, est.nodes)

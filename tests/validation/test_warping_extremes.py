@@ -1,15 +1,7 @@
 """Largest sectorial coordinate omega_max against the series of the rectangle's warping.
 
-For a rectangle -a <= x <= a, -b <= y <= b (shear centre at the centroid, so omega = psi):
-
-    psi(x, y) = x y - (32 a^2 / pi^3) sum_{n odd} (-1)^((n-1)/2) sin(k x) sinh(k y)
-                                                   / (n^3 cosh(k b)),     k = n pi / (2 a)
-
-(Timoshenko & Goodier, Theory of Elasticity, torsion of a rectangular bar; the form here was
-checked against both boundary conditions: on x = +-a the series' x-derivative vanishes, on
-y = +-b the series' y-derivative is the sine series of 2x). psi is harmonic, so its largest
-magnitude is on the boundary, where it is sampled at 40,001 points with 2,000 terms (series
-error < 1e-9 relative).
+The series and its largest magnitude: tests/support/warping_series.py (Timoshenko & Goodier,
+Theory of Elasticity, torsion of a rectangular bar).
 
 The reported omega_max is the largest magnitude over the elements (their quadratics), not only
 at the nodes. Measured at the default mesh: +4.3e-4 (2:1) and +1.46e-3 (square, 465 nodes)
@@ -19,27 +11,11 @@ target), which the square misses until the default sizing gives compact bars mor
 bound 1e-4 until the sizing reaches it.
 """
 
-import numpy as np
 import pytest
 
+from support.warping_series import series_omega_max
 from warpwise.geometry.shapes import rectangle
 from warpwise.properties.analysis import analyse
-
-
-def series_omega_max(a: float, b: float, terms: int = 2000) -> float:
-    """Largest |psi| of the rectangle 2a x 2b from the series, on its boundary, L^2."""
-    n = np.arange(1, 2 * terms, 2)[:, None]
-    k = n * np.pi / (2 * a)
-
-    def psi(x, y):
-        # sinh(k y) / cosh(k b) written without overflow
-        ratio = (np.exp(k * (y - b)) - np.exp(-k * (y + b))) / (1 + np.exp(-2 * k * b))
-        s = ((-1.0) ** ((n - 1) // 2) / n**3 * np.sin(k * x) * ratio).sum(axis=0)
-        return x * y - 32 * a * a / np.pi**3 * s
-
-    t = np.linspace(-1.0, 1.0, 20001)
-    edges = np.concatenate([psi(a * t, np.full_like(t, b)), psi(np.full_like(t, a), b * t)])
-    return float(np.abs(edges).max())
 
 
 @pytest.mark.parametrize("a, b", [

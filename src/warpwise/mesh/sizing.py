@@ -137,11 +137,42 @@ def wall_thickness(profile: Profile, a: np.ndarray, b: np.ndarray, seg_a: np.nda
     return thickness
 
 
-def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Split each segment into ceil(length/target) equal pieces; return points and segments."""
+def piece_counts(n: int, per_segment: float) -> np.ndarray:
+    """Whole numbers of pieces for ``n`` segments averaging ``per_segment`` (at least 1 each).
+
+    The running count is rounded, so 2 gives 2 everywhere and sqrt(2) alternates 1 and 2
+    (1.41 on average), and a refinement by any factor multiplies the boundary points by it.
+
+    Examples
+    --------
+    >>> piece_counts(5, 1.5).tolist()
+    [2, 1, 2, 1, 2]
+    """
+    if per_segment <= 1.0:
+        return np.ones(n, dtype=np.int64)
+    running = np.floor(per_segment * np.arange(n + 1) + 0.5).astype(np.int64)
+    return np.maximum(np.diff(running), 1)
+
+
+def split_segments(p: np.ndarray, seg: np.ndarray, target: np.ndarray,
+                   at_least: float = 1.0) -> tuple[np.ndarray, np.ndarray]:
+    """Split each segment into ceil(length/target) equal pieces; return points and segments.
+
+    Parameters
+    ----------
+    p, seg : numpy.ndarray
+        Points (p, 2), drawing unit, and segments (s, 2) between them.
+    target : numpy.ndarray or float
+        Largest piece length per segment, drawing unit.
+    at_least : float
+        Pieces per segment on average at the least (:func:`piece_counts`): the refinement
+        factor, so that a boundary already denser than the target (arcs drawn as chords, a
+        many-vertex polygon) is refined with the rest of the mesh.
+    """
     a, b = p[seg[:, 0]], p[seg[:, 1]]
     length = np.linalg.norm(b - a, axis=1)
-    pieces = np.maximum(1, np.ceil(length / target - 1e-9)).astype(np.int64)
+    pieces = np.maximum(piece_counts(len(seg), at_least),
+                        np.ceil(length / target - 1e-9).astype(np.int64))
     n_new = pieces - 1
     owner = np.repeat(np.arange(len(seg)), n_new)
     offset = np.arange(n_new.sum()) - np.repeat(np.cumsum(n_new) - n_new, n_new)

@@ -117,7 +117,9 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     t1 = np.maximum(wall_thickness(full, vertices[seg[:, 0]], vertices[seg[:, 1]], seg_a, seg_b,
                                    reach), floor * across)
     check_boundary_budget(vertices, seg, np.minimum(h, t1 / across), full)
-    pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across))
+    # under refinement every drawn segment is split at least by the refinement factor, so a
+    # boundary denser than the target (arcs as chords) is refined with the interior
+    pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across), refine_level)
     t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b, reach),
                     floor * across)
     check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)

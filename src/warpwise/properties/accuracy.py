@@ -6,6 +6,13 @@ convergence rate of each quantity from the three values and extrapolates. The es
 that of the value reported at the first mesh (the one shown in the table), relative to the
 extrapolated value; coordinates (shear centre) are taken relative to the profile's size.
 
+Under refinement the boundary is split with the interior (every drawn segment into about as
+many pieces as the refinement factor), so a dense boundary is refined too. Where the outline
+follows recorded arcs, the part of the error that the curved element edges owe to the true
+curves is measured directly on each mesh (:mod:`warpwise.properties.geometry_error`) and
+removed before extrapolating, so that the estimate includes it even where no boundary edge is
+split (the draft setting, a boundary already finer than the mesh).
+
 Examples
 --------
 >>> ACCURACY_LEVELS["normal"]
@@ -23,6 +30,7 @@ from ..errors import UsageError
 from ..geometry.profile import Profile
 from ..mesh.core import MAX_ELEMENTS
 from .analysis import SectionResult, analyse
+from .geometry_error import outline_corrections
 from .shear import DEFAULT_POISSON
 
 #: Refinement factor of each accuracy setting (divides every local element size).
@@ -48,6 +56,7 @@ ESTIMATED: dict[str, tuple[Callable[[SectionResult], float], tuple[str, ...], bo
     "Cw": (lambda r: r.torsion.Cw, ("Cw",), False),
     "Wt": (lambda r: float("nan") if r.torsion_modulus is None else r.torsion_modulus.Wt,
            ("Wt",), False),
+    "omega_max": (lambda r: r.torsion.omega_max, ("omega_max",), False),
     "xs": (lambda r: r.torsion.shear_centre[0], ("xs",), True),
     "ys": (lambda r: r.torsion.shear_centre[1], ("ys",), True),
     "Wel_x": (lambda r: r.geometric.Wel["x"], ("Wel_x_top", "Wel_x_bottom"), False),
@@ -66,9 +75,31 @@ ERROR_OF_QUANTITY: dict[str, str] = {q: k for k, (_, covered, _) in ESTIMATED.it
                                      for q in covered}
 
 
+#: Estimated value -> the second moment whose outline correction scales it (section moduli are
+#: I / c with c taken from the true curves already).
+_SCALED_BY = {"Wel_x": "Ix", "Wel_y": "Iy", "Wel_1": "I1", "Wel_2": "I2"}
+
+
 def _quantities(r: SectionResult) -> dict[str, float]:
-    """The values whose error is estimated."""
-    return {key: float(read(r)) for key, (read, _, _) in ESTIMATED.items()}
+    """The values whose error is estimated, corrected to first order for the meshed outline.
+
+    Where the outline follows recorded arcs, J and the section moduli get the first-order
+    change from the curved element edges to the true curves
+    (:func:`warpwise.properties.geometry_error.outline_corrections`), so that the estimate
+    sees that part of the error however the boundary is refined; the other values keep it in
+    their refinement.
+    """
+    q = {key: float(read(r)) for key, (read, _, _) in ESTIMATED.items()}
+    if not r.profile.arcs:
+        return q
+    d = outline_corrections(r)
+    q["J"] += d["J"]
+    geo = r.geometric
+    second = {"Ix": geo.Ix, "Iy": geo.Iy, "I1": geo.I1, "I2": geo.I2}
+    for key, moment in _SCALED_BY.items():
+        if second[moment] > 0:
+            q[key] *= 1.0 + d[moment] / second[moment]
+    return q
 
 
 @dataclass(frozen=True, eq=False)
@@ -163,21 +194,29 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
     rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson, solver=solver,
                     max_elements=max_elements) for k in (1, 2)]
     qs = [_quantities(r) for r in (first, *rest)]
+    reported = {key: float(read(first)) for key, (read, _, _) in ESTIMATED.items()}
     size = profile.size
     rel, rate, extra = {}, {}, {}
     for key in qs[0]:
         q1, q2, q3 = (q[key] for q in qs)
         value, p = richardson(q1, q2, q3, STEP)
+        shown = reported[key]  # the error is that of the value shown, outline part included
         if np.isnan(p):
             # not monotone: the spread of the three values is the honest statement
-            err = max(abs(q1 - q2), abs(q1 - q3))
+            err = max(abs(shown - q1), abs(shown - q2), abs(shown - q3))
         else:
-            err = abs(q1 - value)
+            err = abs(shown - value)
         scale = size if ESTIMATED[key][2] else max(abs(value), 1e-300)
         if key == "Cw":
             # a warping constant near zero (closed and round sections) is judged against the
             # natural scale Ip * size^2 rather than against itself
             scale = max(scale, 1e-6 * first.geometric.Ip * size**2)
+        elif key == "omega_max":
+            # likewise omega_max, against the omega whose square over the area is that Cw
+            # floor: 1e-3 size sqrt(Ip / A) (zero on a tube, where a mesh that is not quite
+            # symmetric leaves 1e-10 size^2)
+            geo = first.geometric
+            scale = max(scale, 1e-3 * size * np.sqrt(geo.Ip / geo.A))
         rel[key], rate[key], extra[key] = err / scale, p, value
     first = replace(first, errors=rel)
     return ErrorEstimate(first, rel, rate, extra, tuple(r.mesh.n_nodes for r in (first, *rest)))

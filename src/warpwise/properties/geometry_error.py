@@ -1,0 +1,185 @@
+"""The error a result owes to its meshed outline: curved element edges against the true curves.
+
+Where the outline follows a recorded arc, each boundary element edge is the quadratic through
+three points of the arc: between them it lies a little inside or outside the true curve. The
+mesh then describes a slightly different section, and no refinement of the interior sees that
+difference. This module measures it: Gauss points along every such edge, the offset dn of the
+true curve from the edge along the edge's outward normal (positive where the true section has
+material the mesh lacks), and the first-order change of each value when the boundary moves by
+dn (the shape derivative):
+
+- an area integral int f dA changes by the boundary integral of f dn;
+- J = min over psi of int |grad psi - p|^2 dA, p = (y, -x) about the centroid, is an energy
+  minimum with a natural boundary condition, so it changes by the boundary integral of
+  |grad psi - p|^2 dn, the squared shear stress per unit twist (Hadamard's formula for
+  Neumann problems; common practice, no source); the element shear-modulus ratios weight it
+  in a composite section.
+
+Values with no such simple boundary form (Cw, the shear centre, the shear areas) get no term:
+their outline error is left to the refinement, which splits boundary edges with the rest.
+Interfaces between materials on an arc get no term either (they move material from one region
+to the other rather than add or remove it).
+
+Examples
+--------
+>>> from warpwise.geometry.shapes import tube
+>>> from warpwise.properties.analysis import analyse
+>>> res = analyse(tube(40.0, 30.0, segments=64))
+>>> d = outline_corrections(res)
+>>> exact = 3.141592653589793 * (40.0**4 - 30.0**4) / 32.0  # Ip of the true tube
+>>> bool(abs(res.torsion.J + d["J"] - exact) < 1e-4 * abs(res.torsion.J - exact))
+True
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..fem.p2 import shape_functions
+from ..fem.points import Located, gradient_at
+from ..geometry.profile import Arc
+from ..mesh.core import Mesh
+from ..mesh.edges import LOCAL_EDGES
+
+#: Gauss-Legendre points along each curved boundary edge (the offset is a smooth quartic-like
+#: sliver; 6 points integrate its products with the quadratic fields to round-off).
+EDGE_POINTS = 6
+#: A node is on an arc when its distance from the circle is below this fraction of the radius.
+ON_CURVE = 1e-9
+
+
+@dataclass(frozen=True, eq=False)
+class OutlineOffsets:
+    """Points along the curved boundary edges and how far the true curve is from them.
+
+    Attributes
+    ----------
+    element : numpy.ndarray
+        Element (g,) holding each point.
+    ref : numpy.ndarray
+        Reference coordinates (g, 2) of each point in its element.
+    xy : numpy.ndarray
+        Drawing coordinates (g, 2), L.
+    weight : numpy.ndarray
+        Gauss weight times edge length element ds (g,), L.
+    offset : numpy.ndarray
+        Distance (g,) from the edge to the true curve along the outward normal, L; positive
+        where the true section extends beyond the mesh.
+    """
+
+    element: np.ndarray
+    ref: np.ndarray
+    xy: np.ndarray
+    weight: np.ndarray
+    offset: np.ndarray
+
+
+def _edge_owners(mesh: Mesh, edge_ids: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Element and local edge number (0, 1, 2) of each of the given boundary edges."""
+    flat = mesh.edges.of_element.reshape(-1)
+    where = np.full(len(mesh.edges.nodes), -1, dtype=np.int64)
+    where[flat] = np.arange(len(flat))  # a boundary edge has one element: one position
+    pos = where[edge_ids]
+    return pos // 3, pos % 3
+
+
+def _on_arc(points: np.ndarray, arc: Arc) -> np.ndarray:
+    """True where points (k, 2) lie on the arc (on its circle and within its sweep)."""
+    d = points - np.array([arc.cx, arc.cy])
+    r = np.hypot(d[:, 0], d[:, 1])
+    return (np.abs(r - arc.r) <= ON_CURVE * arc.r) & arc.contains_angle(np.arctan2(d[:, 1], d[:, 0]))
+
+
+def outline_offsets(mesh: Mesh, arcs: tuple[Arc, ...]) -> OutlineOffsets:
+    """Gauss points on the boundary edges that follow an arc, with the true curve's offset.
+
+    Parameters
+    ----------
+    mesh : Mesh
+        A six-node mesh whose boundary nodes on arcs lie on them (as built).
+    arcs : tuple of Arc
+        The recorded arcs of the profile.
+
+    Returns
+    -------
+    OutlineOffsets
+        Empty arrays when no boundary edge follows an arc.
+    """
+    bnd = mesh.edges.boundary
+    nodes = mesh.edges.nodes[bnd]
+    element, local = _edge_owners(mesh, bnd)
+    s, w = np.polynomial.legendre.leggauss(EDGE_POINTS)
+    s, w = 0.5 * (s + 1.0), 0.5 * w
+    parts = []
+    taken = np.zeros(len(bnd), bool)
+    for arc in arcs:
+        on = ~taken
+        for k in range(3):
+            on &= _on_arc(mesh.nodes[nodes[:, k]], arc)
+        taken |= on
+        if not on.any():
+            continue
+        e, loc = element[on], local[on]
+        # reference coordinates along local edge k, from its first corner to its second
+        corner_ref = np.array([[0.0, 0.0], [1.0, 0.0], [0.0, 1.0]])
+        start = corner_ref[LOCAL_EDGES[loc, 0]]
+        end = corner_ref[LOCAL_EDGES[loc, 1]]
+        ref = start[:, None, :] + s[None, :, None] * (end - start)[:, None, :]  # (k, g, 2)
+        N, dN = shape_functions(ref.reshape(-1, 2))
+        X = np.repeat(mesh.nodes[mesh.elements[e]], len(s), axis=0)  # (k g, 6, 2)
+        xy = np.einsum("pk,pki->pi", N, X)
+        jac = np.einsum("pki,pkj->pij", X, dN)  # d x_i / d xi_j
+        dref = np.repeat(end - start, len(s), axis=0)
+        tangent = np.einsum("pij,pj->pi", jac, dref)  # dx/ds, s in (0, 1)
+        ds = np.hypot(tangent[:, 0], tangent[:, 1])
+        # material on the left of the element's counter-clockwise edge: outward is the right
+        outward = np.column_stack([tangent[:, 1], -tangent[:, 0]]) / ds[:, None]
+        c = np.array([arc.cx, arc.cy])
+        d = xy - c
+        r = np.hypot(d[:, 0], d[:, 1])
+        true = c + d * (arc.r / r)[:, None]
+        parts.append((np.repeat(e, len(s)), ref.reshape(-1, 2), xy, np.tile(w, len(e)) * ds,
+                      np.einsum("pi,pi->p", true - xy, outward)))
+    if not parts:
+        empty = np.zeros(0)
+        return OutlineOffsets(np.zeros(0, np.int64), np.zeros((0, 2)), np.zeros((0, 2)), empty,
+                              empty)
+    return OutlineOffsets(*(np.concatenate([p[i] for p in parts]) for i in range(5)))
+
+
+def outline_corrections(result: object) -> dict[str, float]:
+    """First-order changes of a result's values from its meshed outline to the true one.
+
+    Parameters
+    ----------
+    result : SectionResult
+        An analysis (its mesh, profile arcs, warping function, materials).
+
+    Returns
+    -------
+    dict of str to float
+        ``J`` (L^4), ``Ix``, ``Iy``, ``Ixy``, ``I1``, ``I2`` (L^4, about the centroid and the
+        principal axes) and ``A`` (L^2): what to add to the mesh's value to get the true
+        outline's, to first order in the offset; all zero without recorded arcs.
+    """
+    mesh = result.mesh
+    off = outline_offsets(mesh, result.profile.arcs)
+    keys = ("A", "Ix", "Iy", "Ixy", "I1", "I2", "J")
+    if len(off.weight) == 0:
+        return dict.fromkeys(keys, 0.0)
+    geo = result.geometric
+    wdn = off.weight * off.offset
+    x, y = (off.xy - np.array(geo.centroid)).T
+    a = np.radians(geo.alpha_deg)
+    u, v = x * np.cos(a) + y * np.sin(a), -x * np.sin(a) + y * np.cos(a)
+    # J about the weighted centroid, as torsion_properties computes it
+    wx, wy = (off.xy - np.array(result.weighted.centroid)).T
+    at = Located(off.element, off.ref, np.ones(len(off.element), bool))
+    grad = gradient_at(mesh, result.torsion.psi, at)
+    tau2 = (grad[:, 0] - wy) ** 2 + (grad[:, 1] + wx) ** 2
+    G = result.materials.G[off.element]
+    return {"A": float(wdn.sum()), "Ix": float(wdn @ (y * y)), "Iy": float(wdn @ (x * x)),
+            "Ixy": float(wdn @ (x * y)), "I1": float(wdn @ (v * v)), "I2": float(wdn @ (u * u)),
+            "J": float((wdn * G) @ tau2)}
