@@ -132,7 +132,7 @@ def boundary_edges(elements: np.ndarray, region: np.ndarray | None = None) -> np
 
 def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1.0,
                min_angle: float = 30.0, use_symmetry: bool = True,
-               max_elements: int = MAX_ELEMENTS) -> Mesh:
+               max_elements: int = MAX_ELEMENTS, boundary_refine: float | None = None) -> Mesh:
     """Mesh a profile into six-node triangles.
 
     Parameters
@@ -153,6 +153,10 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
     max_elements : int
         Largest number of elements (``--max-elements``); the boundary-point limit scales with
         it. Default :data:`MAX_ELEMENTS`.
+    boundary_refine : float, optional
+        Pieces each drawn boundary segment is split into at the least, on average (a dense
+        boundary, arcs drawn as chords, is refined by it too). Default ``refine``, and no split
+        below 1; an error estimate refines a draft mesh's boundary relative to itself.
 
     Returns
     -------
@@ -182,7 +186,8 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
     else:
         part, origin = profile, list(range(len(profile.regions)))
     nodes, tris, segs, region = triangulate(part, profile, h, min_angle,
-                                             ELEMENTS_ACROSS_WALL * refine, refine, max_elements)
+                                             ELEMENTS_ACROSS_WALL * refine, refine, max_elements,
+                                             refine if boundary_refine is None else boundary_refine)
     tri = Triangulation(nodes, tris, segs, part, tuple(origin), tuple(axes), profile)
     return _quadratic_mesh(tri, region, h)
 

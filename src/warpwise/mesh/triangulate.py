@@ -103,9 +103,14 @@ def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float, h: flo
 
 
 def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across: float,
-                 refine_level: float = 1.0, max_elements: int = MAX_ELEMENTS) -> tuple[
+                 refine_level: float = 1.0, max_elements: int = MAX_ELEMENTS,
+                 boundary_pieces: float | None = None) -> tuple[
         np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``."""
+    """Three-node Triangle mesh of ``part``, boundary split by the wall thickness of ``full``.
+
+    Every drawn segment is split into at least ``boundary_pieces`` pieces on average
+    (:func:`~warpwise.mesh.sizing.piece_counts`; default ``refine_level``).
+    """
     vertices, seg = planar_graph(part)
     fv, fseg = planar_graph(full)
     seg_a, seg_b = fv[fseg[:, 0]], fv[fseg[:, 1]]
@@ -119,7 +124,8 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
     check_boundary_budget(vertices, seg, np.minimum(h, t1 / across), full)
     # under refinement every drawn segment is split at least by the refinement factor, so a
     # boundary denser than the target (arcs as chords) is refined with the interior
-    pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across), refine_level)
+    pts, sub = split_segments(vertices, seg, np.minimum(h, t1 / across),
+                              refine_level if boundary_pieces is None else boundary_pieces)
     t2 = np.maximum(wall_thickness(full, pts[sub[:, 0]], pts[sub[:, 1]], seg_a, seg_b, reach),
                     floor * across)
     check_boundary_budget(pts, sub, np.minimum(h, t2 / across), full)

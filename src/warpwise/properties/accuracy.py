@@ -28,7 +28,7 @@ import numpy as np
 
 from ..errors import UsageError
 from ..geometry.profile import Profile
-from ..mesh.core import MAX_ELEMENTS
+from ..mesh.core import MAX_ELEMENTS, build_mesh
 from .analysis import SectionResult, analyse
 from .geometry_error import outline_corrections
 from .shear import DEFAULT_POISSON
@@ -191,8 +191,12 @@ def estimate_errors(profile: Profile, mesh_size: float | None = None, *, refine:
     """
     first = analyse(profile, mesh_size, refine=refine, poisson=poisson, bounds=bounds, solver=solver,
                     max_elements=max_elements)
-    rest = [analyse(profile, mesh_size, refine=refine * STEP**k, poisson=poisson, solver=solver,
-                    max_elements=max_elements) for k in (1, 2)]
+    # the boundary is refined relative to the first mesh's own (at draft it keeps every drawn
+    # segment whole, and the further meshes must still refine it)
+    rest = [analyse(profile, mesh=build_mesh(profile, mesh_size, refine=refine * STEP**k,
+                                             max_elements=max_elements,
+                                             boundary_refine=max(refine, 1.0) * STEP**k),
+                    poisson=poisson, solver=solver, max_elements=max_elements) for k in (1, 2)]
     qs = [_quantities(r) for r in (first, *rest)]
     reported = {key: float(read(first)) for key, (read, _, _) in ESTIMATED.items()}
     size = profile.size
