@@ -13,12 +13,13 @@ dn (the shape derivative):
   minimum with a natural boundary condition, so it changes by the boundary integral of
   |grad psi - p|^2 dn, the squared shear stress per unit twist (Hadamard's formula for
   Neumann problems; common practice, no source); the element shear-modulus ratios weight it
-  in a composite section.
+  in a composite section;
+- Cw and the shear centre depend on the warping function inside as well: an adjoint solve each
+  on the result's own factorisation gives that part (see :func:`outline_corrections`).
 
-Values with no such simple boundary form (Cw, the shear centre, the shear areas) get no term:
-their outline error is left to the refinement, which splits boundary edges with the rest.
-Interfaces between materials on an arc get no term either (they move material from one region
-to the other rather than add or remove it).
+The shear areas and omega_max get no term: their outline error is left to the refinement,
+which splits boundary edges with the rest. Interfaces between materials on an arc get no term
+either (they move material from one region to the other rather than add or remove it).
 
 Examples
 --------
@@ -37,8 +38,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..fem.p2 import shape_functions
-from ..fem.points import Located, gradient_at
+from ..fem.p2 import assemble_vector, interpolate, shape_functions
+from ..fem.points import Located, gradient_at, value_at
 from ..geometry.profile import Arc
 from ..mesh.core import Mesh
 from ..mesh.edges import LOCAL_EDGES
@@ -149,37 +150,86 @@ def outline_offsets(mesh: Mesh, arcs: tuple[Arc, ...]) -> OutlineOffsets:
     return OutlineOffsets(*(np.concatenate([p[i] for p in parts]) for i in range(5)))
 
 
-def outline_corrections(result: object) -> dict[str, float]:
+def _adjoint_gradients(result: object, at: Located, weights: list[np.ndarray]) -> list[np.ndarray]:
+    """Gradients at ``at`` of the solutions lambda of K lambda = int w N dA, one per weight.
+
+    Each weight (m, q) is a field at the quadrature points with zero integral on each part
+    (a compatible Neumann load); the result's own factorisation solves it.
+    """
+    mesh, evc = result.mesh, result.basis
+    out = []
+    for w in weights:
+        rhs = assemble_vector(mesh, np.einsum("mq,qk->mk", w * evc.dA, evc.N))
+        out.append(gradient_at(mesh, result.solver.solve(rhs), at))
+    return out
+
+
+def outline_corrections(result: object, offsets: OutlineOffsets | None = None) -> dict[str, float]:
     """First-order changes of a result's values from its meshed outline to the true one.
+
+    J, the areas and second moments take the boundary integrals of the module notes. Cw and
+    the shear centre, which depend on the warping function inside, take its change as well,
+    through an adjoint solve each on the result's factorisation: with omega = psi + b x + c y
+    (the projection that gives the shear centre) and lambda solving the warping problem under
+    the load 2 E omega, dCw = int (E omega^2 - G (grad psi - p) . grad lambda) dn; the
+    coefficients b, c of the normal equations S (b, c) = -(int E x psi, int E y psi) change by
+    -S^-1 (dS (b, c) + dr), each dr from the boundary term and an adjoint under the load E x or
+    E y (the Lagrangian of the warping problem; common practice, no source).
 
     Parameters
     ----------
     result : SectionResult
-        An analysis (its mesh, profile arcs, warping function, materials).
+        An analysis (its mesh, profile arcs, warping function, materials, factorisation).
+    offsets : OutlineOffsets, optional
+        Where the true outline is (default :func:`outline_offsets` of the profile's arcs).
 
     Returns
     -------
     dict of str to float
-        ``J`` (L^4), ``Ix``, ``Iy``, ``Ixy``, ``I1``, ``I2`` (L^4, about the centroid and the
-        principal axes) and ``A`` (L^2): what to add to the mesh's value to get the true
-        outline's, to first order in the offset; all zero without recorded arcs.
+        ``A`` (L^2), ``Ix``, ``Iy``, ``Ixy``, ``I1``, ``I2`` (L^4, about the centroid and the
+        principal axes), ``J`` (L^4), ``Cw`` (L^6), ``xs``, ``ys`` (L): what to add to the
+        mesh's value to get the true outline's, to first order in the offset; all zero
+        without recorded arcs. ``Cw``, ``xs`` and ``ys`` stay zero for a profile of separate
+        parts (each part's own shear centre).
     """
     mesh = result.mesh
-    off = outline_offsets(mesh, result.profile.arcs)
-    keys = ("A", "Ix", "Iy", "Ixy", "I1", "I2", "J")
+    off = outline_offsets(mesh, result.profile.arcs) if offsets is None else offsets
+    keys = ("A", "Ix", "Iy", "Ixy", "I1", "I2", "J", "Cw", "xs", "ys")
+    out = dict.fromkeys(keys, 0.0)
     if len(off.weight) == 0:
-        return dict.fromkeys(keys, 0.0)
+        return out
     geo = result.geometric
     wdn = off.weight * off.offset
     x, y = (off.xy - np.array(geo.centroid)).T
     a = np.radians(geo.alpha_deg)
     u, v = x * np.cos(a) + y * np.sin(a), -x * np.sin(a) + y * np.cos(a)
-    # J about the weighted centroid, as torsion_properties computes it
-    wx, wy = (off.xy - np.array(result.weighted.centroid)).T
+    out.update({"A": float(wdn.sum()), "Ix": float(wdn @ (y * y)), "Iy": float(wdn @ (x * x)),
+                "Ixy": float(wdn @ (x * y)), "I1": float(wdn @ (v * v)), "I2": float(wdn @ (u * u))})
+    # the warping quantities about the weighted centroid, as torsion_properties computes them
+    wgeo = result.weighted
+    wx, wy = (off.xy - np.array(wgeo.centroid)).T
     at = Located(off.element, off.ref, np.ones(len(off.element), bool))
-    grad = gradient_at(mesh, result.torsion.psi, at)
-    tau2 = (grad[:, 0] - wy) ** 2 + (grad[:, 1] + wx) ** 2
-    G = result.materials.G[off.element]
-    return {"A": float(wdn.sum()), "Ix": float(wdn @ (y * y)), "Iy": float(wdn @ (x * x)),
-            "Ixy": float(wdn @ (x * y)), "I1": float(wdn @ (v * v)), "I2": float(wdn @ (u * u)),
-            "J": float((wdn * G) @ tau2)}
+    tor = result.torsion
+    grad = gradient_at(mesh, tor.psi, at)
+    strain = np.column_stack([grad[:, 0] - wy, grad[:, 1] + wx])  # grad psi - p
+    E, G = result.materials.E[off.element], result.materials.G[off.element]
+    out["J"] = float((wdn * G) @ (strain * strain).sum(axis=1))
+    if result.solver.n_parts > 1:
+        return out
+    evc = result.basis
+    omega_q = interpolate(mesh, evc, tor.omega)
+    qx, qy = evc.xy[..., 0], evc.xy[..., 1]
+    wE = result.materials.E[:, None]
+    g_omega, g_x, g_y = _adjoint_gradients(result, at, [2.0 * wE * omega_q, wE * qx, wE * qy])
+    omega_b = value_at(mesh, tor.omega, at)
+    psi_b = value_at(mesh, tor.psi, at)
+    work = lambda g: (strain * g).sum(axis=1)  # noqa: E731  (G (grad psi - p) . grad lambda)
+    out["Cw"] = float(wdn @ (E * omega_b**2 - G * work(g_omega)))
+    S = np.array([[wgeo.Iy, wgeo.Ixy], [wgeo.Ixy, wgeo.Ix]])
+    b, c = -tor.shear_centre[1] + wgeo.centroid[1], tor.shear_centre[0] - wgeo.centroid[0]
+    dS = np.array([[wdn @ (E * wx * wx), wdn @ (E * wx * wy)],
+                   [wdn @ (E * wx * wy), wdn @ (E * wy * wy)]])
+    dr = np.array([wdn @ (E * wx * psi_b - G * work(g_x)), wdn @ (E * wy * psi_b - G * work(g_y))])
+    db, dc = -np.linalg.solve(S, dS @ np.array([b, c]) + dr)
+    out["xs"], out["ys"] = float(dc), float(-db)
+    return out
