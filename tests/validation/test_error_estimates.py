@@ -10,10 +10,10 @@ What the estimate can and cannot see (decides which shapes are meaningful):
 - It measures the discretisation error on the meshed outline. On straight-sided polygons
   (rectangles, the equilateral triangle) the meshed outline is the profile, so the closed form
   is the exact reference and the error is pure discretisation error: the main checks.
-- The ellipse is a 256-gon. At every mesh the estimate uses, no boundary chord is split, and then
-  the quadratic warping function -k x y is the exact discrete solution on the polygon (P2
-  contains it; see test_torsion_closed_forms): J_h is the closed form applied to the polygon,
-  rho_N J, to round-off, and all three meshes agree. Both errors are round-off: "converged".
+- The ellipse is a 256-gon (``curved=False``; the curved one is checked in test_ellipse_exact).
+  At every mesh the estimate uses, no boundary chord is split, and then the quadratic warping
+  function -k x y is the exact discrete solution on the polygon (P2 contains it; see
+  test_torsion_closed_forms): J_h is the closed form applied to the polygon, rho_N J, to round-off, and all three meshes agree. Both errors are round-off: "converged".
   The 2e-4 by which the 256-gon falls short of the true ellipse is the user's geometry, not a
   discretisation error, and is rightly not part of the estimate.
 - The tube (curved element edges) has psi = 0, so J_h is Ip of the meshed domain, short of the
@@ -222,7 +222,7 @@ def test_equilateral_triangle_estimates(level):
 @pytest.mark.parametrize("level", list(ACCURACY_LEVELS))
 def test_ellipse_estimates_converged(level):
     a, b, segments = 20.0, 10.0, 256
-    est = estimate_errors(ellipse(a, b, segments=segments), refine=ACCURACY_LEVELS[level])
+    est = estimate_errors(ellipse(a, b, segments=segments, curved=False), refine=ACCURACY_LEVELS[level])
     J, Cw = ellipse_J_Cw(a, b, segments)
     seen = check_honest(est, {"J": J, "Cw": Cw, "xs": 0.0, "ys": 0.0}, 2 * a)
     assert all(t < 1e-12 and e < 1e-12 for t, e in seen.values()), seen
