@@ -13,7 +13,8 @@ What the estimate can and cannot see (decides which shapes are meaningful):
 - The ellipse is a 256-gon (``curved=False``; the curved one is checked in test_ellipse_exact).
   At every mesh the estimate uses, no boundary chord is split, and then the quadratic warping
   function -k x y is the exact discrete solution on the polygon (P2 contains it; see
-  test_torsion_closed_forms): J_h is the closed form applied to the polygon, rho_N J, to round-off, and all three meshes agree. Both errors are round-off: "converged".
+  test_torsion_closed_forms): J_h is the closed form applied to the polygon, rho_N J, to
+  round-off, and all three meshes agree. Both errors are round-off: "converged".
   The 2e-4 by which the 256-gon falls short of the true ellipse is the user's geometry, not a
   discretisation error, and is rightly not part of the estimate.
 - The tube (curved element edges) has psi = 0, so J_h is Ip of the meshed domain, short of the
