@@ -80,11 +80,28 @@ def _loops(profile: Profile) -> list[tuple[np.ndarray, bool]]:
     return out
 
 
-def _curve_of(start: np.ndarray, end: np.ndarray, arcs: tuple[Curve, ...]
-              ) -> tuple[np.ndarray, np.ndarray]:
-    """Index of the curve each side (start -> end) is a chord of (-1 for none), and its length."""
+def chord_curves(start: np.ndarray, end: np.ndarray, arcs: tuple[Curve, ...]
+                 ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The recorded curve each side (start -> end) is a chord of, and its ends' parameters.
+
+    Parameters
+    ----------
+    start, end : numpy.ndarray
+        Ends of the sides (n, 2), drawing unit L.
+    arcs : tuple of Curve
+        The recorded circular and elliptical arcs (:attr:`Profile.arcs`).
+
+    Returns
+    -------
+    which : numpy.ndarray
+        Index of the curve of each side (n,), -1 for a straight side.
+    t_start, t_end : numpy.ndarray
+        Parameters of the curve at the side's start and end (n,), radians, the short way
+        round (``abs(t_end - t_start) <= pi / 2``, a chord spans at most a quarter turn);
+        nan for straight sides.
+    """
     which = np.full(len(start), -1)
-    length = np.full(len(start), np.nan)
+    t_start, t_end = np.full(len(start), np.nan), np.full(len(start), np.nan)
     longest = 2.0 * np.sin(0.5 * LONGEST_CHORD) * (1 + 1e-12)
     for k, arc in enumerate(arcs):  # a loop over the few recorded curves, not over sides
         ua, ub = arc.scaled(start), arc.scaled(end)  # unit circle there
@@ -94,12 +111,10 @@ def _curve_of(start: np.ndarray, end: np.ndarray, arcs: tuple[Curve, ...]
         on &= arc.contains_angle(np.arctan2(mid[:, 1], mid[:, 0]))
         on &= which < 0
         which[on] = k
-        # the short way round from one end to the other (a chord spans at most a quarter turn)
         ta = np.arctan2(ua[on, 1], ua[on, 0])
         step = np.mod(np.arctan2(ub[on, 1], ub[on, 0]) - ta + np.pi, 2.0 * np.pi) - np.pi
-        lo = ta + np.minimum(step, 0.0)
-        length[on] = arc.length(lo, lo + np.abs(step))
-    return which, length
+        t_start[on], t_end[on] = ta, ta + step
+    return which, t_start, t_end
 
 
 def outline_pieces(profile: Profile) -> Pieces:
@@ -119,7 +134,12 @@ def outline_pieces(profile: Profile) -> Pieces:
     start = np.vstack([lp for lp, _ in loops])
     end = np.vstack([np.roll(lp, -1, axis=0) for lp, _ in loops])
     outer = np.concatenate([np.full(len(lp), is_outer) for lp, is_outer in loops])
-    which, length = _curve_of(start, end, profile.arcs)
+    which, t_start, t_end = chord_curves(start, end, profile.arcs)
+    length = np.full(len(start), np.nan)
+    for k, arc in enumerate(profile.arcs):  # a loop over the few recorded curves
+        on = which == k
+        lo = np.minimum(t_start[on], t_end[on])
+        length[on] = arc.length(lo, lo + np.abs(t_end[on] - t_start[on]))
     circle = np.array([isinstance(a, Arc) for a in profile.arcs] + [False])
     which_arc = np.where(circle[which], which, -1)  # -1 picks the last entry
     table = np.array([[a.cx, a.cy, a.r] if isinstance(a, Arc) else [np.nan] * 3
@@ -169,4 +189,4 @@ def perimeters(profile: Profile) -> Perimeters:
     return Perimeters(float(length[pieces.outer].sum()), float(length.sum()))
 
 
-__all__ = ["Perimeters", "Pieces", "outline_pieces", "perimeters"]
+__all__ = ["Perimeters", "Pieces", "chord_curves", "outline_pieces", "perimeters"]
