@@ -70,13 +70,14 @@ def ellipse_closed_forms(a: float, b: float) -> dict[str, float]:
             "P": 4.0 * a * float(ellipe(1.0 - (b / a) ** 2))}
 
 
-def write_dxf(path, ellipses, lines=()):
+def write_dxf(path, ellipses, lines=(), extrusion=(0.0, 0.0, 1.0)):
     """A DXF (mm) of ELLIPSE entities (centre, major axis, ratio, start, end param) and LINEs."""
     doc = ezdxf.new()
     doc.header["$INSUNITS"] = 4
     msp = doc.modelspace()
     for centre, major, ratio, t0, t1 in ellipses:
-        msp.add_ellipse(centre, major_axis=(*major, 0.0), ratio=ratio, start_param=t0, end_param=t1)
+        msp.add_ellipse(centre, major_axis=(*major, 0.0), ratio=ratio, start_param=t0, end_param=t1,
+                        dxfattribs={"extrusion": extrusion})
     for p, q in lines:
         msp.add_line(p, q)
     doc.saveas(path)
@@ -177,11 +178,17 @@ def test_moved_parametric_ellipse_keeps_its_curve():
 
 
 @pytest.mark.parametrize("refine", REFINES)
-def test_half_ellipse_closed_by_its_major_axis(tmp_path, refine):
+@pytest.mark.parametrize("below", [False, True], ids=["extrusion +z", "extrusion -z"])
+def test_half_ellipse_closed_by_its_major_axis(tmp_path, refine, below):
+    # with the extrusion -z the minor axis is -y in the drawing (the ELLIPSE runs clockwise
+    # seen from +z), so the parameters 0 to pi draw the lower half; the section is then the
+    # mirror image of the upper half
     a, b = A_ELL, B_ELL
     path = write_dxf(tmp_path / "half.dxf", [((0.0, 0.0), (a, 0.0), b / a, 0.0, math.pi)],
-                     [((-a, 0.0), (a, 0.0))])
+                     [((-a, 0.0), (a, 0.0))], extrusion=(0.0, 0.0, -1.0 if below else 1.0))
     p = load_profile(path)
+    if below:
+        p = p.moved(angle_deg=180.0)  # turned upright (mirrored in x: the same by symmetry)
     (e,) = p.arcs
     assert isinstance(e, EllipseArc) and e.sweep == pytest.approx(math.pi, abs=1e-12)
     g = analyse(p, refine=refine).geometric
