@@ -7,8 +7,8 @@ Wpl = int |d| dA, d the distance from the PNA; for several materials the plastic
 Mpl = int fy |d| dA with the PNA from int fy sign(d) dA = 0. The integrals are taken on the
 boundary (Green's theorem on the boundary edges above the neutral axis, all edges at once):
 exactly along straight sides, and along the true curve where a side is a chord of a recorded
-circular or elliptical arc (:attr:`Profile.arcs`), so they are exact for outlines of straight
-sides, circles and ellipses.
+circular or elliptical arc (:attr:`Profile.arcs`, through :mod:`.curved_sides`), so they are
+exact for outlines of straight sides, circles and ellipses.
 
 Examples
 --------
@@ -20,23 +20,16 @@ Examples
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 import shapely
 from shapely.geometry.polygon import orient
 
-from ..geometry.curves import Curve
 from ..geometry.profile import Profile
+from .curved_sides import CurvedSides, curved_above, curved_sides
 from .outline import chord_curves
-
-#: Gauss-Legendre points per stretch of a curved side above or below the neutral axis. The
-#: integrands are trigonometric polynomials of degree 3 at most over a parameter span of at most
-#: pi / 2, where 12 points leave an error below 1e-16 relative (the Gauss remainder with
-#: (b - a)^25 (12!)^4 / (25 (24!)^3) times the 24th derivative, at most 3^24 times the
-#: integrand; common practice, no source).
-CURVE_POINTS = 12
 
 
 @dataclass(frozen=True)
@@ -70,21 +63,6 @@ class PlasticProperties:
     Mpl_2: float | None = None
 
 
-@dataclass(frozen=True)
-class _CurvedSides:
-    """Sides of the outline that follow a recorded curve, in one rotated frame (L, radians).
-
-    Each side runs along ``centre + cos t * u + sin t * v`` from ``t_start`` to ``t_end``.
-    """
-
-    centre: np.ndarray
-    u: np.ndarray
-    v: np.ndarray
-    t_start: np.ndarray
-    t_end: np.ndarray
-    weight: np.ndarray
-
-
 def _edges(polys: Sequence[shapely.Polygon], weights: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Every boundary edge (e, 2, 2), exterior counter-clockwise and holes clockwise, and its weight."""
     out, w = [], []
@@ -97,56 +75,8 @@ def _edges(polys: Sequence[shapely.Polygon], weights: np.ndarray) -> tuple[np.nd
     return np.concatenate(out), np.concatenate(w)
 
 
-def _curved_sides(which: np.ndarray, t_start: np.ndarray, t_end: np.ndarray,
-                  arcs: Sequence[Curve], weights: np.ndarray, rot: np.ndarray) -> _CurvedSides:
-    """The curved sides (``which >= 0``) turned by the rotation matrix ``rot``."""
-    on = which >= 0
-    table = np.array([[a.cx, a.cy, a.a, a.b, a.rotation] for a in arcs] or np.zeros((0, 5)))
-    cx, cy, a, b, turn = table[which[on]].T
-    e1 = np.stack([np.cos(turn), np.sin(turn)], axis=1)
-    e2 = np.stack([-e1[:, 1], e1[:, 0]], axis=1)
-    return _CurvedSides(np.stack([cx, cy], axis=1) @ rot.T, (a[:, None] * e1) @ rot.T,
-                        (b[:, None] * e2) @ rot.T, t_start[on], t_end[on], weights[on])
-
-
-def _curved_above(c: _CurvedSides, yp: float) -> tuple[float, float]:
-    """Weighted closed integrals of x dy and x y dy along the curved sides, where y > yp.
-
-    Along a side y = y0 + u_y cos t + v_y sin t = y0 + R cos(t - phi) crosses y = yp at
-    t = phi +- arccos((yp - y0) / R): at most two crossings split the side into three
-    stretches, each integrated by Gauss-Legendre (:data:`CURVE_POINTS`) where it lies above.
-    """
-    if len(c.t_start) == 0:
-        return 0.0, 0.0
-    lo, hi = np.minimum(c.t_start, c.t_end), np.maximum(c.t_start, c.t_end)
-    sense = np.sign(c.t_end - c.t_start)
-    y0, uy, vy = c.centre[:, 1], c.u[:, 1], c.v[:, 1]
-    big = np.hypot(uy, vy)
-    phi = np.arctan2(vy, uy)
-    with np.errstate(invalid="ignore", divide="ignore"):
-        level = (yp - y0) / big
-    cut = np.abs(level) < 1.0
-    half = np.arccos(np.where(cut, level, 1.0))
-    breaks = [lo, hi, hi, hi]
-    for k, root in enumerate((phi + half, phi - half)):
-        at = lo + np.mod(root - lo, 2.0 * np.pi)
-        breaks[k + 1] = np.where(cut & (at < hi), at, hi)
-    breaks = np.sort(np.stack(breaks, axis=1), axis=1)  # (s, 4)
-    a, b = breaks[:, :-1], breaks[:, 1:]  # (s, 3) stretches
-    mid, rad = 0.5 * (a + b), 0.5 * (b - a)
-    above = y0[:, None] + uy[:, None] * np.cos(mid) + vy[:, None] * np.sin(mid) > yp
-    xi, wq = np.polynomial.legendre.leggauss(CURVE_POINTS)
-    t = mid[..., None] + rad[..., None] * xi  # (s, 3, q)
-    cos, sin = np.cos(t), np.sin(t)
-    x = c.centre[:, 0, None, None] + c.u[:, 0, None, None] * cos + c.v[:, 0, None, None] * sin
-    y = y0[:, None, None] + uy[:, None, None] * cos + vy[:, None, None] * sin
-    dy = -uy[:, None, None] * sin + vy[:, None, None] * cos
-    scale = (rad * above)[..., None] * wq * (sense * c.weight)[:, None, None]
-    return float(np.sum(scale * x * dy)), float(np.sum(scale * x * y * dy))
-
-
 def _above(edges: np.ndarray, weights: np.ndarray, yp: float,
-           curved: _CurvedSides | None = None) -> tuple[float, float]:
+           curved: CurvedSides | None = None) -> tuple[float, float]:
     """Weighted area and first moment int w y dA of the material above the line y = yp.
 
     Green's theorem: area = closed integral of x dy, first moment = closed integral of x y dy
@@ -165,30 +95,69 @@ def _above(edges: np.ndarray, weights: np.ndarray, yp: float,
     # int x y dy over [lo, hi] with x linear: Simpson's rule is exact for the quadratic
     mid = 0.5 * (lo + hi)
     moment = sign * (hi - lo) / 6.0 * (x_lo * lo + 4.0 * (0.5 * (x_lo + x_hi)) * mid + x_hi * hi)
-    c_area, c_moment = (0.0, 0.0) if curved is None else _curved_above(curved, yp)
+    c_area, c_moment = (0.0, 0.0) if curved is None else curved_above(curved, yp)
     return float(np.dot(w, area)) + c_area, float(np.dot(w, moment)) + c_moment
 
 
+def _falling_root(balance: Callable[[float], float], lo: float, hi: float, f_lo: float,
+                  f_hi: float) -> float:
+    """Where a falling function crosses zero in [lo, hi] (f_lo > 0 > f_hi), to round-off.
+
+    False position with the Illinois rule (the end kept twice has its value halved), and a
+    bisection step whenever two steps have not halved the bracket, so it never falls behind
+    bisection for long; on the piecewise smooth force balance it ends in about ten steps
+    (common practice, no source).
+    """
+    # the bracket's floor: 1e-15 of its first width, or the spacing of the numbers there
+    tol = 1e-15 * (hi - lo) + 4.0 * float(np.spacing(max(abs(lo), abs(hi))))
+    kept, width = 0, hi - lo
+    for k in range(200):  # a bound: bisection alone would need about 50
+        if hi - lo <= tol:
+            break
+        y = hi - f_hi * (hi - lo) / (f_hi - f_lo)
+        if k % 2 == 0:  # every second step: has the bracket halved since the last check?
+            if hi - lo > 0.5 * width:
+                y = 0.5 * (lo + hi)
+            width = hi - lo
+        if not lo < y < hi:
+            y = 0.5 * (lo + hi)
+            if not lo < y < hi:  # no number left between the ends
+                break
+        f = balance(y)
+        if f > 0:
+            lo, f_lo = y, f
+            f_hi, kept = (0.5 * f_hi, kept) if kept < 0 else (f_hi, -1)
+        elif f < 0:
+            hi, f_hi = y, f
+            f_lo, kept = (0.5 * f_lo, kept) if kept > 0 else (f_lo, 1)
+        else:
+            return y
+    return 0.5 * (lo + hi)
+
+
 def _plastic_about_horizontal(edges: np.ndarray, w: np.ndarray,
-                              curved: _CurvedSides | None = None) -> tuple[float, float]:
+                              curved: CurvedSides | None = None) -> tuple[float, float]:
     """PNA height and int w |y - yp| dA for a horizontal plastic neutral axis."""
     total, first = _above(edges, w, -np.inf, curved)
     y0 = float(edges[..., 1].min(initial=np.inf))
     y1 = float(edges[..., 1].max(initial=-np.inf))
-    if curved is not None and len(curved.t_start):
-        reach = np.hypot(curved.u[:, 1], curved.v[:, 1])  # a curve's extreme heights
-        y0 = min(y0, float((curved.centre[:, 1] - reach).min()))
-        y1 = max(y1, float((curved.centre[:, 1] + reach).max()))
+    if curved is not None:
+        low, high = curved.heights
+        y0, y1 = min(y0, low), max(y1, high)
     lo, hi = y0, y1
-    # bisection on the force balance (above minus below), monotone in yp; 60 halvings reach
-    # round-off
-    for _ in range(60):
-        mid = 0.5 * (lo + hi)
-        if 2.0 * _above(edges, w, mid, curved)[0] - total > 0:
-            lo = mid
-        else:
-            hi = mid
-    yp = 0.5 * (lo + hi)
+    if curved is None or len(curved.t_start) == 0:
+        # bisection on the force balance (above minus below), monotone in yp; 60 halvings
+        # reach round-off
+        for _ in range(60):
+            mid = 0.5 * (lo + hi)
+            if 2.0 * _above(edges, w, mid, curved)[0] - total > 0:
+                lo = mid
+            else:
+                hi = mid
+        yp = 0.5 * (lo + hi)
+    else:  # each balance costs more along curves: false position needs far fewer of them
+        yp = _falling_root(lambda y: 2.0 * _above(edges, w, y, curved)[0] - total, lo, hi,
+                           total, -total)
     a_up, m_up = _above(edges, w, yp, curved)
     # int w |y - yp| dA = (M_up - yp A_up) + (yp A_down - M_down)
     return yp, (m_up - yp * a_up) + (yp * (total - a_up) - (first - m_up))
@@ -225,11 +194,11 @@ def plastic_properties(profile: Profile, alpha_deg: float = 0.0,
         c, s = np.cos(np.radians(angle)), np.sin(np.radians(angle))
         rot = np.array([[c, s], [-s, c]])
         turned = edges[straight] @ rot.T
-        curved = _curved_sides(which, t_start, t_end, profile.arcs, ones, rot)
+        curved = curved_sides(which, t_start, t_end, profile.arcs, ones, rot)
         yp, z = _plastic_about_horizontal(turned, ones[straight], curved)
         m = None
         if strengths is not None:
-            curved = _curved_sides(which, t_start, t_end, profile.arcs, strengths, rot)
+            curved = curved_sides(which, t_start, t_end, profile.arcs, strengths, rot)
             m = _plastic_about_horizontal(turned, strengths[straight], curved)[1]
         return yp, z, m
 
