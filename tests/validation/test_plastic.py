@@ -279,3 +279,34 @@ def test_no_plastic_moment_without_every_fy():
     assert res.plastic.Mpl_x is None and res.plastic.Mpl_y is None
     assert math.isnan(values(res)["Mpl_x"])
     assert rel(res.plastic.Wpl_x, 10 * 4**2 / 4) < RTOL  # the geometric modulus is still there
+
+
+@pytest.mark.parametrize("segments", [32, 256])
+def test_half_ellipse_neutral_axis_off_the_centre(segments):
+    # the half ellipse x^2/a^2 + y^2/b^2 <= 1, y >= 0 (flat side down), its curve recorded: the
+    # PNA cuts the curve off the axes, where the sides are split at their crossings. In the
+    # frame where the ellipse is the unit circle, the segment above y = c b has the area
+    # a b (acos c - c sqrt(1 - c^2)) and the first moment (2/3) a b^2 (1 - c^2)^(3/2) (the
+    # circular segment, any table of plane areas, scaled by a and b); c from A_up = pi a b / 4
+    # (scipy.optimize.brentq). Exact geometry: only round-off is left (measured 9e-16), at any
+    # number of chords.
+    from scipy.optimize import brentq
+
+    from warpwise.geometry import EllipseArc
+
+    a, b = 20.0, 10.0
+    t = np.linspace(0.0, np.pi, segments + 1)
+    loop = np.column_stack([a * np.cos(t), b * np.sin(t)])
+    p = plastic_properties(profile_from_loops([loop], arcs=[EllipseArc(0.0, 0.0, a, b, 0.0, 0.0, np.pi)]))
+
+    def up(c):
+        return a * b * (math.acos(c) - c * math.sqrt(1 - c * c)), 2 / 3 * a * b * b * (1 - c * c) ** 1.5
+
+    c = brentq(lambda c: up(c)[0] - math.pi * a * b / 4, 0.0, 1.0, xtol=1e-15)
+    yp = c * b
+    a_up, m_up = up(c)
+    area, moment = math.pi * a * b / 2, 2 * a * b * b / 3  # the half ellipse, centroid 4 b / (3 pi)
+    wpl_x = (m_up - yp * a_up) + (yp * (area - a_up) - (moment - m_up))
+    assert abs(p.pna_y - yp) < 1e-12 * b
+    assert rel(p.Wpl_x, wpl_x) < RTOL
+    assert rel(p.Wpl_y, 4 * a * a * b / 3 / 2) < RTOL  # half of the ellipse's 4 a^2 b / 3
