@@ -61,7 +61,8 @@ def outline_corners(profile: Profile, low_deg: float, high_deg: float) -> list[C
     """Corners of the material outline with an interior angle strictly between two bounds.
 
     Interfaces between materials are not free boundaries and are not searched; vertices of the
-    polygon approximating a recorded arc (strictly inside its sweep) are not corners.
+    polygon approximating a recorded circular or elliptical arc (strictly inside its sweep) are
+    not corners.
 
     Parameters
     ----------
@@ -90,10 +91,9 @@ def outline_corners(profile: Profile, low_deg: float, high_deg: float) -> list[C
             sharp = (interior > low_deg) & (interior < high_deg)
             # a vertex of the polygon that approximates a recorded arc is not a corner
             for arc in profile.arcs:
-                d = p - np.array([arc.cx, arc.cy])
-                on = np.abs(np.hypot(d[:, 0], d[:, 1]) - arc.r) < 1e-7 * max(arc.r, profile.size)
-                if arc.sweep < 2.0 * np.pi - 1e-9:
-                    on &= arc.contains_angle(np.arctan2(d[:, 1], d[:, 0]), slack=-1e-9)
+                on = np.abs(arc.gap(p)) < 1e-7 * max(arc.a, arc.b, profile.size)
+                if not arc.full:
+                    on &= arc.contains_angle(arc.param(p), slack=-1e-9)
                 sharp &= ~on
             for k in np.flatnonzero(sharp):
                 found.append(Corner(float(p[k, 0]), float(p[k, 1]), float(interior[k])))

@@ -32,6 +32,7 @@ from shapely.validation import explain_validity
 
 from ..errors import ProfileError
 from ..units import LENGTH_UNITS
+from .curves import Arc, Curve, EllipseArc  # noqa: F401 (Arc, EllipseArc: re-exported here, their first home)
 from .loops import (
     MIN_SIZE,
     check_no_crossings,
@@ -91,41 +92,6 @@ class Region:
         return (self.outer, *self.holes)
 
 
-@dataclass(frozen=True)
-class Arc:
-    """A circular arc of the true outline, kept so that the mesh can follow the curve.
-
-    The loops of a profile are polygons; an arc records where a run of their vertices lies on a
-    circle, so that boundary nodes of the mesh can be placed on the circle itself.
-
-    Attributes
-    ----------
-    cx, cy : float
-        Centre, drawing unit.
-    r : float
-        Radius, drawing unit.
-    start, sweep : float
-        Start angle and counter-clockwise sweep (0 < sweep <= 2 pi), radians.
-    """
-
-    cx: float
-    cy: float
-    r: float
-    start: float = 0.0
-    sweep: float = 2.0 * np.pi
-
-    def contains_angle(self, angle: np.ndarray, slack: float = 1e-9) -> np.ndarray:
-        """True where an angle (radians) lies within the arc's sweep (inclusive)."""
-        rel = np.mod(angle - self.start + slack, 2.0 * np.pi) - slack
-        return rel <= self.sweep + slack
-
-    def moved(self, rot: np.ndarray, off: np.ndarray, scale: float) -> Arc:
-        """The arc after ``x -> rot @ x + off``, ``rot`` a rotation times ``scale``."""
-        c = rot @ np.array([self.cx, self.cy]) + off
-        turn = float(np.arctan2(rot[1, 0], rot[0, 0]))
-        return Arc(float(c[0]), float(c[1]), self.r * scale, self.start + turn, self.sweep)
-
-
 @dataclass(frozen=True, eq=False)
 class Profile:
     """A validated cross-section: non-overlapping solid regions with holes.
@@ -140,8 +106,9 @@ class Profile:
         Length unit of the coordinates, a key of :data:`LENGTH_UNITS`.
     notes : tuple of str
         Remarks made while reading (assumed units, repaired gaps...).
-    arcs : tuple of Arc
-        Circular arcs of the true outline (the loops are their polygon approximations).
+    arcs : tuple of Curve
+        Circular arcs (:class:`Arc`) and elliptical arcs (:class:`EllipseArc`) of the true
+        outline (the loops are their polygon approximations).
     warnings : tuple of str
         Doubts about the input every report must show (an implausible size for an assumed
         unit...), one line each.
@@ -151,7 +118,7 @@ class Profile:
     source: str = "<profile>"
     units: str = "mm"
     notes: tuple[str, ...] = field(default=())
-    arcs: tuple[Arc, ...] = field(default=())
+    arcs: tuple[Curve, ...] = field(default=())
     warnings: tuple[str, ...] = field(default=())
 
     @property
@@ -194,20 +161,19 @@ class Profile:
         ok = d <= 1e-9 * self.size
         boundary = geom.boundary
         for arc in self.arcs:
-            mid = arc.start + 0.5 * arc.sweep
-            out = np.array([math.cos(mid), math.sin(mid)])
-            m = np.array([arc.cx, arc.cy]) + arc.r * out  # the true arc's middle
+            m = arc.at(arc.start + 0.5 * arc.sweep)  # the true curve's middle
+            out = m - np.array([arc.cx, arc.cy])
+            out /= np.hypot(*out)
             # a step towards the centre past the chords (twice m's distance from them) lands in
-            # the material when it lies inside the circle, in the hole when outside it
-            step = 2.0 * boundary.distance(shapely.Point(*m)) + 1e-6 * arc.r
+            # the material when it lies inside the curve, in the hole when outside it
+            step = 2.0 * boundary.distance(shapely.Point(*m)) + 1e-6 * min(arc.a, arc.b)
             inward = m - step * out
-            rel = pts - np.array([arc.cx, arc.cy])
-            rho = np.hypot(rel[:, 0], rel[:, 1])
-            swept = arc.contains_angle(np.arctan2(rel[:, 1], rel[:, 0]))
-            if geom.covers(shapely.Point(*inward)):  # material inside the circle
-                ok |= (rho <= arc.r * (1.0 + 1e-9)) & swept & (d <= 0.1 * arc.r)
+            rho = arc.rho(pts)
+            swept = arc.contains_angle(arc.param(pts))
+            if geom.covers(shapely.Point(*inward)):  # material inside the curve
+                ok |= (rho <= 1.0 + 1e-9) & swept & (d <= 0.1 * min(arc.a, arc.b))
             else:  # material outside it (a round hole, an inside fillet)
-                ok &= ~((rho < arc.r * (1.0 - 1e-9)) & swept)
+                ok &= ~((rho < 1.0 - 1e-9) & swept)
         return ok
 
     def transformed(self, **kwargs: object) -> Profile:
@@ -266,7 +232,7 @@ def profile_from_loops(
     source: str = "<profile>",
     units: str = "mm",
     notes: Sequence[str] = (),
-    arcs: Sequence[Arc] = (),
+    arcs: Sequence[Curve] = (),
 ) -> Profile:
     """Build a validated profile from closed loops.
 
@@ -286,8 +252,8 @@ def profile_from_loops(
         Length unit, a key of :data:`LENGTH_UNITS`.
     notes : sequence of str
         Remarks carried into the profile.
-    arcs : sequence of Arc
-        Circular arcs the loops approximate (for curved element edges).
+    arcs : sequence of Curve
+        Circular and elliptical arcs the loops approximate (for curved element edges).
 
     Returns
     -------

@@ -9,16 +9,17 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
+from dataclasses import replace
 
 import numpy as np
 
+from ..geometry.curves import Arc, Curve, EllipseArc  # noqa: F401 (Arc: in the examples)
 from ..geometry.loops import signed_area
-from ..geometry.profile import Arc
 from .pieces import Chain, Piece
 
 
 def loop_points(chain: Chain, pieces: Sequence[Piece], chord_tolerance: float) -> tuple[
-        np.ndarray, tuple[Arc, ...]]:
+        np.ndarray, tuple[Curve, ...]]:
     """The polygon of a chain at a chord tolerance, and the arcs it runs along.
 
     Parameters
@@ -34,12 +35,12 @@ def loop_points(chain: Chain, pieces: Sequence[Piece], chord_tolerance: float) -
     -------
     points : numpy.ndarray
         Vertices (n, 2), drawing unit; for a closed chain the first point is not repeated.
-    arcs : tuple of Arc
-        Circular arcs of the pieces.
+    arcs : tuple of Curve
+        Circular and elliptical arcs of the pieces.
 
     """
     parts: list[np.ndarray] = []
-    arcs: list[Arc] = []
+    arcs: list[Curve] = []
     for k, (i, rev) in enumerate(chain.steps):
         pts = np.asarray(pieces[i].sample(chord_tolerance), dtype=float)
         if pieces[i].closed:
@@ -66,8 +67,8 @@ def chord_error(loops: Sequence[Chain], depths: Sequence[int], pieces: Sequence[
                 chord_tolerance: float) -> float:
     """Relative change of area when the curves of closed chains are drawn as chords.
 
-    Exact for circular arcs (the area of every circular segment cut off is known), an upper
-    bound for other curves (at most 2/3 of the tolerance times their length).
+    Exact for circular and elliptical arcs (the area of every segment cut off is known), an
+    upper bound for other curves (at most 2/3 of the tolerance times their length).
 
     Parameters
     ----------
@@ -105,23 +106,23 @@ def chord_error(loops: Sequence[Chain], depths: Sequence[int], pieces: Sequence[
     return (abs(exact - poly) + bound) / abs(exact) if exact else math.inf
 
 
-def arcs_for_mesh(arcs: Sequence[Arc], tol: float) -> tuple[Arc, ...]:
-    """Arcs as the mesher's curved edges take them: the arcs of one full circle merged.
+def arcs_for_mesh(arcs: Sequence[Curve], tol: float) -> tuple[Curve, ...]:
+    """Arcs as the mesher's curved edges take them: the arcs of one whole circle or ellipse merged.
 
-    Arcs of one circle (centre and radius within ``tol``) that together cover it become one
-    full circle (a circle drawn as two bulges, or as arcs between the points where lines
-    touch it); other arcs are kept as they are.
+    Arcs of one circle or ellipse (centre, semi-axes and axis direction within ``tol``) that
+    together cover it become one whole curve (a circle drawn as two bulges, an ellipse as two
+    halves, or arcs between the points where lines touch it); other arcs are kept as they are.
 
     Parameters
     ----------
-    arcs : sequence of Arc
+    arcs : sequence of Curve
         Arcs of the outline (radians, counter-clockwise sweeps).
     tol : float
-        Length within which two centres or radii are the same, drawing unit.
+        Length within which two centres or semi-axes are the same, drawing unit.
 
     Returns
     -------
-    tuple of Arc
+    tuple of Curve
 
     Examples
     --------
@@ -131,21 +132,26 @@ def arcs_for_mesh(arcs: Sequence[Arc], tol: float) -> tuple[Arc, ...]:
     True
     >>> len(arcs_for_mesh([Arc(0.0, 0.0, 1.0, 3.0, 0.5)], 1e-9))
     1
+    >>> turned = [EllipseArc(0.0, 0.0, 2.0, 1.0, 0.0, 0.0, math.pi),
+    ...           EllipseArc(0.0, 0.0, 2.0, 1.0, math.pi, 0.0, math.pi)]  # the same ellipse
+    >>> arcs_for_mesh(turned, 1e-9) == (EllipseArc(0.0, 0.0, 2.0, 1.0, 0.0, 0.0, 2 * math.pi),)
+    True
 
     """
     two_pi = 2.0 * math.pi
-    groups: dict[tuple[int, int, int], list[Arc]] = {}
+    groups: dict[tuple[int, ...], list[Curve]] = {}
     scale = max(tol, 1e-300)
-    for a in arcs:
-        key = (round(a.cx / scale), round(a.cy / scale), round(a.r / scale))
+    for a in map(_one_form, arcs):
+        key = (type(a).__name__, round(a.cx / scale), round(a.cy / scale), round(a.a / scale),
+               round(a.b / scale), round(a.rotation * a.a / scale))
         groups.setdefault(key, []).append(a)
-    out: list[Arc] = []
+    out: list[Curve] = []
     for members in groups.values():
-        full = [a for a in members if a.sweep >= two_pi - 1e-9]
+        full = [a for a in members if a.full]
         if full:
-            out.append(Arc(full[0].cx, full[0].cy, full[0].r, 0.0, two_pi))
+            out.append(replace(full[0], start=0.0, sweep=two_pi))
             continue
-        # covered angle ranges, from the first arc's start
+        # covered parameter ranges, from the first arc's start
         base = members[0].start
         spans = sorted((math.fmod(a.start - base, two_pi) % two_pi, a.sweep) for a in members)
         reach, covered = 0.0, True
@@ -155,8 +161,21 @@ def arcs_for_mesh(arcs: Sequence[Arc], tol: float) -> tuple[Arc, ...]:
                 break
             reach = max(reach, lo + sweep)
         if covered and reach >= two_pi - 1e-9:
-            a = members[0]
-            out.append(Arc(a.cx, a.cy, a.r, 0.0, two_pi))
+            out.append(replace(members[0], start=0.0, sweep=two_pi))
             continue
         out += members
     return tuple(out)
+
+
+def _one_form(curve: Curve) -> Curve:
+    """An ellipse arc written with its a-axis in [-pi/2, pi/2) from +x (the same points).
+
+    Turning the a-axis by pi negates both semi-axis vectors, i.e. shifts the parameter by pi.
+    """
+    if not isinstance(curve, EllipseArc):
+        return curve
+    turns = math.floor((curve.rotation + 0.5 * math.pi) / math.pi)
+    if turns == 0:
+        return curve
+    return replace(curve, rotation=curve.rotation - turns * math.pi,
+                   start=math.fmod(curve.start + turns * math.pi, 2.0 * math.pi))

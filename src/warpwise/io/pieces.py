@@ -2,8 +2,8 @@
 
 A :class:`Piece` carries its end points, a sampling function and a label for messages, so the
 same code serves any source of loose curves; a :class:`Chain` lists pieces joined end to end.
-:func:`line_piece`, :func:`arc_piece`, :func:`polyline_piece` (with :func:`bulge_arc`) and
-:func:`point_piece` make the common pieces.
+:func:`line_piece`, :func:`arc_piece`, :func:`ellipse_piece`, :func:`polyline_piece` (with
+:func:`bulge_arc`) and :func:`point_piece` make the common pieces.
 
 Examples
 --------
@@ -21,7 +21,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..geometry.profile import Arc
+from ..geometry.curves import Arc, Curve, EllipseArc
 
 #: Largest angle an arc chord may span, radians (at least 48 chords in a full circle), so that
 #: an outline keeps its shape where the chord tolerance alone would allow long chords.
@@ -51,8 +51,8 @@ class Piece:
         ``sample`` gives, positive where the curve lies to the right of its chords (so that a
         counter-clockwise loop gains it); None when not known (then at most 2/3 of the
         tolerance times ``curved_length``), drawing unit squared.
-    arcs : tuple of Arc
-        Circular arcs the piece runs along.
+    arcs : tuple of Curve
+        Circular and elliptical arcs the piece runs along.
     closed : bool
         True for a piece closed on itself (a circle, a closed polyline).
     layer : str
@@ -68,7 +68,7 @@ class Piece:
     sample: Callable[[float], np.ndarray]
     curved_length: float = 0.0
     chord_area: Callable[[float], float] | None = None
-    arcs: tuple[Arc, ...] = ()
+    arcs: tuple[Curve, ...] = ()
     closed: bool = False
     layer: str = "0"
     label: str = "piece"
@@ -150,32 +150,96 @@ def arc_piece(c: np.ndarray, r: float, t0: float, sweep: float, layer: str = "0"
 
     """
     c = np.asarray(c, dtype=float)
-    start = c + r * np.array([math.cos(t0), math.sin(t0)])
-    end = start if closed else c + r * np.array([math.cos(t0 + sweep), math.sin(t0 + sweep)])
-    mid = c + r * np.array([math.cos(t0 + 0.5 * sweep), math.sin(t0 + 0.5 * sweep)])
     lo = t0 + min(sweep, 0.0)
     arc = Arc(float(c[0]), float(c[1]), float(r), float(math.fmod(lo, 2 * math.pi)), float(abs(sweep)))
 
+    def at(t: np.ndarray) -> np.ndarray:
+        return c + r * np.column_stack([np.cos(t), np.sin(t)])
+
+    return _conic_piece(arc, at, t0, sweep, layer, label, closed)
+
+
+def ellipse_piece(c: np.ndarray, u: np.ndarray, v: np.ndarray, t0: float, sweep: float,
+                  layer: str = "0", label: str = "ELLIPSE", closed: bool = False) -> Piece:
+    """An elliptical arc ``c + u cos t + v sin t`` from parameter t0 by a signed sweep, as a piece.
+
+    Parameters
+    ----------
+    c : numpy.ndarray
+        Centre (2,), drawing unit.
+    u, v : numpy.ndarray
+        Perpendicular semi-axes (2,), drawing unit; v is u turned counter-clockwise (a pair
+        turned the other way is taken as the same ellipse run backwards).
+    t0 : float
+        Parameter of the start point, radians.
+    sweep : float
+        Signed parameter sweep, radians (positive from u towards v); 2 pi with ``closed`` for
+        a whole ellipse.
+    layer, label : str
+        For messages.
+    closed : bool
+        A whole ellipse.
+
+    Returns
+    -------
+    Piece
+        Sampled like :func:`arc_piece`, vertices on the ellipse at equal parameter steps,
+        with the :class:`~warpwise.geometry.EllipseArc` it runs along.
+
+    Examples
+    --------
+    >>> e = ellipse_piece(np.zeros(2), np.array([2.0, 0.0]), np.array([0.0, 1.0]), 0.0, np.pi)
+    >>> bool(np.allclose(e.end, (-2.0, 0.0))), e.arcs[0].a, e.arcs[0].b, round(e.length, 9)
+    (True, 2.0, 1.0, 4.84422411)
+
+    """
+    c, u, v = (np.asarray(x, dtype=float) for x in (c, u, v))
+    if u[0] * v[1] - u[1] * v[0] < 0:  # clockwise pair: the same points, parameter negated
+        v, t0, sweep = -v, -t0, -sweep
+    lo = t0 + min(sweep, 0.0)
+    curve = EllipseArc(float(c[0]), float(c[1]), float(np.hypot(*u)), float(np.hypot(*v)),
+                       float(math.atan2(u[1], u[0])), float(math.fmod(lo, 2 * math.pi)),
+                       float(abs(sweep)))
+
+    def at(t: np.ndarray) -> np.ndarray:
+        return c + np.cos(t)[:, None] * u + np.sin(t)[:, None] * v
+
+    return _conic_piece(curve, at, t0, sweep, layer, label, closed)
+
+
+def _conic_piece(curve: Curve, at: Callable[[np.ndarray], np.ndarray], t0: float, sweep: float,
+                 layer: str, label: str, closed: bool) -> Piece:
+    """A piece along a circle or ellipse ``at(t)``, from parameter t0 by a signed sweep.
+
+    Chords at equal parameter steps: in the curve's scaled frame (the unit circle) a step h
+    has the sagitta 1 - cos(h / 2), at most max(a, b) times that in the drawing, and cuts off
+    the segment a b (h - sin h) / 2 (an affine image of the circle's).
+    """
+    reach = max(curve.a, curve.b)
+    start = at(np.array([t0]))[0]
+    end = start if closed else at(np.array([t0 + sweep]))[0]
+    mid = at(np.array([t0 + 0.5 * sweep]))[0]
+
     def chords(s: float) -> int:
-        step = MAX_ARC_STEP if s >= r else min(MAX_ARC_STEP, 2.0 * math.acos(1.0 - s / r))
+        step = MAX_ARC_STEP if s >= reach else min(MAX_ARC_STEP, 2.0 * math.acos(1.0 - s / reach))
         n = max(1, math.ceil(abs(sweep) / step - 1e-9))
         return 4 * math.ceil(n / 4) if closed else n
 
     def sample(s: float) -> np.ndarray:
         n = chords(s)
-        t = t0 + sweep * np.arange(n if closed else n + 1) / n
-        pts = c + r * np.column_stack([np.cos(t), np.sin(t)])
+        pts = at(t0 + sweep * np.arange(n if closed else n + 1) / n)
         if not closed:
             pts[0], pts[-1] = start, end
         return pts
 
     def chord_area(s: float) -> float:
         n = chords(s)
-        return math.copysign(0.5 * r * r * (abs(sweep) - n * math.sin(abs(sweep) / n)), sweep)
+        return math.copysign(0.5 * curve.segment_area_factor * (abs(sweep) - n * math.sin(abs(sweep) / n)),
+                             sweep)
 
-    length = abs(sweep) * r
+    length = float(curve.length(curve.start, curve.start + curve.sweep))
     return Piece(tuple(start), tuple(end), tuple(mid), length, sample, curved_length=length,
-                 chord_area=chord_area, arcs=(arc,), closed=closed, layer=layer, label=label)
+                 chord_area=chord_area, arcs=(curve,), closed=closed, layer=layer, label=label)
 
 
 def bulge_arc(p: np.ndarray, q: np.ndarray, bulge: float) -> tuple:
@@ -229,7 +293,7 @@ def polyline_piece(segs: Sequence[tuple], closed: bool, layer: str, label: str) 
 
     """
     parts: list = []
-    arcs: list[Arc] = []
+    arcs: list[Curve] = []
     length = curved = 0.0
     for s in segs:
         if s[0] == "line":

@@ -13,7 +13,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from ..fem.p2 import ElementValues, integrate
-from ..geometry.profile import Arc
+from ..geometry.curves import Curve
 from ..mesh.core import Mesh
 
 
@@ -86,22 +86,22 @@ def _moduli(
     return wel, fib
 
 
-def arc_extremes(arcs: tuple[Arc, ...], alpha: float) -> np.ndarray:
-    """Points of the arcs farthest along +-x, +-y and +-the axes at ``alpha`` (radians), (k, 2).
+def arc_extremes(arcs: tuple[Curve, ...], alpha: float) -> np.ndarray:
+    """Points of the curves farthest along +-x, +-y and +-the axes at ``alpha`` (radians), (k, 2).
 
-    Between two mesh nodes an arc bulges beyond both; these points make the extreme fibres
-    exact on true circles. Only points within each arc's sweep are returned, drawing unit.
+    Between two mesh nodes a circular or elliptical arc bulges beyond both; these points make
+    the extreme fibres exact on the true curves. Only points within each arc's sweep are
+    returned, drawing unit.
     """
     if not arcs:
         return np.empty((0, 2))
     turns = np.concatenate([np.arange(4) * 0.5 * np.pi, alpha + np.arange(4) * 0.5 * np.pi])
-    pts = [np.stack([a.cx + a.r * np.cos(turns), a.cy + a.r * np.sin(turns)], axis=1)
-           [a.contains_angle(turns)] for a in arcs]
-    return np.vstack(pts)
+    directions = np.stack([np.cos(turns), np.sin(turns)], axis=1)
+    return np.vstack([a.farthest(directions) for a in arcs])
 
 
 def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
-                         weight: np.ndarray | None = None, *, arcs: tuple[Arc, ...] = ()
+                         weight: np.ndarray | None = None, *, arcs: tuple[Curve, ...] = ()
                          ) -> tuple[GeometricProperties, ElementValues]:
     """Area, centroid, second moments, principal axes, moduli and radii of gyration.
 
@@ -116,9 +116,9 @@ def geometric_properties(mesh: Mesh, ev: ElementValues, origin: np.ndarray,
     weight : numpy.ndarray, optional
         Element-wise modulus ratio E / E_ref (m,): the properties are then those of the
         transformed section (modulus-weighted, about the modulus-weighted centroid).
-    arcs : tuple of Arc
-        True arcs of the outline (:attr:`Profile.arcs`): the extreme fibres include their
-        farthest points, not only the mesh nodes.
+    arcs : tuple of Curve
+        True circular and elliptical arcs of the outline (:attr:`Profile.arcs`): the extreme
+        fibres include their farthest points, not only the mesh nodes.
 
     Returns
     -------

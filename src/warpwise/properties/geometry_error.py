@@ -1,7 +1,7 @@
 """The error a result owes to its meshed outline: curved element edges against the true curves.
 
-Where the outline follows a recorded arc, each boundary element edge is the quadratic through
-three points of the arc: between them it lies a little inside or outside the true curve. The
+Where the outline follows a recorded arc (of a circle or an ellipse), each boundary element
+edge is the quadratic through three points of the arc: between them it lies a little inside or outside the true curve. The
 mesh then describes a slightly different section, and no refinement of the interior sees that
 difference. This module measures it: Gauss points along every such edge, the offset dn of the
 true curve from the edge along the edge's outward normal (positive where the true section has
@@ -40,14 +40,14 @@ import numpy as np
 
 from ..fem.p2 import assemble_vector, interpolate, shape_functions
 from ..fem.points import Located, gradient_at, value_at
-from ..geometry.profile import Arc
+from ..geometry.curves import Curve
 from ..mesh.core import Mesh
 from ..mesh.edges import LOCAL_EDGES
 
 #: Gauss-Legendre points along each curved boundary edge (the offset is a smooth quartic-like
 #: sliver; 6 points integrate its products with the quadratic fields to round-off).
 EDGE_POINTS = 6
-#: A node is on an arc when its distance from the circle is below this fraction of the radius.
+#: A node is on a curve when its radius in the curve's scaled frame is within this of 1.
 ON_CURVE = 1e-9
 
 
@@ -86,22 +86,20 @@ def _edge_owners(mesh: Mesh, edge_ids: np.ndarray) -> tuple[np.ndarray, np.ndarr
     return pos // 3, pos % 3
 
 
-def _on_arc(points: np.ndarray, arc: Arc) -> np.ndarray:
-    """True where points (k, 2) lie on the arc (on its circle and within its sweep)."""
-    d = points - np.array([arc.cx, arc.cy])
-    r = np.hypot(d[:, 0], d[:, 1])
-    return (np.abs(r - arc.r) <= ON_CURVE * arc.r) & arc.contains_angle(np.arctan2(d[:, 1], d[:, 0]))
+def _on_curve(points: np.ndarray, curve: Curve) -> np.ndarray:
+    """True where points (k, 2) lie on the curve (on its circle or ellipse, within its sweep)."""
+    return (np.abs(curve.rho(points) - 1.0) <= ON_CURVE) & curve.contains_angle(curve.param(points))
 
 
-def outline_offsets(mesh: Mesh, arcs: tuple[Arc, ...]) -> OutlineOffsets:
-    """Gauss points on the boundary edges that follow an arc, with the true curve's offset.
+def outline_offsets(mesh: Mesh, arcs: tuple[Curve, ...]) -> OutlineOffsets:
+    """Gauss points on the boundary edges that follow a curve, with the true curve's offset.
 
     Parameters
     ----------
     mesh : Mesh
         A six-node mesh whose boundary nodes on arcs lie on them (as built).
-    arcs : tuple of Arc
-        The recorded arcs of the profile.
+    arcs : tuple of Curve
+        The recorded circular and elliptical arcs of the profile.
 
     Returns
     -------
@@ -118,7 +116,7 @@ def outline_offsets(mesh: Mesh, arcs: tuple[Arc, ...]) -> OutlineOffsets:
     for arc in arcs:
         on = ~taken
         for k in range(3):
-            on &= _on_arc(mesh.nodes[nodes[:, k]], arc)
+            on &= _on_curve(mesh.nodes[nodes[:, k]], arc)
         taken |= on
         if not on.any():
             continue
@@ -137,10 +135,9 @@ def outline_offsets(mesh: Mesh, arcs: tuple[Arc, ...]) -> OutlineOffsets:
         ds = np.hypot(tangent[:, 0], tangent[:, 1])
         # material on the left of the element's counter-clockwise edge: outward is the right
         outward = np.column_stack([tangent[:, 1], -tangent[:, 0]]) / ds[:, None]
-        c = np.array([arc.cx, arc.cy])
-        d = xy - c
-        r = np.hypot(d[:, 0], d[:, 1])
-        true = c + d * (arc.r / r)[:, None]
+        # the curve's point where the mesh puts nodes (radial in its scaled frame); its
+        # component along the normal is the offset, to first order
+        true = arc.onto(xy)
         parts.append((np.repeat(e, len(s)), ref.reshape(-1, 2), xy, np.tile(w, len(e)) * ds,
                       np.einsum("pi,pi->p", true - xy, outward)))
     if not parts:

@@ -91,8 +91,8 @@ _TABLE: dict[str, tuple[tuple, ...]] = {
         ("yc", "yc", "centroid, y", 1, "integral of y dA / A, drawing coordinates"),
     ),
     "Outline": (
-        ("width", "b", "overall width", 1, "xmax - xmin, the true arcs included"),
-        ("height", "h", "overall height", 1, "ymax - ymin, the true arcs included"),
+        ("width", "b", "overall width", 1, "xmax - xmin, the true arcs and ellipses included"),
+        ("height", "h", "overall height", 1, "ymax - ymin, the true arcs and ellipses included"),
         ("c_top", "c,y+", "extreme fibre above the centroid", 1, "ymax - yc"),
         ("c_bottom", "c,y-", "extreme fibre below the centroid", 1, "yc - ymin"),
         ("c_right", "c,x+", "extreme fibre right of the centroid", 1, "xmax - xc"),

@@ -3,11 +3,12 @@
 Every function returns a validated :class:`~warpwise.geometry.Profile`. Straight edges are
 exact; every circular arc (fillet, bend, corner radius, circle) is a polygon of chords whose
 sagitta is at most :data:`ARC_SAGITTA` of the profile's largest dimension, *and* is recorded as
-an :class:`~warpwise.geometry.Arc`, so that the mesh puts its boundary nodes on the true curve
-(curved element edges) and the computed properties are those of the curved outline.
+an :class:`~warpwise.geometry.Arc` (the ellipses as an :class:`~warpwise.geometry.EllipseArc`),
+so that the mesh puts its boundary nodes on the true curve (curved element edges) and the
+computed properties are those of the curved outline.
 
 The modules: :mod:`.dimensions` checks dimensions, :mod:`.outline` cuts arcs into chords and
-rounds corners, :mod:`.bars` holds the solid bars and the tube, :mod:`.rolled` the open sections
+rounds corners, :mod:`.bars` holds the solid bars and the tubes, :mod:`.rolled` the open sections
 of a web and flanges, :mod:`.constant_thickness` the hollow and bent sections of one wall
 thickness, and :mod:`.specs` the table of shapes, the spec parser and the listing.
 
@@ -18,6 +19,8 @@ shape               origin
 ==================  ===================================================================
 rectangle           centroid (centre)
 circle, tube        centre of the circle
+ellipse,            centre; semi-axis a along x, b along y
+hollow_ellipse
 hollow_rectangle    centroid (centre)
 i_beam              centroid (centre); web along y, flanges along x
 channel             back of the web on x = 0, mid-depth on y = 0; flanges towards +x
@@ -49,7 +52,17 @@ Examples
 
 """
 
-from .bars import circle, ellipse, ellipse_points, hexagon, polygon, rectangle, shaft_with_keyway, tube
+from .bars import (
+    circle,
+    ellipse,
+    ellipse_points,
+    hexagon,
+    hollow_ellipse,
+    polygon,
+    rectangle,
+    shaft_with_keyway,
+    tube,
+)
 from .constant_thickness import channel_with_lips, hollow_rectangle, z_shape
 from .outline import ARC_MAX_STEP_DEG, ARC_SAGITTA, arc_segments, rounded_loop
 from .rolled import angle, channel, i_beam, tee
@@ -57,6 +70,6 @@ from .specs import SHAPE_KINDS, SHAPES, ShapeKind, ShapeParameter, describe_shap
 
 __all__ = ["ARC_MAX_STEP_DEG", "ARC_SAGITTA", "SHAPES", "SHAPE_KINDS", "ShapeKind", "ShapeParameter",
            "angle", "arc_segments", "channel", "channel_with_lips", "circle", "describe_shapes",
-           "ellipse", "ellipse_points", "hexagon", "hollow_rectangle", "i_beam", "polygon",
+           "ellipse", "ellipse_points", "hexagon", "hollow_ellipse", "hollow_rectangle", "i_beam", "polygon",
            "rectangle", "rounded_loop", "shaft_with_keyway", "shape_from_spec", "tee", "tube",
            "z_shape"]

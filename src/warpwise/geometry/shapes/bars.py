@@ -1,4 +1,4 @@
-"""Solid bars and the circular tube: rectangle, polygon, ellipse, circle, tube, hexagon, shaft with keyway."""
+"""Solid bars and tubes: rectangle, polygon, ellipse, hollow ellipse, circle, tube, hexagon, keyed shaft."""
 
 from __future__ import annotations
 
@@ -8,7 +8,8 @@ from collections.abc import Sequence
 import numpy as np
 
 from ...errors import ProfileError
-from ..profile import Arc, Profile
+from ..curves import Arc, EllipseArc
+from ..profile import Profile
 from .dimensions import check_positive, check_sizes, require
 from .outline import arc_points, shape_profile
 
@@ -81,26 +82,75 @@ def ellipse_points(a: float, b: float, segments: int, centre: tuple[float, float
     return np.column_stack([centre[0] + a * np.cos(t), centre[1] + b * np.sin(t)])
 
 
-def ellipse(a: float, b: float, *, segments: int = 256, units: str = "mm") -> Profile:
+def ellipse(a: float, b: float, *, segments: int = 256, units: str = "mm",
+            curved: bool = True) -> Profile:
     """Solid ellipse with semi-axes a (along x) and b (along y), centred on the origin.
+
+    With ``curved`` the mesh's boundary nodes lie on the true ellipse (curved element edges);
+    otherwise the section is the inscribed polygon of ``segments`` sides.
 
     Parameters
     ----------
     a, b : float
         Semi-axes, drawing unit.
     segments : int
-        Vertices of the inscribed polygon (an ellipse is not a circle: the mesh keeps the
-        polygon, with straight edges).
+        Vertices of the polygon of the outline, at equal parameter steps.
     units : str
         Length unit.
+    curved : bool
+        Record the ellipse so that the mesh follows it.
 
     Returns
     -------
     Profile
 
+    Examples
+    --------
+    >>> e = ellipse(20.0, 10.0)
+    >>> (e.arcs[0].a, e.arcs[0].b), len(ellipse(20.0, 10.0, curved=False).arcs)
+    ((20.0, 10.0), 0)
+
     """
     check_positive(a=a, b=b)
-    return shape_profile("ellipse", [ellipse_points(a, b, segments)], [], units, a=a, b=b)
+    arcs = [EllipseArc(0.0, 0.0, float(a), float(b))] if curved else []
+    return shape_profile("ellipse", [ellipse_points(a, b, segments)], arcs, units, a=a, b=b)
+
+
+def hollow_ellipse(a: float, b: float, ai: float, bi: float, *, segments: int = 256,
+                   units: str = "mm", curved: bool = True) -> Profile:
+    """Hollow ellipse: outer semi-axes a (along x), b (along y), inner ai, bi, both centred on the origin.
+
+    Parameters
+    ----------
+    a, b : float
+        Outer semi-axes, drawing unit.
+    ai, bi : float
+        Inner semi-axes (ai < a, bi < b), drawing unit; ``ai = k a, bi = k b`` for the hollow
+        ellipse of similar ellipses.
+    segments : int
+        Vertices of each polygon, at equal parameter steps.
+    units : str
+        Length unit.
+    curved : bool
+        Record the ellipses so that the mesh follows them.
+
+    Returns
+    -------
+    Profile
+
+    Examples
+    --------
+    >>> round(hollow_ellipse(20.0, 10.0, 14.0, 7.0, segments=1024).area / (np.pi * 200 * 0.51), 4)
+    1.0
+
+    """
+    check_positive(a=a, b=b, ai=ai, bi=bi)
+    require(ai < a and bi < b, "hollow ellipse", f"the inner ellipse (ai={ai:g}, bi={bi:g}) must lie "
+            f"inside the outer one (a={a:g}, b={b:g})")
+    loops = [ellipse_points(a, b, segments), ellipse_points(ai, bi, segments)]
+    arcs = [EllipseArc(0.0, 0.0, float(a), float(b)), EllipseArc(0.0, 0.0, float(ai), float(bi))]
+    return shape_profile("hollow ellipse", loops, arcs if curved else [], units, a=a, b=b,
+                         ai=ai, bi=bi)
 
 
 def _circles(diameters: Sequence[float], segments: int, curved: bool

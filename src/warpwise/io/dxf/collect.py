@@ -19,7 +19,15 @@ from ...errors import InputFileError
 from ...geometry.loops import MAX_COORDINATE
 from ..defects import WARNING, Defect, fmt_point
 from ..options import MAX_ENTITIES
-from ..pieces import Piece, arc_piece, bulge_arc, line_piece, point_piece, polyline_piece
+from ..pieces import (
+    Piece,
+    arc_piece,
+    bulge_arc,
+    ellipse_piece,
+    line_piece,
+    point_piece,
+    polyline_piece,
+)
 from ..progress import ProgressLine
 
 
@@ -118,6 +126,18 @@ class PieceCollector:
                       layer=layer)
             return
         self.add(arc_piece(c, r, t0, sweep, layer, label, closed))
+
+    def ellipse(self, c: np.ndarray, u: np.ndarray, v: np.ndarray, t0: float, sweep: float,
+                layer: str, label: str, closed: bool = False) -> None:
+        """Ellipse arc c + u cos t + v sin t (drawing coordinates) from t0 by a signed sweep (radians)."""
+        c, u, v = c * self.f, u * self.f, v * self.f
+        size = max(float(np.hypot(*u)), float(np.hypot(*v)))
+        if not (np.all(np.isfinite(np.concatenate([c, u, v]))) and size > 0
+                and min(float(np.hypot(*u)), float(np.hypot(*v))) > 1e-12 * size):
+            self.warn("unreadable", f"{label} on layer {layer} has no valid axes: left out",
+                      layer=layer)
+            return
+        self.add(ellipse_piece(c, u, v, t0, sweep, layer, label, closed))
 
     def polyline(self, xy: np.ndarray, bulges: np.ndarray, closed: bool, sign: float, layer: str,
                  label: str) -> None:

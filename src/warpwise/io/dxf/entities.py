@@ -116,20 +116,9 @@ def read_ellipse(out: PieceCollector, e: object, layer: str, label: str, depth: 
         p0 = np.asarray(tuple(ct.start_point), dtype=float)[:2]
         t0 = 0.0 if full else math.atan2(p0[1] - c[1], p0[0] - c[0])
         return out.arc(c, r, t0, 2 * math.pi if full else sign * span, layer, label, closed=full)
-    f = out.f
-    size = float(np.linalg.norm(major)) * f
-
-    def sample(s: float, ct=ct) -> np.ndarray:
-        tol = max(s / f, 1e-12 * size / f)
-        pts = np.array([(v.x, v.y) for v in ct.flattening(tol, segments=16)]) * f
-        return pts[:-1] if full else pts
-
-    pts = sample(1e-5 * size)
-    start, end = tuple(pts[0]), tuple(pts[0] if full else pts[-1])
-    probe = tuple(pts[len(pts) // 2])
-    length = float(np.sum(np.hypot(*np.diff(np.vstack([pts, pts[:1]]) if full else pts, axis=0).T)))
-    out.add(Piece(start, end, probe, length, sample, curved_length=length, closed=full,
-                  layer=layer, label=label))
+    u, v = major[:2], np.asarray(tuple(ct.minor_axis), dtype=float)[:2]
+    t0 = float(ct.start_param)
+    out.ellipse(c, u, v, t0, 2 * math.pi if full else span, layer, label, closed=full)
 
 
 def read_spline(out: PieceCollector, e: object, layer: str, label: str, depth: int = 0) -> None:
