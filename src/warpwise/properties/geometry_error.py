@@ -1,12 +1,12 @@
 """The error a result owes to its meshed outline: curved element edges against the true curves.
 
 Where the outline follows a recorded arc (of a circle or an ellipse), each boundary element
-edge is the quadratic through three points of the arc: between them it lies a little inside or outside the true curve. The
-mesh then describes a slightly different section, and no refinement of the interior sees that
-difference. This module measures it: Gauss points along every such edge, the offset dn of the
-true curve from the edge along the edge's outward normal (positive where the true section has
-material the mesh lacks), and the first-order change of each value when the boundary moves by
-dn (the shape derivative):
+edge is the quadratic through three points of the arc: between them it lies a little inside or
+outside the true curve. The mesh then describes a slightly different section, and no
+refinement of the interior sees that difference. This module measures it: Gauss points along
+every such edge, the offset dn of the true curve from the edge along the edge's outward normal
+(positive where the true section has material the mesh lacks), and the first-order change of
+each value when the boundary moves by dn (the shape derivative):
 
 - an area integral int f dA changes by the boundary integral of f dn;
 - J = min over psi of int |grad psi - p|^2 dA, p = (y, -x) about the centroid, is an energy
