@@ -115,8 +115,7 @@ from scipy.special import roots_legendre
 from test_beam_shear_coefficient import thin_walled_shear_area
 from test_skfem_reference import skfem_section
 
-from warpwise.geometry.profile import profile_from_loops
-from warpwise.geometry.shapes import ellipse_points, hollow_rectangle, i_beam, polygon
+from warpwise.geometry.shapes import hollow_ellipse, hollow_rectangle, i_beam, polygon
 from warpwise.geometry.shapes.outline import arc_points, rounded_loop, shape_profile
 from warpwise.mesh.core import build_mesh
 from warpwise.properties.analysis import analyse
@@ -309,10 +308,9 @@ def hollow_ellipse_reference(a: float, b: float, k: float) -> dict:
             "Cw": kappa**2 * math.pi * a**3 * b**3 / 24.0 * (1.0 - k**6)}
 
 
-def hollow_ellipse_profile(a: float, b: float, k: float, segments: int = 256):
-    """The two ellipses as polygons of ``segments`` vertices (the shapes' ellipse default)."""
-    return profile_from_loops([ellipse_points(a, b, segments), ellipse_points(k * a, k * b, segments)],
-                              source=f"hollow ellipse a={a:g} b={b:g} k={k:g}")
+def hollow_ellipse_profile(a: float, b: float, k: float):
+    """The two ellipses as recorded curves that the mesh follows (the shape's default)."""
+    return hollow_ellipse(a, b, k * a, k * b)
 
 
 def triangle_integral(corners: np.ndarray, fun, order: int = 8) -> float:
