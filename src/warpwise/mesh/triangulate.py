@@ -132,7 +132,9 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
         pts, sub = _graded(pts, sub, obtuse, OBTUSE_SIZE_FACTOR * h / refine_level, h, False)
     if corners:
         pts, sub = _graded(pts, sub, corners, CORNER_SIZE_FACTOR * h / refine_level, h)
-    check_mesh_budget(len(pts), len(corners) + len(obtuse), part, full, h, max_elements)
+    # the message names the sharp corners, whose grading can run away with the points (the
+    # convex ones, right angles included, are graded to a fixed fraction of h)
+    check_mesh_budget(len(pts), len(corners), part, full, h, max_elements)
     info = triangle.MeshInfo()
     info.set_points(pts)
     info.set_facets(sub)
