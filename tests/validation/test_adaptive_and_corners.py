@@ -102,27 +102,28 @@ def first_uniform(sweep, tolerance):
 
 
 # Measured (reference J = 11724.42482; the stopping bound is the equilibrated-flux bracket).
-# The default mesh (0.0625 sqrt(A), right-angled corners graded) already has 2.4e-5 at 2955
-# nodes, so a tolerance of 1e-4 (the loosest once asked here) is met by the first mesh and
-# shows nothing about adaptivity; the tolerances are those the default mesh misses:
-#   1e-5: adaptive 3 steps, 4121 nodes, true error 5.7e-6, bound 6.6e-6; uniform first below
-#         1e-5 at refine 2, 9245 nodes (3.9e-6; refine 1.68, 6631 nodes, has 1.15e-5).
-#         Saving 2.2x.
-#   3e-6: adaptive 4 steps, 5489 nodes, true 2.3e-6, bound 2.8e-6; uniform first below 3e-6 at
-#         refine 2.38, 12547 nodes (2.9e-6). Saving 2.3x.
-#   (Before the default mesh was halved: 1e-4 in 3 steps, 1829 nodes against uniform 2265;
-#   1e-5 in 5 steps, 3085 nodes against 6713.)
+# The default mesh (0.0625 sqrt(A), right-angled corners graded, sharp corners at 0.02 of the
+# local size) already has 2.0e-5 at 3105 nodes, so a tolerance of 1e-4 (the loosest once
+# asked here) is met by the first mesh and shows nothing about adaptivity; the tolerances are
+# those the default mesh misses:
+#   1e-5: adaptive 2 steps, 3741 nodes, true error 7.2e-6, bound 8.3e-6; uniform first below
+#         1e-5 at refine 1.41, 5409 nodes (7.1e-6). Saving 1.45x.
+#   5e-6: adaptive 3 steps, 4941 nodes, true 2.7e-6, bound 3.2e-6; uniform first below 5e-6 at
+#         refine 1.68, 6927 nodes (4.8e-6). Saving 1.40x.
+#   (With the earlier default, 0.125 sqrt(A), right angles ungraded, sharp corners at 0.05:
+#   1e-4 in 3 steps, 1829 nodes against uniform 2265; 1e-5 in 5 steps, 3085 nodes against
+#   6713. The stronger grading of the default mesh leaves adaptivity less to win.)
 # The recovered-gradient indicator still steers the refinement: the flux bound's element
 # indicators (whose sum is the bracket width) were tried in its place on the earlier default
 # mesh and gave 1353 and 3717 nodes, 0.74x and 1.2x the adaptive counts then, and as mixed a
 # picture on an angle, a hollow square, a rectangle and a thin box (0.77x ... 1.53x), so the
 # switch was not made.
 # Bounds: the reference's own uncertainty (5e-7) is allowed on top of the tolerance; saving
-# asserted as measured minus a margin, 1.8x.
-TOLERANCES = (1e-5, 3e-6)
+# asserted as measured minus a margin, 1.3x.
+TOLERANCES = (1e-5, 5e-6)
 
 
-@pytest.mark.parametrize("tolerance, saving", [(1e-5, 1.8), (3e-6, 1.8)])
+@pytest.mark.parametrize("tolerance, saving", [(1e-5, 1.3), (5e-6, 1.3)])
 def test_adaptive_beats_uniform(reference, uniform_sweep, tolerance, saving):
     ref, half = reference
     run = refine_adaptively(L_SHAPE, tolerance)
