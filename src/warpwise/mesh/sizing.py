@@ -2,7 +2,8 @@
 
 Every boundary segment is split to a length tied to the local wall thickness measured across
 the material (:func:`wall_thickness`), so a thin wall gets at least two elements through its
-thickness; near sharp re-entrant corners the points are graded towards the corner.
+thickness; near sharp re-entrant corners, and near right-angled and obtuse convex ones, the
+points are graded towards the corner.
 """
 
 from __future__ import annotations
@@ -22,11 +23,12 @@ ELEMENTS_ACROSS_WALL = 2.5
 #: 9103 nodes), 3.8e-5 / 7.8e-6 (0.02, 3211 / 9385), 3.3e-5 / 7.1e-6 (0.01, 3383 / 9477): 0.02
 #: brings fine under 1e-5 for 3 % more nodes.
 CORNER_SIZE_FACTOR = 0.02
-#: Element size at an obtuse convex corner (geometry.corners.OBTUSE_RANGE_DEG), as a fraction of
-#: the largest size h. Measured at the default mesh against refine 8, Cw of a 24 mm hexagon
-#: bar: -1.1e-3 (0.2), -7.2e-4 (0.15, 1189 nodes), -9.4e-4 (0.1), +1.1e-2 ungraded; of a 24 mm
-#: octagon: -1.7e-3 (0.2, 0.15), -1.5e-3 (0.1), +1.8e-2 ungraded (what is left there is the
-#: interior's resolution, not the corners').
+#: Element size at a right-angled or obtuse convex corner (geometry.corners.OBTUSE_RANGE_DEG),
+#: as a fraction of the largest size h. Measured at a mesh of 0.125 sqrt(A) against refine 8,
+#: Cw of a 24 mm hexagon bar: -1.1e-3 (0.2), -7.2e-4 (0.15, 1189 nodes), -9.4e-4 (0.1),
+#: +1.1e-2 ungraded; of a 24 mm octagon: +8.8e-3 (0.5), -2.3e-3 (0.3), -1.3e-3 (0.15),
+#: -1.7e-3 (0.07), -1.6e-3 (0.03), +2.6e-2 ungraded (what is left there is the interior's
+#: resolution, not the corners': DEFAULT_MESH_FRACTION).
 OBTUSE_SIZE_FACTOR = 0.15
 #: Growth of the element size with distance from a sharp re-entrant corner.
 CORNER_GRADING = 0.3
