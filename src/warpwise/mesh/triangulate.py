@@ -86,6 +86,10 @@ def check_mesh_budget(points: int, corners: int, part: Profile, full: Profile, h
                          f"{_LIMIT_ADVICE}; --max-elements N lifts the limit", file=full.source)
 
 
+#: Area bounds below this (drawing unit squared) are handed to Triangle at a larger scale.
+SMALL_AREA_BOUND = 1e-8
+
+
 def _graded(pts: np.ndarray, sub: np.ndarray, corners: list, size: float, h: float,
             local: bool = True) -> tuple[np.ndarray, np.ndarray]:
     """Boundary points graded towards ``corners``.
@@ -140,24 +144,31 @@ def triangulate(part: Profile, full: Profile, h: float, min_angle: float, across
         pts, sub = _graded(pts, sub, obtuse, OBTUSE_SIZE_FACTOR * h / refine_level, h, False)
     if corners:
         pts, sub = _graded(pts, sub, corners, CORNER_SIZE_FACTOR * h / refine_level, h)
-    check_mesh_budget(len(pts), len(corners) + len(obtuse), part, full, h, max_elements)
+    # the message names the sharp corners, whose grading can run away with the points (the
+    # convex ones, right angles included, are graded to a fixed fraction of h)
+    check_mesh_budget(len(pts), len(corners), part, full, h, max_elements)
+    # Triangle is handed the area bound as text with 20 decimals, which rounds the bound of a
+    # tiny profile (1e-9 mm across: 1.7e-21) to zero; below SMALL_AREA_BOUND mesh at a
+    # power-of-two scale that makes h about 1 (exact in floating point) and scale the nodes
+    # back (above it the bound keeps 12 digits and the mesh is left as Triangle makes it)
+    scale = 1.0 if h * h >= SMALL_AREA_BOUND else float(2.0 ** -np.round(np.log2(h)))
     info = triangle.MeshInfo()
-    info.set_points(pts)
+    info.set_points(pts * scale)
     info.set_facets(sub)
     holes = hole_seeds(part)
     if holes:
-        info.set_holes(holes)
+        info.set_holes([hole * scale for hole in holes])
     info.regions.resize(len(part.regions))
     for k, reg in enumerate(part.regions):
-        x, y = np.asarray(reg.polygon.representative_point().coords[0])
+        x, y = np.asarray(reg.polygon.representative_point().coords[0]) * scale
         info.regions[k] = [float(x), float(y), float(k), 0.0]
-    max_area = h * h * np.sqrt(3.0) / 4.0
+    max_area = (h * scale) ** 2 * np.sqrt(3.0) / 4.0
     try:
         out = triangle.build(info, attributes=True, max_volume=max_area, min_angle=min_angle,
                              generate_neighbor_lists=False)
     except RuntimeError as exc:  # Triangle refuses degenerate input
         raise ProfileError(f"meshing failed ({exc})", file=full.source) from None
-    nodes = np.asarray(out.points, dtype=float)
+    nodes = np.asarray(out.points, dtype=float) / scale
     tris = np.asarray(out.elements, dtype=np.int64)
     if tris.size == 0:
         raise ProfileError("meshing produced no elements", file=full.source)
