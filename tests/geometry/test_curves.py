@@ -79,3 +79,34 @@ def test_length_against_quadrature(curve):
     exact, _ = quad(lambda t: math.hypot(curve.a * math.sin(t), curve.b * math.cos(t)), t0, t1,
                     epsabs=0.0, epsrel=1e-13)
     assert float(curve.length(t0, t1)) == pytest.approx(exact, rel=1e-12)
+
+
+@pytest.mark.parametrize("curve", CURVES)
+def test_gap_is_the_distance_along_the_ray_from_the_centre(curve):
+    # a point rho times the curve's point from the centre lies (rho - 1) |curve point - centre|
+    # from it along that ray (common practice, no source); the centre itself is that whole
+    # distance inside (it was once returned as 0, on the curve, and a sector's apex at the
+    # centre of its arc was then no corner)
+    c = np.array([curve.cx, curve.cy])
+    t = curve.start + curve.sweep * np.array([0.0, 0.3, 0.7])
+    on = curve.at(t)
+    for rho in (0.0, 0.5, 1.0, 1.5):
+        pts = c + rho * (on - c)
+        reach = np.hypot(*(on - c).T)
+        want = (rho - 1.0) * reach
+        if rho == 0.0:  # the centre's parameter is 0 (its ray is the a-axis)
+            want = -np.full(3, float(np.hypot(*(curve.at(np.array([0.0]))[0] - c))))
+        assert np.allclose(curve.gap(pts), want, rtol=1e-12, atol=1e-12 * max(curve.a, curve.b))
+
+
+def test_sector_apex_is_a_sharp_corner():
+    # a 240 degree sector: the apex (the arc's centre) is a re-entrant corner of 240 degrees
+    from warpwise.geometry.corners import reentrant_corners
+    from warpwise.geometry.profile import profile_from_loops
+
+    t = np.linspace(-2 * np.pi / 3, 2 * np.pi / 3, 101)
+    loop = np.vstack([[0.0, 0.0], np.c_[20 * np.cos(t), 20 * np.sin(t)]])
+    profile = profile_from_loops([loop], arcs=[Arc(0.0, 0.0, 20.0, -2 * np.pi / 3, 4 * np.pi / 3)])
+    corners = reentrant_corners(profile, measure=False)
+    assert [(c.x, c.y) for c in corners] == [(0.0, 0.0)]
+    assert corners[0].angle_deg == pytest.approx(240.0, abs=1e-9)

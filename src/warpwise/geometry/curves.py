@@ -95,9 +95,11 @@ class Curve:
 
     def gap(self, points: np.ndarray) -> np.ndarray:
         """Distance (k,) of points (k, 2) from where :meth:`onto` puts them, L, + outside."""
-        rho = self.rho(points)
-        d = np.asarray(points, dtype=float) - np.array([self.cx, self.cy])
-        return (rho - 1.0) * np.hypot(d[..., 0], d[..., 1]) / np.maximum(rho, 1e-300)
+        # a point is rho times the curve's point of its parameter from the centre, so the gap
+        # is (rho - 1) times that point's distance from the centre: no division, and the
+        # centre itself is the full distance inside (it was once taken as on the curve)
+        reach = self.at(self.param(points)) - np.array([self.cx, self.cy])
+        return (self.rho(points) - 1.0) * np.hypot(reach[..., 0], reach[..., 1])
 
     def farthest(self, directions: np.ndarray) -> np.ndarray:
         """The points of the curve farthest along unit directions (k, 2), within the sweep, L.
