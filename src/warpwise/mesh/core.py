@@ -28,7 +28,13 @@ from ..geometry.profile import Profile
 from ..geometry.symmetry import cut, mirror_mesh, symmetry_axes
 from .arcs import follow_arcs
 from .edges import Edges, mesh_edges
-from .sizing import ELEMENTS_ACROSS_WALL, MAX_ELEMENTS, default_size
+from .sizing import (
+    ELEMENTS_ACROSS_WALL,
+    MAX_ELEMENTS,
+    default_size,
+    groove_area_limits,
+    groove_sizes,
+)
 from .triangulate import hole_seeds, to_quadratic, triangulate
 
 
@@ -189,7 +195,14 @@ def build_mesh(profile: Profile, size: float | None = None, *, refine: float = 1
                                              ELEMENTS_ACROSS_WALL * refine, refine, max_elements,
                                              refine if boundary_refine is None else boundary_refine)
     tri = Triangulation(nodes, tris, segs, part, tuple(origin), tuple(axes), profile)
-    return _quadratic_mesh(tri, region, h)
+    mesh = _quadratic_mesh(tri, region, h)
+    centre, radius, at_arc = groove_sizes(profile, h, refine)
+    if len(centre):
+        # grooves and notches smaller than the mesh: graded from their own radius
+        limits = groove_area_limits(tri.points, tri.triangles, centre, radius, at_arc, h)
+        if (limits > 0).any():
+            mesh = refine_mesh(mesh, limits, min_angle=min_angle)
+    return mesh
 
 
 def _quadratic_mesh(tri: Triangulation, region: np.ndarray, h: float) -> Mesh:

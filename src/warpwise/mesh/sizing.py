@@ -372,3 +372,62 @@ def check_boundary_budget(pts: np.ndarray, seg: np.ndarray, target: np.ndarray,
                            where=where)
 
 
+#: Element size at a small concave arc (a groove, a notch, a keyway's corner fillet: material
+#: outside its circle and deep behind it), as a fraction of its radius, and the growth of the
+#: size with distance from the arc. The warping of such a feature decays within a few radii of
+#: it (a groove of radius a in a shaft: psi = -b y (1 + a^2 / r^2), Timoshenko & Goodier), so a
+#: mesh graded from the feature's own size resolves it where the profile's size h does not.
+#: Measured on a 40 mm shaft with a 2 mm groove against that closed form, Cw at the default
+#: mesh and at fine: -6.9e-4 and -2.3e-4 ungraded (2779 and 9571 nodes), -4.2e-5 and -8.8e-6
+#: graded (3917 and 11297); the bundled samples (fin roots, a keyway) get 20 % more nodes.
+GROOVE_SIZE_FACTOR = 0.15
+GROOVE_GRADING = 0.15
+#: Concave arcs smaller than this many element sizes h get the grading (larger ones are meshed
+#: finely enough by h and the wall thickness) ...
+GROOVE_RADIUS_LIMIT = 2.0
+#: ... and only where the material behind the arc is deeper than this many radii: a fillet
+#: between two walls is as deep as the walls are thick and is meshed by their thickness
+#: (without this rule, at a size of 0.1 r, the bundled samples took 80 % more nodes).
+GROOVE_DEPTH_RATIO = 4.0
+
+
+def groove_sizes(profile: Profile, h: float, refine: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Centres (k, 2), radii (k,) and sizes at the arc (k,) of the small concave circular arcs.
+
+    A recorded circular arc is concave when the material lies outside its circle (its centre,
+    just inside the arc, is not material); only arcs of radius below GROOVE_RADIUS_LIMIT h
+    with material deeper than GROOVE_DEPTH_RATIO radii behind their middle count. Sizes in
+    drawing units: GROOVE_SIZE_FACTOR times the radius over ``refine``.
+    """
+    arcs = [a for a in profile.arcs if a.a == a.b and a.a < GROOVE_RADIUS_LIMIT * h]
+    if not arcs:
+        return np.zeros((0, 2)), np.zeros(0), np.zeros(0)
+    mid = np.array([a.at(np.array([a.start + 0.5 * a.sweep]))[0] for a in arcs])
+    centre = np.array([(a.cx, a.cy) for a in arcs])
+    radius = np.array([a.a for a in arcs])
+    # a point just inside the circle at the arc's middle: material there means a convex arc
+    probe = mid + 1e-3 * (centre - mid)
+    concave = ~profile.covers(probe)
+    # the depth of material behind the arc's middle: a ray away from the centre, started
+    # beyond the polygon's chords (which lie inside the circle), to the next boundary
+    out = (mid - centre) / radius[:, None]
+    fv, fseg = planar_graph(profile)
+    depth = first_hits(fv[fseg[:, 0]], fv[fseg[:, 1]], mid, out,
+                       reach=1.01 * GROOVE_DEPTH_RATIO * float(radius.max()),
+                       start=1e-6 * profile.size, t_min=1e-6 * profile.size)
+    keep = concave & (depth > GROOVE_DEPTH_RATIO * radius)
+    return centre[keep], radius[keep], GROOVE_SIZE_FACTOR * radius[keep] / refine
+
+
+def groove_area_limits(points: np.ndarray, triangles: np.ndarray, centre: np.ndarray,
+                       radius: np.ndarray, size: np.ndarray, h: float) -> np.ndarray:
+    """Largest area (t,) of each triangle graded from small concave arcs, drawing unit squared.
+
+    The size at a triangle's centroid is min over the arcs of size_k + GROOVE_GRADING times its
+    distance from arc k's circle; -1 (no limit) where that is not below h.
+    """
+    cen = points[triangles].mean(axis=1)
+    d = np.hypot(cen[:, None, 0] - centre[None, :, 0], cen[:, None, 1] - centre[None, :, 1])
+    want = (size[None, :] + GROOVE_GRADING * np.abs(d - radius[None, :])).min(axis=1)
+    area = np.sqrt(3.0) / 4.0 * want * want
+    return np.where(want < h, area, -1.0)
