@@ -417,9 +417,22 @@ def run_shapes(args: argparse.Namespace) -> int:
     return 0
 
 
+def run_workbench(args: argparse.Namespace) -> int:
+    """``warpwise workbench``: serve the workbench until Ctrl-C (:mod:`warpwise.workbench`)."""
+    if not 0 <= args.port <= 65535:
+        raise UsageError(f"--port must be 0 to 65535, got {args.port}")
+    try:
+        from ..workbench.server import ServeOptions, serve
+    except ImportError as exc:
+        raise UsageError(f"the workbench needs {exc.name}: install warpwise with its "
+                         "dependencies (pip install -e .)") from None
+    serve(ServeOptions(args.address, args.port, not args.no_browser, args.workers))
+    return 0
+
+
 COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
             "catalogue": run_catalogue_command, "plot": run_plot, "shapes": run_shapes,
-            "member": run_member}
+            "member": run_member, "workbench": run_workbench}
 
 
 def main(argv: Sequence[str] | None = None) -> int:

@@ -76,12 +76,12 @@ def _bench(request: Request) -> Workbench:
 def _upload_or_404(request: Request) -> Upload:
     upload = _bench(request).store.get(request.path_params["fid"])
     if upload is None:
-        raise _NotFound("no such file (the workbench forgets files when it stops)")
+        raise NotFoundError("no such file (the workbench forgets files when it stops)")
     return upload
 
 
-class _NotFound(Exception):
-    pass
+class NotFoundError(Exception):
+    """A file, job, catalogue or download the workbench does not have (a 404 page)."""
 
 
 async def home(request: Request) -> Response:
@@ -199,7 +199,7 @@ async def remove(request: Request) -> Response:
 def _job_or_404(request: Request):
     job = _bench(request).board.get(request.path_params["jid"])
     if job is None:
-        raise _NotFound("no such job (the workbench forgets its jobs when it stops)")
+        raise NotFoundError("no such job (the workbench forgets its jobs when it stops)")
     return job
 
 
@@ -237,11 +237,11 @@ async def job_download(request: Request) -> Response:
     job = _job_or_404(request)
     kind = request.path_params["kind"]
     if kind not in DOWNLOADS or job.state != "done" or not isinstance(job.result, Analysis):
-        raise _NotFound("no such download: the analysis has not finished or has no such output")
+        raise NotFoundError("no such download: the analysis has not finished or has no such output")
     field, ending, media = DOWNLOADS[kind]
     text = getattr(job.result, field)
     if not text:
-        raise _NotFound("no such download: give a load for the stresses")
+        raise NotFoundError("no such download: give a load for the stresses")
     return attachment(text, job.result.name, ending, media)
 
 
@@ -270,7 +270,7 @@ def create_app(store: UploadStore | None = None, board: JobBoard | None = None) 
         yield
         bench.close()
 
-    app = Starlette(routes=routes, exception_handlers={_NotFound: not_found, 404: not_found},
+    app = Starlette(routes=routes, exception_handlers={NotFoundError: not_found, 404: not_found},
                     lifespan=lifespan)
     app.state.bench = bench
     return app

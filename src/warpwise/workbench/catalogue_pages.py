@@ -54,11 +54,11 @@ def _bench(request: Request):
 
 
 def _catalogue(request: Request) -> Catalogue:
-    from .app import _NotFound
+    from .app import NotFoundError
 
     found = _bench(request).catalogues.get(request.path_params["cid"])
     if found is None:
-        raise _NotFound("no such catalogue (the workbench forgets them when it stops)")
+        raise NotFoundError("no such catalogue (the workbench forgets them when it stops)")
     return found
 
 
@@ -117,13 +117,13 @@ async def catalogue_download(request: Request) -> Response:
     """The catalogue's CSV or JSON of the profiles analysed, as ``warpwise catalogue`` writes."""
     from ..report.files import csv_text, json_text
     from ..report.records import report_units
-    from .app import _NotFound
+    from .app import NotFoundError
 
     cat = _catalogue(request)
     kind = request.path_params["kind"]
     records = cat.records()
     if kind not in ("csv", "json") or not records:
-        raise _NotFound("no such download: no profile of the catalogue has been analysed yet")
+        raise NotFoundError("no such download: no profile of the catalogue has been analysed yet")
     units = report_units([r.units for r in records], cat.report_units)
     if kind == "csv":
         return attachment(csv_text(records, units=units), "catalogue", ".csv", "text/csv")

@@ -50,13 +50,13 @@ class Upload:
 
 
 def display_name(sent: str | None) -> str:
-    """The name shown for a file: the last part of what the browser sent, printable, cut short.
+    r"""The name shown for a file: the last part of what the browser sent, printable, cut short.
 
     Examples
     --------
     >>> display_name("../../etc/passwd")
     'passwd'
-    >>> display_name("C:\\\\drawings\\\\rail.dxf")
+    >>> display_name("C:\\drawings\\rail.dxf")
     'rail.dxf'
     >>> display_name("")
     'unnamed file'
