@@ -14,7 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 from pathlib import Path
 
-from ..errors import UsageError, WarpwiseError
+from ..errors import WarpwiseError
 from .choices import Choices, parsed
 
 
@@ -74,8 +74,7 @@ class Analysis:
 
 def _refusal(exc: WarpwiseError, path: str, name: str) -> Refusal:
     """The one line of an error, as the command line prints it, under the user's name."""
-    text = str(exc if isinstance(exc, UsageError) else exc.with_file(path))
-    return Refusal(_shown(text, path, name))
+    return Refusal(_shown(str(exc), path, name))
 
 
 def _shown(text: str, path: str, name: str) -> str:
