@@ -95,7 +95,7 @@ def inspect_upload(path: str, name: str, choices: Choices, picture: str) -> Insp
 
     try:
         report = check_file(path, read_options(parsed("check", path, choices.read)))
-        plot_report(report, picture)
+        plot_report(replace(report, source=name), picture)
         svg = Path(picture).read_text(encoding="utf-8")
     except WarpwiseError as exc:
         return _refusal(exc, path, name)
