@@ -34,6 +34,8 @@ from ..errors import WarpwiseError
 from .choices import Choices, form_choices
 from .downloads import attachment
 from .jobs import JobBoard
+from .pages import NotFoundError, found, option_lists
+from .pages import bench as _bench
 from .tasks import Analysis, Inspection, Refusal, analyse_upload, inspect_upload
 from .uploads import MAX_FILE_BYTES, MAX_FILES_PER_UPLOAD, Upload, UploadStore
 
@@ -69,19 +71,8 @@ def _templates() -> Environment:
                        autoescape=select_autoescape(default=True, default_for_string=True))
 
 
-def _bench(request: Request) -> Workbench:
-    return request.app.state.bench
-
-
 def _upload_or_404(request: Request) -> Upload:
-    upload = _bench(request).store.get(request.path_params["fid"])
-    if upload is None:
-        raise NotFoundError("no such file (the workbench forgets files when it stops)")
-    return upload
-
-
-class NotFoundError(Exception):
-    """A file, job, catalogue or download the workbench does not have (a 404 page)."""
+    return found(request, _bench(request).store.get, "fid", "file")
 
 
 async def home(request: Request) -> Response:
@@ -163,18 +154,7 @@ async def file_page(request: Request) -> Response:
     return bench.render("file.html", upload=upload, seen=seen, query=query, layers=layers,
                         chosen=set(query.getlist("layer")) if "layers_shown" in query else
                         {layer.name for layer in first.layers if layer.used}
-                        if isinstance(first, Inspection) else set(), **_option_lists())
-
-
-def _option_lists() -> dict:
-    """The choices every form offers: units, report units, accuracy levels, materials."""
-    from ..geometry.profile import LENGTH_UNITS
-    from ..materials import BUILTIN
-    from ..properties.accuracy import ACCURACY_LEVELS
-    from ..units import SYSTEMS
-
-    return {"length_units": sorted(LENGTH_UNITS), "systems": list(SYSTEMS),
-            "accuracies": list(ACCURACY_LEVELS), "materials": list(BUILTIN)}
+                        if isinstance(first, Inspection) else set(), **option_lists())
 
 
 async def analyse(request: Request) -> Response:
@@ -197,10 +177,7 @@ async def remove(request: Request) -> Response:
 
 
 def _job_or_404(request: Request):
-    job = _bench(request).board.get(request.path_params["jid"])
-    if job is None:
-        raise NotFoundError("no such job (the workbench forgets its jobs when it stops)")
-    return job
+    return found(request, _bench(request).board.get, "jid", "job")
 
 
 async def job_page(request: Request) -> Response:

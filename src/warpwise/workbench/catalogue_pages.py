@@ -17,6 +17,8 @@ from starlette.routing import Route
 
 from .choices import form_choices
 from .downloads import attachment
+from .pages import NotFoundError, found, option_lists
+from .pages import bench as _bench
 from .tasks import catalogue_one
 
 
@@ -49,25 +51,14 @@ class Catalogue:
                 if j.state == "done" and j.result is not None and j.result.ok]
 
 
-def _bench(request: Request):
-    return request.app.state.bench
-
-
 def _catalogue(request: Request) -> Catalogue:
-    from .app import NotFoundError
-
-    found = _bench(request).catalogues.get(request.path_params["cid"])
-    if found is None:
-        raise NotFoundError("no such catalogue (the workbench forgets them when it stops)")
-    return found
+    return found(request, _bench(request).catalogues.get, "cid", "catalogue")
 
 
 async def catalogue_form(request: Request) -> Response:
     """The form: which opened files, with which options."""
-    from .app import _option_lists
-
     bench = _bench(request)
-    return bench.render("catalogue_new.html", uploads=bench.store.all(), **_option_lists())
+    return bench.render("catalogue_new.html", uploads=bench.store.all(), **option_lists())
 
 
 async def catalogue_start(request: Request) -> Response:
@@ -117,8 +108,6 @@ async def catalogue_download(request: Request) -> Response:
     """The catalogue's CSV or JSON of the profiles analysed, as ``warpwise catalogue`` writes."""
     from ..report.files import csv_text, json_text
     from ..report.records import report_units
-    from .app import NotFoundError
-
     cat = _catalogue(request)
     kind = request.path_params["kind"]
     records = cat.records()
