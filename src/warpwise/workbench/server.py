@@ -35,11 +35,12 @@ def free_port(address: str = DEFAULT_ADDRESS) -> int:
         return s.getsockname()[1]
 
 
-def _check_bind(address: str, port: int) -> None:
-    """Refuse, in one line, an address that cannot be served or a port in use."""
+def _check_bind(address: str, port: int) -> int:
+    """The port to serve on (a free one for 0); refuses one that cannot be served, in one line."""
     try:
         with socket.socket(socket.AF_INET6 if ":" in address else socket.AF_INET) as s:
             s.bind((address, port))
+            return s.getsockname()[1]
     except OSError as exc:
         raise UsageError(f"cannot serve on {address} port {port}: {exc.strerror or exc}") from None
 
@@ -51,8 +52,7 @@ def serve(options: ServeOptions) -> None:
     from .app import create_app
     from .jobs import JobBoard
 
-    port = options.port or free_port(options.address)
-    _check_bind(options.address, port)
+    port = _check_bind(options.address, options.port)
     host = f"[{options.address}]" if ":" in options.address else options.address
     url = f"http://{host}:{port}/"
     print(f"warpwise workbench on {url} (Ctrl-C stops it and deletes the files opened)",
