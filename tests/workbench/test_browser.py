@@ -106,6 +106,24 @@ def no_console_errors(driver):
     assert not bad, bad
 
 
+def pointer_reads_the_drawing_coordinates(browser):
+    """Over the shear-centre mark of the warping picture the page reads the mark's coordinates."""
+    from selenium.webdriver.common.action_chains import ActionChains
+    from selenium.webdriver.common.by import By
+
+    svg = browser.find_element(By.CSS_SELECTOR, "#warping-picture svg")
+    mark = svg.find_element(By.CSS_SELECTOR, "g.shear-centre")
+    shape = mark.find_element(By.XPATH, "./*[1]")
+    ActionChains(browser).move_to_element(shape).perform()
+    text = browser.find_element(By.CSS_SELECTOR, "#warping-picture .pointer").text
+    m = re.fullmatch(r"Pointer at x = (\S+), y = (\S+) mm(; .*)?\.", text)
+    assert m, text
+    scale = float(svg.get_attribute("data-frame").split()[4])  # pixels per mm
+    tolerance = 3.0 / scale  # a few pixels of the picture
+    assert float(m.group(1)) == pytest.approx(float(mark.get_attribute("data-x")), abs=tolerance)
+    assert float(m.group(2)) == pytest.approx(float(mark.get_attribute("data-y")), abs=tolerance)
+
+
 def test_open_pick_part_read_J_download_csv(server, browser):
     from selenium.webdriver.common.by import By
     from selenium.webdriver.support.ui import Select
@@ -123,6 +141,7 @@ def test_open_pick_part_read_J_download_csv(server, browser):
     assert code == 0, err
     J = json.loads(out)["J"]
     assert page_number(cell.text) == pytest.approx(J, rel=5e-6)  # six figures shown
+    pointer_reads_the_drawing_coordinates(browser)
     browser.find_element(By.ID, "download-csv").click()
     target = browser.downloads / "rail_drawing_sheet_a4-dxf.csv"
     for _ in range(100):

@@ -58,6 +58,19 @@ function zoomable(fig) {
   }, {passive: false});
   svg.addEventListener("dblclick", function () { if (start) { svg.setAttribute("viewBox", start); } });
   svg.setAttribute("aria-description", "turn the wheel to zoom, double-click to see it whole");
+  var out = fig.querySelector(".pointer"), frame = svg.dataset.frame;
+  if (!out || !frame) { return; }
+  var f = frame.split(" ").map(Number);  // x0, y1, left, top, scale, k
+  svg.addEventListener("mousemove", function (ev) {
+    var p = svg.createSVGPoint();
+    p.x = ev.clientX; p.y = ev.clientY;
+    var q = p.matrixTransform(svg.getScreenCTM().inverse());
+    var x = (f[0] + (q.x - f[2]) / f[4]) * f[5], y = (f[1] - (q.y - f[3]) / f[4]) * f[5];
+    var band = ev.target.getAttribute && ev.target.getAttribute("data-band");
+    out.textContent = " Pointer at x = " + x.toPrecision(5) + ", y = " + y.toPrecision(5) + " " +
+      svg.dataset.unit + (band ? "; " + band : "") + ".";
+  });
+  svg.addEventListener("mouseleave", function () { out.textContent = ""; });
 }
 
 function reloadLater() {
