@@ -56,6 +56,25 @@ def test_catalogue_of_three_files_one_bad(client, tmp_path):
     assert len(lines) == 3 and lines[1].startswith("key_bar_12x8.txt,")
     got = json.loads(client.get(f"/catalogue/{cid}/download/json").text)
     assert [g["file"] for g in got] == names
+    book_has_the_rows_and_the_failure(client, cid, names, expected)
+    pdf = client.get(f"/catalogue/{cid}/download/pdf")
+    assert pdf.content.startswith(b"%PDF") and pdf.headers["content-type"] == "application/pdf"
+
+
+def book_has_the_rows_and_the_failure(client, cid, names, error):
+    """The workbook download: the catalogue's sheets, a row per profile, the failure listed."""
+    import io
+
+    import openpyxl
+
+    r = client.get(f"/catalogue/{cid}/download/xlsx")
+    assert r.headers["content-disposition"] == 'attachment; filename="catalogue.xlsx"'
+    book = openpyxl.load_workbook(io.BytesIO(r.content))
+    assert book.sheetnames == ["properties", "failures", "materials"]
+    rows = list(book["properties"].iter_rows(min_row=3, values_only=True))
+    assert [row[0] for row in rows] == names
+    failures = list(book["failures"].iter_rows(min_row=2, values_only=True))
+    assert ("open.txt", error) in failures
 
 
 def test_catalogue_without_files_is_refused(client):

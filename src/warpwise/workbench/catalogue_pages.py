@@ -15,7 +15,7 @@ from starlette.requests import Request
 from starlette.responses import RedirectResponse, Response
 from starlette.routing import Route
 
-from .choices import form_choices
+from .choices import Choices, form_choices
 from .downloads import attachment
 from .pages import NotFoundError, found, option_lists
 from .pages import bench as _bench
@@ -29,6 +29,7 @@ class Catalogue:
     id: str
     jobs: list
     report_units: str | None
+    choices: Choices
 
     def rows(self) -> list[dict]:
         """Each profile's name, state, seconds, and J or error (plain data for page and JSON)."""
@@ -45,10 +46,14 @@ class Catalogue:
             rows.append(row)
         return rows
 
+    def outcomes(self) -> tuple[list, list]:
+        """The outcomes of the profiles analysed and of those that failed, in row order."""
+        done = [j.result for j in self.jobs if j.state == "done" and j.result is not None]
+        return [o for o in done if o.ok], [o for o in done if not o.ok]
+
     def records(self) -> list:
         """The records of the profiles analysed, in row order."""
-        return [j.result.record for j in self.jobs
-                if j.state == "done" and j.result is not None and j.result.ok]
+        return [o.record for o in self.outcomes()[0]]
 
 
 def _catalogue(request: Request) -> Catalogue:
@@ -73,7 +78,7 @@ async def catalogue_start(request: Request) -> Response:
         return bench.render("message.html", status=400, title="Nothing to analyse",
                             message="choose at least one opened file for the catalogue")
     jobs = [bench.board.submit(u.name, catalogue_one, u.path, u.name, choices) for u in uploads]
-    cat = Catalogue(secrets.token_urlsafe(9), jobs, units)
+    cat = Catalogue(secrets.token_urlsafe(9), jobs, units, choices)
     bench.catalogues[cat.id] = cat
     return RedirectResponse(f"/catalogue/{cat.id}", status_code=303)
 
@@ -104,20 +109,32 @@ async def catalogue_cancel(request: Request) -> Response:
     return RedirectResponse(f"/catalogue/{cat.id}", status_code=303)
 
 
+#: The catalogue's downloads: kind -> (file ending, media type).
+CATALOGUE_DOWNLOADS = {
+    "csv": (".csv", "text/csv"), "json": (".json", "application/json"),
+    "xlsx": (".xlsx", "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"),
+    "pdf": (".pdf", "application/pdf")}
+
+
 async def catalogue_download(request: Request) -> Response:
-    """The catalogue's CSV or JSON of the profiles analysed, as ``warpwise catalogue`` writes."""
+    """The catalogue's CSV, JSON, workbook or PDF pages, as ``warpwise catalogue`` writes them."""
+    from ..cli.catalogue_command import pdf_pages, workbook_of
     from ..report.files import csv_text, json_text
     from ..report.records import report_units
+    from .tasks import run_options
+
     cat = _catalogue(request)
     kind = request.path_params["kind"]
-    records = cat.records()
-    if kind not in ("csv", "json") or not records:
+    good, bad = cat.outcomes()
+    if kind not in CATALOGUE_DOWNLOADS or not good:
         raise NotFoundError("no such download: no profile of the catalogue has been analysed yet")
+    records = [o.record for o in good]
     units = report_units([r.units for r in records], cat.report_units)
-    if kind == "csv":
-        return attachment(csv_text(records, units=units), "catalogue", ".csv", "text/csv")
-    return attachment(json_text([r.in_units(units) for r in records]), "catalogue", ".json",
-                      "application/json")
+    body = {"csv": lambda: csv_text(records, units=units),
+            "json": lambda: json_text([r.in_units(units) for r in records]),
+            "xlsx": lambda: workbook_of(good, bad, run_options(cat.choices), units),
+            "pdf": lambda: pdf_pages(good, cat.report_units)}[kind]()
+    return attachment(body, "catalogue", *CATALOGUE_DOWNLOADS[kind])
 
 
 ROUTES = [Route("/catalogue", catalogue_form), Route("/catalogue", catalogue_start, methods=["POST"]),

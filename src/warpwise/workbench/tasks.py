@@ -186,19 +186,28 @@ def _stress(args, result, name: str) -> tuple[str, str, str]:
     return text, obj, svg
 
 
+def run_options(choices: Choices):
+    """The catalogue's run options of the page's choices, parsed as the command parses them.
+
+    The outlines are kept with each outcome, for the PDF pages.
+    """
+    from ..catalogue.items import RunOptions
+    from ..cli.options import analysis_options, read_options
+
+    args = parsed("catalogue", "files", [*choices.read, *choices.analysis])
+    return RunOptions(read=read_options(args), analysis=analysis_options(args), outlines=True)
+
+
 def catalogue_one(path: str, name: str, choices: Choices):
     """One profile of a catalogue: the catalogue's own worker, the names the user knows.
 
     Returns the :class:`~warpwise.catalogue.items.Outcome` of
     :func:`~warpwise.catalogue.workers.analyse_one`, its record and error under ``name``.
     """
-    from ..catalogue.items import RunOptions
     from ..catalogue.workers import analyse_one
-    from ..cli.options import analysis_options, read_options
 
     try:
-        args = parsed("props", path, [*choices.read, *choices.analysis])
-        options = RunOptions(read=read_options(args), analysis=analysis_options(args))
+        options = run_options(choices)
     except WarpwiseError as exc:
         from ..catalogue.items import Outcome
 
