@@ -179,3 +179,43 @@ def test_same_input_as_load_profile(client):
     fid, _ = upload_sample(client, KEY_BAR)
     url, page = analyse(client, fid)
     assert cell(page, "A") == number_html(load_profile(KEY_BAR).area)
+
+
+TABLE = b"""[materials.our-alloy]
+E = 69000
+nu = 0.33
+fy = 150
+"""
+
+
+def test_own_materials_table_as_the_command_reads_it(client, tmp_path):
+    from warpwise.materials import read_materials
+
+    from .support import upload
+
+    upload(client, "alloys.toml", TABLE)
+    table = client.bench.store.all()[-1]
+    fid, _ = upload_sample(client, KEY_BAR)
+    assert f'<option value="{table.id}">alloys.toml</option>' in client.get(f"/file/{fid}").text
+    url, _ = analyse(client, fid, materials_table=table.id, material_own="our-alloy")
+    got = json.loads(client.get(url + "/download/json").text)
+    (tmp_path / "alloys.toml").write_bytes(TABLE)
+    _, ours = library(KEY_BAR, KEY_BAR.name, material="our-alloy",
+                      materials=read_materials(tmp_path / "alloys.toml"))
+    assert got["EA"] == ours["EA"] and got["Mpl_x"] == ours["Mpl_x"]
+
+
+def test_bad_materials_table_gets_the_commands_message(client, tmp_path):
+    from .support import upload
+
+    bad = b"[materials.x]\nE = -5\n"
+    upload(client, "bad.toml", bad)
+    table = client.bench.store.all()[-1]
+    fid, _ = upload_sample(client, KEY_BAR)
+    _, page = analyse(client, fid, materials_table=table.id, material_own="x")
+    (tmp_path / "bad.toml").write_bytes(bad)
+    code, _, err = run_cli("props", KEY_BAR, "--materials", "bad.toml", "--material", "x",
+                           cwd=tmp_path)
+    line = assert_one_line_error(code, err).removeprefix("warpwise: error: ")
+    assert f'<p class="refusal" id="refusal">{escape(line)}</p>' in page
+    assert table.path not in page

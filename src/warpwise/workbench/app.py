@@ -34,7 +34,7 @@ from ..errors import WarpwiseError
 from .choices import Choices, form_choices
 from .downloads import attachment
 from .jobs import JobBoard
-from .pages import NotFoundError, found, option_lists
+from .pages import NotFoundError, chosen_table, found, option_lists, tables
 from .pages import bench as _bench
 from .tasks import Analysis, Inspection, Refusal, analyse_upload, inspect_upload
 from .uploads import MAX_FILE_BYTES, MAX_FILES_PER_UPLOAD, Upload, UploadStore
@@ -113,9 +113,10 @@ async def upload(request: Request) -> Response:
 
 
 def _choices(form: Mapping[str, str], layers: list[str], chosen: list[str],
-             inspection: Inspection | None) -> Choices:
+             inspection: Inspection | None, table: tuple[str, str] | None = None) -> Choices:
     default = [layer.name for layer in inspection.layers if layer.used] if inspection else []
-    return form_choices(form, layers, chosen if "layers_shown" in form else default, default)
+    return form_choices(form, layers, chosen if "layers_shown" in form else default, default,
+                        table)
 
 
 async def _inspection(bench: Workbench, upload: Upload, choices: Choices,
@@ -154,7 +155,8 @@ async def file_page(request: Request) -> Response:
     return bench.render("file.html", upload=upload, seen=seen, query=query, layers=layers,
                         chosen=set(query.getlist("layer")) if "layers_shown" in query else
                         {layer.name for layer in first.layers if layer.used}
-                        if isinstance(first, Inspection) else set(), **option_lists())
+                        if isinstance(first, Inspection) else set(),
+                        tables=tables(bench.store), **option_lists())
 
 
 async def analyse(request: Request) -> Response:
@@ -165,7 +167,8 @@ async def analyse(request: Request) -> Response:
         first = await _inspection(bench, upload, form_choices({}))
         inspection = first if isinstance(first, Inspection) else None
         layers = [layer.name for layer in inspection.layers] if inspection else []
-        choices = _choices(form, layers, [str(v) for v in form.getlist("layer")], inspection)
+        choices = _choices(form, layers, [str(v) for v in form.getlist("layer")], inspection,
+                           chosen_table(bench.store, form))
     job = bench.board.submit(upload.name, analyse_upload, upload.path, upload.name, choices)
     return RedirectResponse(f"/job/{job.id}", status_code=303)
 

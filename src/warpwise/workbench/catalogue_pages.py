@@ -17,7 +17,7 @@ from starlette.routing import Route
 
 from .choices import Choices, form_choices
 from .downloads import attachment
-from .pages import NotFoundError, found, option_lists
+from .pages import NotFoundError, chosen_table, found, option_lists, tables
 from .pages import bench as _bench
 from .tasks import catalogue_one
 
@@ -63,7 +63,8 @@ def _catalogue(request: Request) -> Catalogue:
 async def catalogue_form(request: Request) -> Response:
     """The form: which opened files, with which options."""
     bench = _bench(request)
-    return bench.render("catalogue_new.html", uploads=bench.store.all(), **option_lists())
+    return bench.render("catalogue_new.html", uploads=bench.store.all(),
+                        tables=tables(bench.store), **option_lists())
 
 
 async def catalogue_start(request: Request) -> Response:
@@ -71,7 +72,7 @@ async def catalogue_start(request: Request) -> Response:
     bench = _bench(request)
     async with request.form(max_files=0, max_fields=400) as form:
         chosen = [str(v) for v in form.getlist("file")]
-        choices = form_choices(form)
+        choices = form_choices(form, table=chosen_table(bench.store, form))
         units = str(form.get("report_units") or "") or None
     uploads = [u for u in (bench.store.get(c) for c in chosen) if u is not None]
     if not uploads:

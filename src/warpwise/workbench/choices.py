@@ -32,12 +32,16 @@ class Choices:
         Options of ``props`` only (error estimates).
     loads : tuple of str
         The load options of ``stress`` (empty: no load given).
+    names : tuple of (str, str)
+        Stored files the options name (a materials table) and the names the user knows them
+        by, for the messages.
     """
 
     read: tuple[str, ...]
     analysis: tuple[str, ...] = ()
     props: tuple[str, ...] = ()
     loads: tuple[str, ...] = ()
+    names: tuple[tuple[str, str], ...] = ()
 
 
 def _one(form: Mapping[str, str], key: str) -> str:
@@ -45,7 +49,8 @@ def _one(form: Mapping[str, str], key: str) -> str:
 
 
 def form_choices(form: Mapping[str, str], layers: Sequence[str] = (),
-                 chosen_layers: Sequence[str] = (), default_layers: Sequence[str] = ()) -> Choices:
+                 chosen_layers: Sequence[str] = (), default_layers: Sequence[str] = (),
+                 table: tuple[str, str] | None = None) -> Choices:
     """The options of a filled-in form.
 
     Parameters
@@ -61,6 +66,9 @@ def form_choices(form: Mapping[str, str], layers: Sequence[str] = (),
     default_layers : sequence of str
         The layers the drawing is read from when none is named (no ``--layer`` when the ticked
         ones are exactly these).
+    table : (str, str), optional
+        A materials table chosen: where it is stored (generated, never the user's name) and
+        its shown name.
 
     Examples
     --------
@@ -85,11 +93,16 @@ def form_choices(form: Mapping[str, str], layers: Sequence[str] = (),
             read.append(f"--layer-material={name}={material}")
     analysis = [f"--{option.replace('_', '-')}={_one(form, option)}"
                 for option in ("material", "report_units", "accuracy") if _one(form, option)]
+    if _one(form, "material_own"):  # a material of the user's table, by name
+        analysis.append(f"--material={_one(form, 'material_own')}")
+    if table is not None:
+        analysis.append(f"--materials={table[0]}")
     props = ("--estimate-errors",) if _one(form, "estimate_errors") else ()
     loads = [f"{flag}={_one(form, key)}" for key, flag in LOAD_FIELDS.items() if _one(form, key)]
     if loads and _one(form, "shear_modulus"):
         loads.append(f"--shear-modulus={_one(form, 'shear_modulus')}")
-    return Choices(tuple(read), tuple(analysis), props, tuple(loads))
+    return Choices(tuple(read), tuple(analysis), props, tuple(loads),
+                   (table,) if table else ())
 
 
 def parsed(command: str, path: str, words: Sequence[str]) -> argparse.Namespace:

@@ -34,3 +34,17 @@ def option_lists() -> dict:
 
     return {"length_units": sorted(LENGTH_UNITS), "systems": list(SYSTEMS),
             "accuracies": list(ACCURACY_LEVELS), "materials": list(BUILTIN)}
+
+
+def tables(store) -> list:
+    """The opened files that are materials tables (named ``.toml``)."""
+    return [u for u in store.all() if u.name.lower().endswith(".toml")]
+
+
+def chosen_table(store, form) -> tuple[str, str] | None:
+    """The materials table a form chose (field ``materials_table``, an upload's id).
+
+    Returns (where it is stored, its shown name), or None when none was chosen.
+    """
+    upload = store.get(str(form.get("materials_table") or ""))
+    return None if upload is None else (upload.path, upload.name)

@@ -72,9 +72,12 @@ class Analysis:
     stress_svg: str = ""
 
 
-def _refusal(exc: WarpwiseError, path: str, name: str) -> Refusal:
-    """The one line of an error, as the command line prints it, under the user's name."""
-    return Refusal(_shown(str(exc), path, name))
+def _refusal(exc: WarpwiseError, path: str, name: str, choices: Choices) -> Refusal:
+    """The one line of an error, as the command line prints it, under the user's names."""
+    text = str(exc)
+    for stored, shown in choices.names:
+        text = _shown(text, stored, shown)
+    return Refusal(_shown(text, path, name))
 
 
 def _shown(text: str, path: str, name: str) -> str:
@@ -98,7 +101,7 @@ def inspect_upload(path: str, name: str, choices: Choices, picture: str) -> Insp
         plot_report(replace(report, source=name), picture)
         svg = Path(picture).read_text(encoding="utf-8")
     except WarpwiseError as exc:
-        return _refusal(exc, path, name)
+        return _refusal(exc, path, name, choices)
     finally:
         Path(picture).unlink(missing_ok=True)
     layers = tuple(LayerView(layer.name, layer.holds, layer.used, layer.left_out)
@@ -162,7 +165,7 @@ def analyse_upload(path: str, name: str, choices: Choices) -> Analysis | Refusal
             props_json([rec], args.report_units), props_datasheet(result, args.report_units),
             *stress)
     except WarpwiseError as exc:
-        return _refusal(exc, path, name)
+        return _refusal(exc, path, name, choices)
     except MemoryError:
         return Refusal(f"{name}: out of memory; choose a coarser accuracy")
 
@@ -211,7 +214,7 @@ def catalogue_one(path: str, name: str, choices: Choices):
     except WarpwiseError as exc:
         from ..catalogue.items import Outcome
 
-        return Outcome(name, None, _shown(str(exc), path, name), 0.0)
+        return Outcome(name, None, _refusal(exc, path, name, choices).message, 0.0)
     out = analyse_one(path, options)
     record = replace(out.record, source=name) if out.record is not None else None
     error = _shown(out.error, path, name) if out.error else None
