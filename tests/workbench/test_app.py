@@ -30,7 +30,7 @@ def library(path, name, read=None, **analysis):
 def test_home_page_says_the_limits(client):
     r = client.get("/")
     assert r.status_code == 200
-    assert "Up to 20 files at once, 25 MB each" in r.text
+    assert "Up to 50 files at once, 25 MB each and\n  100 MB in all" in r.text
     assert 'action="/upload"' in r.text and "/static/workbench.js" in r.text
 
 

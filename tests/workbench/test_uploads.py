@@ -39,10 +39,21 @@ def test_oversized_file_is_refused(client, monkeypatch):
 
 
 def test_too_large_a_request_is_refused_before_reading(client, monkeypatch):
-    monkeypatch.setattr(app_module, "MAX_FILE_BYTES", 10)
-    monkeypatch.setattr(app_module, "MAX_FILES_PER_UPLOAD", 1)
-    r = upload(client, "big.txt", b"0 0\n" * 100_000)
-    assert r.status_code == 413 and "larger than the workbench takes" in r.text
+    monkeypatch.setattr(app_module, "MAX_UPLOAD_BYTES", 10)
+    r = upload(client, "big.txt", b"0 0\n" * 400_000)
+    assert r.status_code == 413 and "larger than the workbench takes (0 MB in all)" in r.text
+
+
+def test_a_folder_gives_its_profile_files_only(client):
+    before = len(client.bench.store.all())
+    files = [("folder", ("profiles/key_bar.txt", KEY_BAR.read_bytes())),
+             ("folder", ("profiles/sub/photo.png", b"\x89PNG....")),
+             ("folder", ("profiles/.hidden/old.txt", KEY_BAR.read_bytes())),
+             ("folder", ("profiles/alloys.toml", b"[materials.a]\nE = 70000\nnu = 0.3\n"))]
+    r = client.post("/upload", files=files)
+    added = client.bench.store.all()[before:]
+    assert [u.name for u in added] == ["key_bar.txt", "alloys.toml"]
+    assert "2 files of the folder passed over" in r.text
 
 
 def test_too_many_files_are_refused(client):

@@ -37,7 +37,15 @@ from .jobs import JobBoard
 from .pages import NotFoundError, chosen_table, found, option_lists, tables
 from .pages import bench as _bench
 from .tasks import Analysis, Inspection, Refusal, analyse_upload, inspect_upload
-from .uploads import MAX_FILE_BYTES, MAX_FILES_PER_UPLOAD, Upload, UploadStore
+from .uploads import (
+    FOLDER_ENDINGS,
+    MAX_FILE_BYTES,
+    MAX_FILES_PER_UPLOAD,
+    MAX_UPLOAD_BYTES,
+    Upload,
+    UploadStore,
+    from_folder,
+)
 
 #: How long a page waits for a file to be read before it shows "still reading".
 INSPECT_WAIT = 60.0
@@ -77,39 +85,47 @@ def _upload_or_404(request: Request) -> Upload:
 
 async def home(request: Request) -> Response:
     """The files opened and the form to open more."""
-    bench = _bench(request)
-    return bench.render("home.html", uploads=bench.store.all(), refusals=(),
-                        limits=(MAX_FILES_PER_UPLOAD, MAX_FILE_BYTES // (1024 * 1024)))
+    return _home(_bench(request), [])
+
+
+def _home(bench: Workbench, refusals: list[str], status: int = 200) -> HTMLResponse:
+    limits = (MAX_FILES_PER_UPLOAD, MAX_FILE_BYTES // 2**20, MAX_UPLOAD_BYTES // 2**20)
+    return bench.render("home.html", status=status, uploads=bench.store.all(),
+                        refusals=refusals, limits=limits)
 
 
 async def upload(request: Request) -> Response:
-    """Store the files sent; one file goes straight to its page, refusals are listed."""
+    """Store the files sent (field ``files``, or ``folder``: the profile files of a folder).
+
+    One file goes straight to its page; refusals are listed on the files page.
+    """
     bench = _bench(request)
-    limit = MAX_FILES_PER_UPLOAD * (MAX_FILE_BYTES + 65536)
-    if int(request.headers.get("content-length") or 0) > limit:
-        return bench.render("home.html", status=413, uploads=bench.store.all(),
-                            refusals=["the upload is larger than the workbench takes"],
-                            limits=(MAX_FILES_PER_UPLOAD, MAX_FILE_BYTES // (1024 * 1024)))
-    refusals, added = [], []
+    if int(request.headers.get("content-length") or 0) > MAX_UPLOAD_BYTES + 2**20:
+        return _home(bench, ["the upload is larger than the workbench takes "
+                             f"({MAX_UPLOAD_BYTES // 2**20} MB in all)"], 413)
+    refusals, added, passed_over = [], [], 0
     try:
         async with request.form(max_files=MAX_FILES_PER_UPLOAD, max_fields=20) as form:
-            for item in form.getlist("files"):
-                if isinstance(item, str):
+            sent = [(item, False) for item in form.getlist("files")] + \
+                [(item, True) for item in form.getlist("folder")]
+            for item, in_folder in sent:
+                if isinstance(item, str) or (in_folder and not from_folder(item.filename)):
+                    passed_over += not isinstance(item, str) and bool(item.filename)
                     continue
-                data = await item.read(MAX_FILE_BYTES + 1)
                 try:
-                    added.append(bench.store.add(item.filename, data))
+                    added.append(bench.store.add(item.filename, await item.read(MAX_FILE_BYTES + 1)))
                 except WarpwiseError as exc:
                     refusals.append(str(exc))
     except Exception as exc:  # the multipart parser's own refusals (too many files...)
         refusals.append(f"the upload was refused: {getattr(exc, 'detail', exc)}")
     if not added and not refusals:
         refusals.append("no file was sent: choose a drawing or outline file")
+    if passed_over:
+        refusals.append(f"{passed_over} files of the folder passed over: not a profile file "
+                        f"({', '.join(FOLDER_ENDINGS)}) or hidden")
     if len(added) == 1 and not refusals:
         return RedirectResponse(f"/file/{added[0].id}", status_code=303)
-    return bench.render("home.html", status=400 if refusals and not added else 200,
-                        uploads=bench.store.all(), refusals=refusals,
-                        limits=(MAX_FILES_PER_UPLOAD, MAX_FILE_BYTES // (1024 * 1024)))
+    return _home(bench, refusals, 400 if refusals and not added else 200)
 
 
 def _choices(form: Mapping[str, str], layers: list[str], chosen: list[str],

@@ -20,9 +20,14 @@ from ..errors import InputFileError
 
 #: Largest file taken, bytes (a drawing larger than this is refused with a message).
 MAX_FILE_BYTES = 25 * 1024 * 1024
-#: Most files in one upload, and most files kept at once.
-MAX_FILES_PER_UPLOAD = 20
+#: Most files in one upload (a folder counts each file), all of them together at most
+#: MAX_UPLOAD_BYTES, and most files kept at once.
+MAX_FILES_PER_UPLOAD = 50
+MAX_UPLOAD_BYTES = 100 * 1024 * 1024
 MAX_FILES_KEPT = 200
+#: The files taken from a folder: the catalogue's profile files and materials tables (others
+#: in the folder are passed over and counted).
+FOLDER_ENDINGS = (".dxf", ".txt", ".xy", ".csv", ".dat", ".toml")
 #: Longest name shown (longer ones are cut, for the page only).
 MAX_NAME = 120
 
@@ -64,6 +69,18 @@ def display_name(sent: str | None) -> str:
     text = (sent or "").replace("\\", "/").rsplit("/", 1)[-1]
     text = "".join(c for c in text if c.isprintable()).strip()
     return text[:MAX_NAME] or "unnamed file"
+
+
+def from_folder(sent: str | None) -> bool:
+    """Whether a file sent with a folder is taken: a profile file or materials table, not hidden.
+
+    Examples
+    --------
+    >>> from_folder("profiles/rail.DXF"), from_folder("profiles/.hidden.txt"), from_folder("a/b.png")
+    (True, False, False)
+    """
+    parts = (sent or "").replace("\\", "/").split("/")
+    return parts[-1].lower().endswith(FOLDER_ENDINGS) and not any(p.startswith(".") for p in parts)
 
 
 def stored_ending(name: str) -> str:
