@@ -8,6 +8,7 @@ from conftest import SAMPLES
 RAIL = SAMPLES / "rail_drawing_sheet_a4.dxf"  # two parts, six layers: a drawing with choices
 KEY_BAR = SAMPLES / "key_bar_12x8.txt"
 HEAT_SINK = SAMPLES / "heat_sink_stepped_fins.dxf"  # no length unit in the drawing
+MULLION = SAMPLES / "mullion_steel_reinforced.txt"  # an outline with a steel insert
 
 
 def upload(client, name, data, follow=True):

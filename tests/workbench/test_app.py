@@ -3,6 +3,7 @@ the library's (or the command line's) on the same input (common practice, no sou
 
 import html
 import json
+import re
 from dataclasses import replace
 
 import pytest
@@ -44,7 +45,9 @@ def test_file_page_shows_what_check_reads(client):
     text = page.text
     report = check_file(RAIL)
     # the parts, the layers and the verdict as warpwise check finds them
-    assert text.count("<li>part ") == len(report.parts) == 2
+    parts = re.search(r'<ol id="parts">(.*?)</ol>', text, re.S).group(1)
+    assert parts.count("<li>part ") == len(report.parts) == 2
+    assert "part 2 of 2 taken as the section" in text  # the reader's note
     for layer in report.layers:
         assert f'value="{html.escape(layer.name)}"' in text
     assert "Verdict: analysable" in text
@@ -219,3 +222,13 @@ def test_bad_materials_table_gets_the_commands_message(client, tmp_path):
     line = assert_one_line_error(code, err).removeprefix("warpwise: error: ")
     assert f'<p class="refusal" id="refusal">{escape(line)}</p>' in page
     assert table.path not in page
+
+
+def test_regions_and_materials_as_read(client):
+    from .support import MULLION
+
+    _, page = upload_sample(client, MULLION)
+    profile = load_profile(MULLION)
+    assert page.text.count("<li>region ") == len(profile.regions) == 2
+    for k, region in enumerate(profile.regions, 1):
+        assert f"<li>region {k}: {region.material}, area {region.area:.6g} mm2" in page.text

@@ -50,6 +50,8 @@ class Inspection:
     remedies: tuple[str, ...]
     report: str
     svg: str
+    regions: tuple[str, ...] = ()
+    notes: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -97,9 +99,11 @@ def inspect_upload(path: str, name: str, choices: Choices, picture: str) -> Insp
     from ..report.check_plot import plot_report
 
     try:
-        report = check_file(path, read_options(parsed("check", path, choices.read)))
+        reading = read_options(parsed("check", path, choices.read))
+        report = check_file(path, reading)
         plot_report(replace(report, source=name), picture)
         svg = Path(picture).read_text(encoding="utf-8")
+        regions, notes = _regions(reading.load(path), report.unit) if report.ok else ((), ())
     except WarpwiseError as exc:
         return _refusal(exc, path, name, choices)
     finally:
@@ -112,7 +116,18 @@ def inspect_upload(path: str, name: str, choices: Choices, picture: str) -> Insp
                       tuple((d.severity, _shown(d.message, path, name)) for d in report.defects),
                       report.ok, _shown(report.verdict, path, name),
                       tuple(r.text for r in report.remedies),
-                      _shown(format_report(report), path, name), svg)
+                      _shown(format_report(report), path, name), svg, regions,
+                      tuple(_shown(n, path, name) for n in notes))
+
+
+def _regions(profile, unit: str) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """The regions of the profile as read (material, area, holes) and the reader's notes."""
+    from ..io.defects import plural
+
+    regions = tuple(f"region {k}: {r.material or 'the material of the profile'}, area "
+                    f"{r.area:.6g} {unit}2, {plural(len(r.holes), 'hole')}"
+                    for k, r in enumerate(profile.regions, 1))
+    return regions, (*profile.notes, *profile.warnings)
 
 
 def _pictures(result, units: str) -> tuple[tuple[str, str, str], ...]:
