@@ -232,3 +232,16 @@ def test_regions_and_materials_as_read(client):
     assert page.text.count("<li>region ") == len(profile.regions) == 2
     for k, region in enumerate(profile.regions, 1):
         assert f"<li>region {k}: {region.material}, area {region.area:.6g} mm2" in page.text
+
+
+def test_error_estimates_on_request_are_the_librarys(client):
+    fid, _ = upload_sample(client, KEY_BAR)
+    _, page = analyse(client, fid, estimate_errors="1", accuracy="draft")
+    result, _ = library(KEY_BAR, KEY_BAR.name, estimate_errors=True, accuracy="draft")
+    from warpwise.report.html_parts import percent
+    from warpwise.report.quantities import error_of
+
+    assert "Estimated error" in page
+    row = re.search(r'<tr data-key="J">(.*?)</tr>', page).group(1)
+    assert row.endswith(f'<td class="num">{percent(error_of(result.errors, "J"))}</td>')
+    assert cell(page, "J_low") == number_html(record_of(result).values["J_low"])  # the bracket

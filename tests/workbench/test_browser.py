@@ -36,12 +36,14 @@ ARTEFACTS = ROOT / "test-artefacts"
 
 
 @pytest.fixture(scope="module")
-def server():
-    """``warpwise workbench --no-browser`` on a free port; its URL."""
+def server(tmp_path_factory):
+    """``warpwise workbench --no-browser`` on a free port; its URL. When it is stopped, its
+    private folder of uploads must be gone."""
     from warpwise.workbench.server import free_port
 
     port = free_port()
-    env = dict(os.environ, PYTHONPATH=os.pathsep.join(sys.path))
+    temp = tmp_path_factory.mktemp("server-temp")
+    env = dict(os.environ, PYTHONPATH=os.pathsep.join(sys.path), TMPDIR=str(temp))
     proc = subprocess.Popen([sys.executable, "-m", "warpwise.cli", "workbench", "--no-browser",
                              "--port", str(port)], env=env, stdout=subprocess.PIPE,
                             stderr=subprocess.STDOUT, text=True)
@@ -54,9 +56,11 @@ def server():
             if proc.poll() is not None:
                 raise AssertionError(proc.stdout.read()) from None
             time.sleep(0.1)
+    assert [p.name[:19] for p in temp.iterdir()] == ["warpwise-workbench-"]
     yield url
     proc.terminate()
     proc.wait(timeout=30)
+    assert not any(p.name.startswith("warpwise-workbench-") for p in temp.iterdir())
 
 
 @pytest.fixture(scope="module")
