@@ -245,3 +245,12 @@ def test_error_estimates_on_request_are_the_librarys(client):
     row = re.search(r'<tr data-key="J">(.*?)</tr>', page).group(1)
     assert row.endswith(f'<td class="num">{percent(error_of(result.errors, "J"))}</td>')
     assert cell(page, "J_low") == number_html(record_of(result).values["J_low"])  # the bracket
+
+
+def test_unknown_layer_is_refused_like_check_and_the_choices_stay(client):
+    fid, _ = upload_sample(client, RAIL)
+    page = client.get(f"/file/{fid}", params=[("layers_shown", "1"), ("layer", "nosuch")]).text
+    code, _, err = run_cli("check", RAIL, "--layer", "nosuch")
+    line = assert_one_line_error(code, err).removeprefix("warpwise: error: ")
+    assert f'<p class="refusal" id="refusal">{escape(line.replace(str(RAIL), RAIL.name))}</p>' in page
+    assert 'value="profile"' in page and '<option value="2"' in page  # still offered

@@ -169,6 +169,7 @@ async def file_page(request: Request) -> Response:
                        first if isinstance(first, Inspection) else None)
     seen = await _inspection(bench, upload, choices) if choices.read else first
     return bench.render("file.html", upload=upload, seen=seen, query=query, layers=layers,
+                        first=first if isinstance(first, Inspection) else None,
                         chosen=set(query.getlist("layer")) if "layers_shown" in query else
                         {layer.name for layer in first.layers if layer.used}
                         if isinstance(first, Inspection) else set(),
