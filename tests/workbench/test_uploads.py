@@ -112,3 +112,26 @@ def test_private_folder_removed_at_shutdown():
                                          ("x" * 300, "x" * uploads.MAX_NAME)])
 def test_display_names(sent, shown):
     assert uploads.display_name(sent) == shown
+
+
+def test_a_post_from_another_site_is_refused(client):
+    before = len(client.bench.store.all())
+    r = client.post("/upload", files=[("files", ("bar.txt", KEY_BAR.read_bytes()))],
+                    headers={"Origin": "http://elsewhere.example"})
+    assert r.status_code == 403 and r.text == "a request from another web site is refused"
+    assert len(client.bench.store.all()) == before
+    same = client.post("/upload", files=[("files", ("bar.txt", KEY_BAR.read_bytes()))],
+                       headers={"Origin": "http://testserver"})
+    assert same.status_code == 200
+
+
+def test_other_host_names_are_refused_when_bound_to_this_computer():
+    from starlette.testclient import TestClient
+
+    from warpwise.workbench.app import create_app
+
+    app = create_app(hosts=["127.0.0.1", "localhost"])
+    with TestClient(app, base_url="http://127.0.0.1:8765") as c:
+        assert c.get("/").status_code == 200
+        r = c.get("/", headers={"Host": "attacker.example:8765"})
+        assert r.status_code == 403 and "answers to 127.0.0.1, localhost only" in r.text

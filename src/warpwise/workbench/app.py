@@ -248,9 +248,17 @@ async def not_found(request: Request, exc: Exception) -> Response:
                                   message=str(exc) or "no such page")
 
 
-def create_app(store: UploadStore | None = None, board: JobBoard | None = None) -> Starlette:
-    """The workbench application (its uploads and workers removed when it shuts down)."""
+def create_app(store: UploadStore | None = None, board: JobBoard | None = None,
+               hosts: list[str] | None = None) -> Starlette:
+    """The workbench application (its uploads and workers removed when it shuts down).
+
+    POSTs from other web sites are refused; with ``hosts``, so is any other Host header
+    (:mod:`.guard`).
+    """
+    from starlette.middleware import Middleware
+
     from .catalogue_pages import ROUTES
+    from .guard import SameOrigin
 
     bench = Workbench(store or UploadStore(), board or JobBoard(), _templates(), {}, {})
     static = Path(__file__).with_name("static")
@@ -262,12 +270,13 @@ def create_app(store: UploadStore | None = None, board: JobBoard | None = None) 
               Route("/job/{jid}/cancel", job_cancel, methods=["POST"]),
               Route("/job/{jid}/download/{kind}", job_download), *ROUTES,
               Mount("/static", StaticFiles(directory=static), name="static")]
+
     @contextlib.asynccontextmanager
     async def lifespan(app: Starlette):
         yield
         bench.close()
 
     app = Starlette(routes=routes, exception_handlers={NotFoundError: not_found, 404: not_found},
-                    lifespan=lifespan)
+                    lifespan=lifespan, middleware=[Middleware(SameOrigin, hosts=hosts)])
     app.state.bench = bench
     return app

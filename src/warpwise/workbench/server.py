@@ -62,5 +62,7 @@ def serve(options: ServeOptions) -> None:
               "can use it", flush=True)
     if options.browser:
         threading.Timer(1.0, webbrowser.open, args=(url,)).start()
-    app = create_app(board=JobBoard(options.workers))
+    local = options.address in ("127.0.0.1", "localhost", "::1")
+    app = create_app(board=JobBoard(options.workers),
+                     hosts=["127.0.0.1", "localhost", "::1"] if local else None)
     uvicorn.run(app, host=options.address, port=port, log_level="warning")
