@@ -21,7 +21,7 @@ MODULES = sorted(SRC.rglob("*.py"))
 #: Pipeline rank of each top-level part; a module may import only from equal or lower ranks.
 RANK = {"errors": 0, "units": 0, "_moved": 0, "textfiles": 0, "geometry": 1, "materials": 1, "io": 2,
         "mesh": 3, "fem": 4, "properties": 5, "member": 5.5, "stress": 6, "report": 7, "catalogue": 8,
-        "cli": 9, "__init__": 10, "__main__": 10}
+        "cli": 9, "workbench": 9, "__init__": 10, "__main__": 10}
 
 
 def _part(path: Path) -> str:

@@ -29,7 +29,8 @@ PLAIN_DRAWING = SAMPLES / "angle_thick_60x40x8.dxf"  # no sharp corner
 NOT_FOR_AN_OUTLINE = ("ezdxf", "matplotlib", "scipy.optimize", "scipy.spatial",
                       "concurrent.futures.process", "warpwise.io.dxf", "warpwise.catalogue",
                       "warpwise.stress", "warpwise.member", "warpwise.report.plots",
-                      "warpwise.report.plot_parts")
+                      "warpwise.report.plot_parts", "warpwise.workbench", "starlette",
+                      "uvicorn", "jinja2")
 
 _IMPORT_LINE = re.compile(r"^import time:\s+\d+ \|\s+\d+ \|( *)(\S+)\s*$")
 

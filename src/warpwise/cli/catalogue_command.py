@@ -106,7 +106,7 @@ def _drop_stale_pages(stage: Path, outcomes: list[Outcome]) -> None:
             page.unlink()
 
 
-def _workbook(good: list[Outcome], bad: list[Outcome], options: RunOptions, units: str) -> bytes:
+def workbook_of(good: list[Outcome], bad: list[Outcome], options: RunOptions, units: str) -> bytes:
     """The XLSX workbook of a run: properties, failures and the materials the rows name."""
     from ..materials import resolve
     from ..report.workbook import workbook_bytes
@@ -117,7 +117,7 @@ def _workbook(good: list[Outcome], bad: list[Outcome], options: RunOptions, unit
     return workbook_bytes(records, [(o.path, o.error or "") for o in bad], materials or [], units)
 
 
-def _pages(good: list[Outcome], units: str | None) -> bytes:
+def pdf_pages(good: list[Outcome], units: str | None) -> bytes:
     """The PDF datasheets of a run, one page per analysed profile (in its own units by default)."""
     from ..report.pdf_sheet import pdf_bytes, sheet_profile
 
@@ -158,8 +158,8 @@ def run_catalogue_command(args: argparse.Namespace) -> int:
         files = [(args.csv, csv_text([o.record for o in good], units=units) if args.csv else ""),
                  (args.json, json_text([o.record.in_units(units) for o in good]) if args.json
                   else ""),
-                 (args.xlsx, _workbook(good, bad, options, units) if args.xlsx else b""),
-                 (args.pdf, _pages(good, args.report_units) if args.pdf else b"")] \
+                 (args.xlsx, workbook_of(good, bad, options, units) if args.xlsx else b""),
+                 (args.pdf, pdf_pages(good, args.report_units) if args.pdf else b"")] \
             if good else []
         if stage is not None:
             from ..report.html import write_catalogue_index

@@ -100,11 +100,11 @@ def run_props(args: argparse.Namespace) -> int:
                          "'warpwise catalogue ... --html DIR'")
     from ..io.progress import Running
     from ..properties.run import run_analysis
-    from ..report.files import csv_text, json_text
     from ..report.records import record_of
     from ..report.table import property_table
-    from .axis_output import axis_columns, axis_objects, axis_table
+    from .axis_output import axis_table
     from .page_output import prints_report
+    from .props_output import props_csv, props_datasheet, props_json
 
     reading, options = read_options(args), analysis_options(args)
     profiles = [reading.load(f) for f in args.files]
@@ -120,22 +120,13 @@ def run_props(args: argparse.Namespace) -> int:
     records = [record_of(r) for r in results]
     _warn(records)
     axes = _about_axis(args, results)
-    table_units = _table_units(records, args.report_units) if args.csv else ""
-    table = csv_text(records, units=table_units, extra=axis_columns(axes, table_units)) \
+    table = props_csv(records, _table_units(records, args.report_units), axes) \
         if args.csv else ""
     shown = [r.in_units(args.report_units or r.units) for r in records]
-    text = json_text(shown, extra=axis_objects(axes, args.report_units)) if args.json else \
+    text = props_json(records, args.report_units, axes) if args.json else \
         "\n".join(axis_table(property_table(r), a, args.report_units)
                   for r, a in zip(shown, axes or [None] * len(shown), strict=True))
-    sheet = None
-    if args.html:
-        from ..report.datasheet import datasheet_html
-        from ..stress.shear import nominal_torsion
-
-        shown_units = args.report_units or results[0].units
-        sheet = datasheet_html(results[0], torsion=nominal_torsion(results[0], shown_units),
-                               nominal_torque=True, units=shown_units,
-                               about_axis=axes[0][0] if axes else None)
+    sheet = props_datasheet(results[0], args.report_units, axes) if args.html else None
     pages = b""
     if args.pdf:
         from ..report.pdf_sheet import pdf_bytes, profile_loops, sheet_profile
@@ -244,12 +235,7 @@ def run_stress(args: argparse.Namespace) -> int:
     if args.load_cases:
         return run_load_cases(args)
     from ..report.records import record_of
-    from ..stress import combined_stress, shear_stress, torsion_stress
-    from ..stress.points import normal_extremes, stress_at_points
-    from ..stress.recovery import reference_shear_modulus
-    from ..units import Converter, system
     from .page_output import page_outputs, prints_report, stress_html
-    from .stress_output import combined_json, combined_text, shear_json, shear_text
 
     if args.csv:
         raise UsageError("--csv writes the table of --load-cases: give a load-case file")
@@ -260,6 +246,28 @@ def run_stress(args: argparse.Namespace) -> int:
     check_outputs(page_outputs(args), _inputs(args, [args.file]))
     result = _analyse_file(args.file, args, bounds=False)
     _warn([record_of(result)])
+    obj, text, stress = stress_report(args, result, args.file)
+    picture = _stress_figure(args, result, stress)
+    if prints_report(args):
+        sys.stdout.write(text)
+    write_outputs([(args.html, stress_html(obj, picture) if args.html else "")])
+    return 0
+
+
+def stress_report(args: argparse.Namespace, result: SectionResult, file: str,
+                  figure: bool = False):
+    """The JSON and text of ``stress`` for an analysed result, and the stress to draw.
+
+    The stress to draw is the combined stress, or the torsion stress of a torque when a
+    picture is wanted (``--html``, or ``figure``), else None. Shared by the command and the
+    workbench (:mod:`warpwise.workbench`).
+    """
+    from ..stress import combined_stress, shear_stress, torsion_stress
+    from ..stress.points import normal_extremes, stress_at_points
+    from ..stress.recovery import reference_shear_modulus
+    from ..units import Converter, system
+    from .stress_output import combined_json, combined_text, shear_json, shear_text
+
     loads, G = _in_profile_units(args, result)
     G = reference_shear_modulus(result, G)
     if loads.T != 0 and G is None:
@@ -272,19 +280,12 @@ def run_stress(args: argparse.Namespace) -> int:
         at = stress_at_points(result, loads, [into.point(p) for p in args.at],
                               shown=args.at) if args.at else None
         extremes = normal_extremes(result, c)
-        obj = combined_json(args.file, result, c, G, units, extremes, at)
-        text = obj if args.json else combined_text(args.file, result, c, units, extremes, at)
-        picture = _stress_figure(args, result, c)
-    else:
-        s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
-        obj = shear_json(args.file, result, s, G, units)
-        text = obj if args.json else shear_text(args.file, result, s, G, units)
-        picture = _stress_figure(args, result, torsion_stress(result, loads.T, G)
-                                 if args.html and loads.T else None)
-    if prints_report(args):
-        sys.stdout.write(text)
-    write_outputs([(args.html, stress_html(obj, picture) if args.html else "")])
-    return 0
+        obj = combined_json(file, result, c, G, units, extremes, at)
+        return obj, obj if args.json else combined_text(file, result, c, units, extremes, at), c
+    s = shear_stress(result, loads.T, loads.Vx, loads.Vy, G)
+    obj = shear_json(file, result, s, G, units)
+    drawn = torsion_stress(result, loads.T, G) if (args.html or figure) and loads.T else None
+    return obj, obj if args.json else shear_text(file, result, s, G, units), drawn
 
 
 def _stress_figure(args: argparse.Namespace, result: SectionResult, stress):
@@ -416,9 +417,22 @@ def run_shapes(args: argparse.Namespace) -> int:
     return 0
 
 
+def run_workbench(args: argparse.Namespace) -> int:
+    """``warpwise workbench``: serve the workbench until Ctrl-C (:mod:`warpwise.workbench`)."""
+    if not 0 <= args.port <= 65535:
+        raise UsageError(f"--port must be 0 to 65535, got {args.port}")
+    try:
+        from ..workbench.server import ServeOptions, serve
+    except ImportError as exc:
+        raise UsageError(f"the workbench needs {exc.name}: install warpwise with its "
+                         "dependencies (pip install -e .)") from None
+    serve(ServeOptions(args.address, args.port, not args.no_browser, args.workers))
+    return 0
+
+
 COMMANDS = {"props": run_props, "stress": run_stress, "check": run_check,
             "catalogue": run_catalogue_command, "plot": run_plot, "shapes": run_shapes,
-            "member": run_member}
+            "member": run_member, "workbench": run_workbench}
 
 
 def main(argv: Sequence[str] | None = None) -> int:

@@ -351,6 +351,23 @@ def _add_shapes(sub: argparse._SubParsersAction) -> None:
                    description="List the parametric profiles and their parameters.")
 
 
+def _add_workbench(sub: argparse._SubParsersAction) -> None:
+    p = sub.add_parser(
+        "workbench", help="the whole job on a local web page, opened in the browser",
+        description="Start the workbench, a web page served on this computer: open drawings, "
+                    "see what was read, choose parts, layers, units and materials, get the "
+                    "properties, stresses and datasheets, run a catalogue. Ctrl-C stops it and "
+                    "deletes the files opened.")
+    p.add_argument("--address", default="127.0.0.1", metavar="HOST",
+                   help="address to serve on (default 127.0.0.1: this computer only; the "
+                        "workbench has no log-in)")
+    p.add_argument("--port", type=int, default=8765, metavar="N",
+                   help="port (default 8765; 0 picks a free one)")
+    p.add_argument("--workers", type=positive_int, default=1, metavar="N",
+                   help="analyses at the same time, each in its own process (default 1)")
+    p.add_argument("--no-browser", action="store_true", help="do not open the browser")
+
+
 def _add_check(sub: argparse._SubParsersAction) -> None:
     check = sub.add_parser(
         "check", help="what a drawing holds and everything wrong with it",
@@ -366,7 +383,7 @@ def _add_check(sub: argparse._SubParsersAction) -> None:
 #: Each command's subparser, in the order ``warpwise --help`` lists them.
 _COMMAND_PARSERS = {"props": _add_props, "stress": _add_stress, "catalogue": _add_catalogue,
                     "plot": _add_plot, "member": _add_member, "shapes": _add_shapes,
-                    "check": _add_check}
+                    "check": _add_check, "workbench": _add_workbench}
 
 
 def build_parser(command: str | None = None) -> argparse.ArgumentParser:

@@ -81,8 +81,13 @@ class _Picture:
         title = "".join(sv.text(10, 10 + sv.TITLE_LINE * (k + 0.75), line, size=13,
                                 colour=sv.TITLE_COLOUR) for k, line in enumerate(self.title))
         w, h = sv.num(f.width), sv.num(height)
+        x0, _, _, y1 = f.extent
+        # the drawing coordinates of a pixel (x, y): x0 + (x - left) / scale, y1 - (y - top) / scale,
+        # times k in the report's length unit (the workbench shows them under the pointer)
+        frame = " ".join(f"{v:.12g}" for v in (x0, y1, f.left, f.top, f.scale, self.k))
         return (f'<svg xmlns="http://www.w3.org/2000/svg" width="{w}" height="{h}" '
                 f'viewBox="0 0 {w} {h}" role="img" aria-label="{escape(" ".join(self.title))}" '
+                f'data-frame="{frame}" data-unit="{escape(self.show.system.length)}" '
                 f"font-family='{sv.FONT}'><rect width=\"{w}\" height=\"{h}\" fill=\"#ffffff\"/>"
                 f'<g class="title">{title}</g>{sv.axes(f, self.k, self.show.system.length)}'
                 f'{"".join(self.body)}{sv.legend(lines, f.left, legend_top)}</svg>')
@@ -106,8 +111,12 @@ class _Picture:
                              f"S: shear centre {pp.point_text(self.show, (xs, ys))}"))
 
     def bands(self, fields: list[tuple[np.ndarray, np.ndarray]], levels: np.ndarray,
-              colours: Sequence[str]) -> None:
-        """Filled bands of nodal fields, each on its elements: (element mask, values (n,))."""
+              colours: Sequence[str], what: str = "") -> None:
+        """Filled bands of nodal fields, each on its elements: (element mask, values (n,)).
+
+        Each band says its range (``data-band``: ``what`` from ... to ..., the levels' units),
+        for a reader that shows the value under the pointer.
+        """
         mesh = self.result.mesh
         rings = Rings.join([band_rings(mesh.nodes, pp.sub_triangles(mesh.elements[mask]), z, levels)
                             for mask, z in fields])
@@ -123,8 +132,10 @@ class _Picture:
             d = sv.path_data(px[start[first]:start[last]], start[first:last + 1] - start[first])
             c = colours[int(band)]
             # a hairline of the band's own colour closes the seams between neighbouring bands
+            lo, hi = levels[int(band)], levels[int(band) + 1]
             paths.append(f'<path d="{d}" fill="{c}" stroke="{c}" stroke-width="5" '
-                         'stroke-linejoin="round"/>')
+                         f'stroke-linejoin="round" data-band="{escape(what)} {pp.fmt(lo)} to '
+                         f'{pp.fmt(hi)}"/>')
         self.body.append(f'<g class="bands" transform="scale(0.1)" fill-rule="evenodd">'
                          f'{"".join(paths)}</g>')
 
@@ -267,7 +278,8 @@ def warping_svg(result: SectionResult, *, width: float = 7.0, units: str | None 
     pic = _Picture(result, units, f"{name}: warping function omega\nabout the shear centre, "
                    "zero mean", width, [result.torsion.shear_centre], 0.06, colour_bar=True)
     mesh = result.mesh
-    pic.bands([(np.ones(mesh.n_elements, dtype=bool), omega)], levels, colours)
+    pic.bands([(np.ones(mesh.n_elements, dtype=bool), omega)], levels, colours,
+              f"omega ({show.unit(AREA)})")
     if lo < 0 < hi:
         segs = iso_segments(mesh.nodes, pp.sub_triangles(mesh.elements), omega, 0.0)
         d = sv.path_data(pic.frame.px(segs.reshape(-1, 2)), np.arange(0, 2 * len(segs) + 1, 2),
@@ -380,7 +392,7 @@ def torsion_svg(result: SectionResult, stress: TorsionStress, *, width: float = 
                   f"(G = {pp.fmt(show(stress.shear_modulus, STRESS))} {unit})")
     pic = _Picture(result, units, title, width, [result.torsion.shear_centre, stress.tau_max_at],
                    0.06, colour_bar=True)
-    pic.bands([(mask, z) for mask, z, _ in fields], levels, colours)
+    pic.bands([(mask, z) for mask, z, _ in fields], levels, colours, f"tau ({unit})")
     pic.outline()
     _arrows(pic, stress)
     _corners(pic)
