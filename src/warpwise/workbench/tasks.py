@@ -2,7 +2,7 @@
 
 Each task is a top-level function of plain arguments (picklable) returning a plain dataclass
 of texts and numbers for the page. Every step is the command line's: the options are parsed
-by its parser (:mod:`.choices`), the file read by :meth:`ReadOptions.load`, the profile
+by its parser (:mod:`.choices`), the file read by :meth:`warpwise.io.options.ReadOptions.load`, the profile
 analysed by :func:`~warpwise.properties.run.run_analysis`, and the outputs written by the
 functions ``props`` and ``stress`` write them with. A :class:`~warpwise.errors.WarpwiseError`
 comes back as :class:`Refusal` with its one-line message, the stored file's name replaced by
